@@ -1,0 +1,209 @@
+/**
+ * The bulletin model: the one contract between the build step (generator/) and the
+ * renderer (site/). generator/ writes it as JSON files; site/ renders only from it.
+ *
+ * Files written by the build step into the model folder (WRACKLINE_MODEL):
+ *   region-<seasonId>.json              RegionSummary, one per published season
+ *   bulletins/<seasonId>/<segmentId>.json  Bulletin, one per segment per published season
+ *   site.json                           SiteModel (seasons list, settings digest, manifest, validation report)
+ *
+ * Every number a sentence prints is also present as a number here, so a test can check the
+ * sentence against the model. Undefined quantities are null, never NaN.
+ */
+import type { TrendResult } from '../stats/types.ts';
+
+/** Season of a given year, e.g. "2026-autumn". Winter of 2026 = Dec 2025 to Feb 2026. */
+export type SeasonId = string;
+
+export type IndicatorId = 'beach-litter' | 'water-microplastics' | 'shellfish-tissue' | 'wildlife-reports' | 'drift-arrivals';
+
+export type LevelId = 'scant' | 'noticeable' | 'marked' | 'heavy';
+
+export type SegmentKind = 'beach' | 'bay' | 'harbour' | 'estuary' | 'island-shore' | 'rocky-shore' | 'lagoon';
+
+export type ShellfishUse = 'farmed' | 'gathered' | 'farmed-and-gathered' | 'none';
+
+export interface SeasonRef {
+  id: SeasonId;            // "2026-autumn"
+  label: string;           // "Autumn 2026"
+  start: string;           // ISO 8601 date, first day
+  end: string;             // ISO 8601 date, last day
+}
+
+export interface Contact {
+  role: 'shellfish-sanitation' | 'public-health' | 'debris-report' | 'publisher' | 'wildlife-rescue';
+  name: string;
+  phone?: string;
+  email?: string;
+  url?: string;
+}
+
+export interface SegmentInfo {
+  id: string;                       // URL-safe slug
+  name: string;                     // plain text from the input; always escaped on output
+  kind: SegmentKind;
+  shellfish: ShellfishUse;
+  place: string | null;             // nearest locality, plain text
+  lengthKm: number;                 // geodesic length of the segment line
+  /** GeoJSON geometry (WGS84 lon/lat), simplified for maps. */
+  geometry: GeoJSON.Geometry;
+  /** [west, south, east, north] */
+  bbox: [number, number, number, number];
+}
+
+export interface Observation {
+  date: string;                     // ISO 8601 date of the survey or sample
+  t: number;                        // decimal year
+  season: SeasonId;
+  value: number | null;             // normalised value in the indicator's unit; for censored = detection limit
+  censored: boolean;                // true when reported as "<x"
+  note?: string;                    // e.g. species, mesh size
+}
+
+export type Direction = 'rising' | 'falling' | 'no-clear-direction' | 'too-little-data';
+
+export interface IndicatorBulletin {
+  indicator: IndicatorId;
+  label: string;                    // "Beach litter"
+  unit: string;                     // "items per 100 m of beach"
+  unitShort: string;                // "items/100 m"
+  observations: Observation[];      // everything up to the end of the season, oldest first
+  /** Value for the published season alone (median of its samples), null when none. */
+  seasonValue: number | null;
+  /** Median over the last four seasons (the assessment value), null when none. */
+  assessmentValue: number | null;
+  trend: TrendResult | null;        // null when there is no data at all
+  /** Benjamini–Hochberg q-value of this segment's trend among all segments, this indicator. */
+  qValue: number | null;
+  direction: Direction;
+  /** Probability the trend is upward (bootstrap), null when unknown. */
+  probabilityUp: number | null;
+  likelihoodWords: string | null;   // "very likely", from one documented scheme
+  threshold: { value: number; label: string; source: string } | null;
+  /** Plain-language sentences about this indicator, in order. */
+  sentences: string[];
+  /** Short text alternative for the chart. */
+  chartDescription: string;
+  seasonsDisagree: boolean;
+}
+
+export interface RuleHit {
+  ruleId: string;
+  level: LevelId;
+  text: string;                     // "Median beach litter 43 items/100 m is at or above 20 (EU threshold value)"
+}
+
+export interface LevelResult {
+  id: LevelId;
+  rank: 1 | 2 | 3 | 4;
+  label: string;                    // our own words
+  hits: RuleHit[];                  // rules that matched; the highest sets the level
+}
+
+export interface AccumulationZone {
+  id: string;                       // "zone-1"
+  lon: number;
+  lat: number;
+  particles: number;
+  radiusKm: number;
+  hull: [number, number][];         // convex hull, lon/lat
+}
+
+export interface DriftBulletin {
+  arrivals: number;                 // modelled particles arriving this season
+  arrivalsPerKm: number;
+  regionPercentile: number;         // 0..100 among segments this season
+  nearestZone: { id: string; distanceKm: number } | null;
+}
+
+export interface Caution {
+  id: string;                       // "not-a-closure", "check-authority", …
+  text: string;
+}
+
+export interface Bulletin {
+  schemaVersion: 1;
+  invented: boolean;                // demo data: every page says so
+  season: SeasonRef;
+  previousSeason: SeasonRef | null;
+  published: string;                // ISO date from the scenario, never the clock
+  correction: { date: string; reason: string } | null;
+  segment: SegmentInfo;
+  level: LevelResult;
+  previousLevel: LevelResult | null;
+  headline: string;                 // one sentence
+  summary: string[];                // 2–4 sentences: level now and last season, main trend
+  changes: string[];                // "what changed since last season"
+  indicators: IndicatorBulletin[];
+  drift: DriftBulletin | null;
+  sections: {
+    growers: { title: string; sentences: string[] } | null;   // only where shellfish ≠ none
+    visitors: { title: string; sentences: string[] };
+    reporters: { keyNumbers: { label: string; value: string }[]; citation: string };
+  };
+  cautions: { shellfish: Caution[]; debris: Caution[] };
+  authorities: Contact[];
+  permalink: string;                // "/seasons/2026-autumn/<segment>/"
+}
+
+export interface RegionalTrend {
+  indicator: IndicatorId;
+  label: string;
+  S: number | null;
+  z: number | null;
+  p: number | null;
+  slope: number | null;
+  unitShort: string;
+  sentence: string;
+}
+
+export interface RegionSummary {
+  schemaVersion: 1;
+  invented: boolean;
+  season: SeasonRef;
+  published: string;
+  region: { id: string; name: string; description: string };
+  publisher: Contact;
+  segments: {
+    id: string;
+    name: string;
+    kind: SegmentKind;
+    shellfish: ShellfishUse;
+    level: LevelResult;
+    previousLevel: LevelResult | null;
+    directions: Partial<Record<IndicatorId, Direction>>;
+    geometry: GeoJSON.Geometry;
+  }[];
+  regionalTrends: RegionalTrend[];
+  zones: AccumulationZone[];
+  headline: string;
+  summary: string[];
+}
+
+export interface ValidationIssue {
+  file: string;                     // path relative to the scenario folder
+  row: number | null;               // 1-based data row (header = row 1 of the file is reported as row 1)
+  column: string | null;
+  value: string | null;
+  expected: string;
+  message: string;
+  severity: 'error' | 'warning';
+  excluded: boolean;                // the record was left out of the bulletin
+}
+
+export interface ValidationReport {
+  ok: boolean;                      // no errors
+  files: { file: string; read: number; kept: number; excluded: number }[];
+  issues: ValidationIssue[];
+}
+
+export interface SiteModel {
+  schemaVersion: 1;
+  invented: boolean;
+  generator: { name: 'wrackline'; version: string };
+  region: { id: string; name: string; description: string };
+  seasons: (SeasonRef & { published: string; current: boolean })[];
+  manifest: { file: string; sha256: string; bytes: number }[];
+  validation: ValidationReport;
+  settingsDigest: { riskRules: { id: string; level: LevelId; text: string }[]; confidence: number; falseDiscoveryRate: number };
+}

@@ -1,0 +1,59 @@
+/**
+ * What the readers hand to the rest of the build: a validated, typed scenario.
+ * Produced by `loadScenario(dir)` in generator/read/load-scenario.ts. Reading never throws on
+ * bad data: every problem lands in `report`; only an unreadable scenario folder throws a
+ * ScenarioError (generator/errors.ts).
+ */
+import type { IndicatorId, SegmentKind, ShellfishUse, ValidationReport, AccumulationZone } from '../model/types.ts';
+import type { ScenarioSettings } from './settings.ts';
+
+export interface Segment {
+  id: string;
+  name: string;
+  kind: SegmentKind;
+  shellfish: ShellfishUse;
+  place: string | null;
+  lengthKm: number;
+  geometry: GeoJSON.Geometry;       // as read, WGS84 lon/lat
+  bbox: [number, number, number, number];
+}
+
+/** One kept record of a monitoring table, normalised to the indicator's unit. */
+export interface Record {
+  indicator: IndicatorId;
+  segmentId: string;
+  date: string;                     // ISO 8601 date
+  t: number;                        // decimal year
+  season: string;                   // "2026-autumn"
+  seasonName: string;               // "autumn"
+  value: number | null;             // normalised; for censored = detection limit
+  censored: boolean;
+  /** Extra numbers some rules need, e.g. cleanCoastIndex for beach litter. */
+  extra: { [key: string]: number | string | null };
+  source: { file: string; row: number };
+}
+
+/** Modelled drift results for one segment and one season. */
+export interface DriftArrivals {
+  segmentId: string;
+  season: string;
+  arrivals: number;
+  arrivalsPerKm: number;
+  nearestZone: { id: string; distanceKm: number } | null;
+}
+
+export interface InputFile {
+  file: string;                     // relative to the scenario folder
+  sha256: string;
+  bytes: number;
+}
+
+export interface LoadedScenario {
+  dir: string;
+  settings: ScenarioSettings;
+  segments: Segment[];
+  records: Record[];                // all indicators, sorted by indicator, segment, date
+  drift: { arrivals: DriftArrivals[]; zones: { season: string; zones: AccumulationZone[] }[] } | null;
+  inputs: InputFile[];
+  report: ValidationReport;
+}
