@@ -139,7 +139,12 @@ export interface Bulletin {
   sections: {
     growers: { title: string; sentences: string[] } | null;   // only where shellfish ≠ none
     visitors: { title: string; sentences: string[] };
-    reporters: { keyNumbers: { label: string; value: string }[]; citation: string };
+    reporters: {
+      keyNumbers: { label: string; value: string }[];
+      citation: string;
+      /** Site-relative links to the data and the methods (optional). */
+      links?: { label: string; href: string }[];
+    };
   };
   cautions: { shellfish: Caution[]; debris: Caution[] };
   authorities: Contact[];
@@ -189,6 +194,10 @@ export interface ValidationIssue {
   message: string;
   severity: 'error' | 'warning';
   excluded: boolean;                // the record was left out of the bulletin
+  /** Catalogue entry name (generator/errors.ts), e.g. "DuplicateKey". */
+  code?: string;
+  /** How to fix the input, from the catalogue. */
+  hint?: string;
 }
 
 export interface ValidationReport {

@@ -74,6 +74,8 @@ export const settingsSchema = z.object({
     })
     .default({}),
   riskRules: z.array(riskRuleSchema).default([]),
+  /** First day of the monitored period; records dated earlier are left out. Optional. */
+  monitoringStart: isoDate.optional(),
 });
 
 export type ScenarioSettings = z.infer<typeof settingsSchema>;

@@ -10,6 +10,8 @@ export interface SeriesPoint {
   value: number | null;      // null = missing
   censored?: boolean;
   season?: string;           // season name for the Seasonal Kendall test ("winter", …)
+  /** Cycle (e.g. the year a winter belongs to) for the Hirsch & Slack covariance; defaults to ⌊t⌋. */
+  cycle?: number;
 }
 
 export interface MannKendallResult {
@@ -19,6 +21,8 @@ export interface MannKendallResult {
   p: number | null;          // two-sided, normal approximation with continuity correction
   tau: number | null;        // Kendall's tau-b
   pExact?: number | null;    // exact null distribution of S, n ≤ 10 and no ties
+  /** Kendall's tau-a, S / [n(n−1)/2] (the form EnvStats prints). */
+  tauA?: number | null;
 }
 
 export interface SenResult {
@@ -46,6 +50,12 @@ export interface SeasonalKendallResult {
   /** van Belle & Hughes (1984) test of homogeneous seasonal trends. */
   heterogeneity: { chi2: number; df: number; p: number } | null;
   seasons: { season: string; n: number; S: number; varS: number }[];
+  /** S′ / Σ n_g(n_g−1)/2 (the form EnvStats prints). */
+  tauA?: number | null;
+  /** z from the covariance-corrected variance. */
+  zCovariance?: number | null;
+  /** Number of within-season slopes. */
+  nSlopes?: number;
 }
 
 export interface SerialCorrectionResult {

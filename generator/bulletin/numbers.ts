@@ -1,0 +1,101 @@
+/**
+ * Rounding of numbers printed in bulletin sentences: "numbers rounded to what the data support".
+ *
+ * The rule (stated on the methods page):
+ * - A rate of change shown with its likely range is rounded, together with the two ends of the
+ *   range, to the decimal place of the first significant digit of the range's width. The width of
+ *   the range says how many digits mean something; digits below it are noise. A width of 8 gives
+ *   whole numbers ("about 6; likely between 2 and 10"), a width of 0.3 gives one decimal.
+ *   Reporting an estimate to the place of its uncertainty's leading digit is common practice.
+ * - Any other number (a median, a season value, arrivals per km) is rounded to two significant
+ *   figures (43.53 → 44, 0.4712 → 0.47, 1234 → 1200).
+ *
+ * All functions are pure; `formatNumber` never prints "−0", writes negative numbers with the minus
+ * sign (U+2212) and uses "," between thousands.
+ */
+
+/** The power of ten of the leading digit: 43.5 → 1, 0.47 → −1, 8 → 0. Null for 0 or non-finite. */
+export function leadingDigitPlace(value: number): number | null {
+  if (!Number.isFinite(value) || value === 0) return null;
+  return Math.floor(Math.log10(Math.abs(value)) + 1e-12);
+}
+
+/** Number of decimals (≥ 0) that rounding to `significant` figures of `value` needs. */
+export function decimalsForSignificant(value: number, significant = 2): number {
+  const place = leadingDigitPlace(value);
+  if (place === null) return 0;
+  return Math.max(0, significant - 1 - place);
+}
+
+/** Round to a number of decimals, or (negative decimals) to tens, hundreds… */
+export function roundToDecimals(value: number, decimals: number): number {
+  if (decimals >= 0) {
+    const factor = 10 ** decimals;
+    const rounded = Math.round(Math.abs(value) * factor + 1e-9) / factor;
+    return value < 0 ? -rounded : rounded;
+  }
+  const factor = 10 ** -decimals;
+  const rounded = Math.round(Math.abs(value) / factor + 1e-9) * factor;
+  return value < 0 ? -rounded : rounded;
+}
+
+/** Round to `significant` significant figures (two by default). */
+export function roundSignificant(value: number, significant = 2): number {
+  const place = leadingDigitPlace(value);
+  if (place === null) return value === 0 ? 0 : value;
+  return roundToDecimals(value, significant - 1 - place);
+}
+
+/** Print a number with exactly `decimals` decimals (≥ 0) and thousands separators. */
+export function formatNumber(value: number, decimals = 0): string {
+  const safeDecimals = Math.max(0, decimals);
+  const text = Math.abs(value).toLocaleString('en-US', {
+    minimumFractionDigits: safeDecimals,
+    maximumFractionDigits: safeDecimals,
+    useGrouping: true,
+  });
+  const isZero = Number(text.replace(/,/g, '')) === 0;
+  return value < 0 && !isZero ? `\u2212${text}` : text;
+}
+
+/** Two significant figures, printed. 43.53 → "44"; 0.4712 → "0.47"; 1234 → "1,200". */
+export function formatSignificant(value: number, significant = 2): string {
+  const rounded = roundSignificant(value, significant);
+  return formatNumber(rounded, decimalsForSignificant(rounded, significant));
+}
+
+export interface RoundedRate {
+  slope: number;
+  lower: number | null;
+  upper: number | null;
+  decimals: number;
+  text: { slope: string; lower: string | null; upper: string | null };
+}
+
+/**
+ * Round a rate and its likely range by the width rule above. Without a range (or a zero-width
+ * range) the rate is rounded to two significant figures.
+ */
+export function roundRate(slope: number, lower: number | null, upper: number | null): RoundedRate {
+  let decimals: number;
+  const width = lower !== null && upper !== null ? upper - lower : null;
+  const widthPlace = width !== null ? leadingDigitPlace(width) : null;
+  if (widthPlace !== null) decimals = -widthPlace;
+  else decimals = decimalsForSignificant(slope, 2);
+  const shown = Math.max(0, decimals);
+  const r = (x: number): number => roundToDecimals(x, decimals);
+  const roundedSlope = r(slope);
+  const roundedLower = lower === null ? null : r(lower);
+  const roundedUpper = upper === null ? null : r(upper);
+  return {
+    slope: roundedSlope,
+    lower: roundedLower,
+    upper: roundedUpper,
+    decimals: shown,
+    text: {
+      slope: formatNumber(roundedSlope, shown),
+      lower: roundedLower === null ? null : formatNumber(roundedLower, shown),
+      upper: roundedUpper === null ? null : formatNumber(roundedUpper, shown),
+    },
+  };
+}

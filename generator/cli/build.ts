@@ -1,0 +1,168 @@
+/**
+ * `wrackline build`: read, check, compute, render and publish a scenario's site.
+ *
+ *   wrackline build [--scenario DIR] [--out DIR] [--cache DIR] [--no-cache] [--quiet]
+ *
+ * Exit codes: 0 published (or already up to date), 1 invalid data or a refused publication
+ * (archive, safety), 2 bad usage, an unreadable scenario folder, or an output we must not replace.
+ */
+import path from 'node:path';
+import { parseArgs } from 'node:util';
+import type { ValidationReport } from '../model/types.ts';
+import { createProgress, formatCount, formatDuration } from '../progress/progress.ts';
+import type { Progress } from '../progress/progress.ts';
+import { indexWithPagefind, packageRoot, renderWithAstro } from '../publish/astro-render.ts';
+import { openTrendCache, statisticsFingerprint } from '../publish/trend-cache.ts';
+import { buildRelease } from '../publish/build-release.ts';
+import type { BuildSteps } from '../publish/build-steps.ts';
+import { PublishError } from '../publish/publish-error.ts';
+import { placeFor } from '../publish/release-swap.ts';
+
+export const buildHelp = `Usage: wrackline build [options]
+
+Validates a scenario, computes every bulletin and publishes the static site.
+The output folder changes only when the whole build succeeds (it is swapped in
+at once); a past season's published bulletin never changes unless the scenario
+records a correction.
+
+Options:
+  --scenario DIR   scenario folder holding datapackage.json (default: .)
+  --out DIR        output folder for the site (default: dist)
+  --cache DIR      where reusable per-series results are kept
+                   (default: <out>.wrackline/cache; safe to delete)
+  --no-cache       compute everything afresh
+  --site DIR       Astro project that renders the model (default: the built-in site)
+  --quiet          print only errors (also when the CI variable is set)
+  -h, --help       show this help
+
+Exit codes: 0 published, 1 invalid data or refused publication, 2 bad usage or unreadable input`;
+
+function usageError(stderr: (text: string) => void, command: string, error: unknown): 2 {
+  stderr(`wrackline ${command}: ${error instanceof Error ? error.message : String(error)}\nRun \`wrackline ${command} --help\` for usage.`);
+  return 2;
+}
+
+/** A readable summary of a validation report with errors (at most `limit` issues shown). */
+export function formatReport(report: ValidationReport, limit = 20): string {
+  const errors = report.issues.filter((item) => item.severity === 'error');
+  const warnings = report.issues.length - errors.length;
+  const lines = [`The scenario has ${errors.length} error(s) and ${warnings} warning(s); nothing was built or published.`];
+  for (const item of errors.slice(0, limit)) {
+    const where = [item.file, item.row === null ? null : `row ${item.row}`, item.column === null ? null : `column ${item.column}`]
+      .filter((part) => part !== null)
+      .join(', ');
+    const value = item.value === null ? '' : ` value ${JSON.stringify(item.value)};`;
+    lines.push(`  - ${where}:${value} ${item.message} (expected ${item.expected})`);
+  }
+  if (errors.length > limit) lines.push(`  … and ${errors.length - limit} more errors (run \`wrackline check\` for all of them)`);
+  return lines.join('\n');
+}
+
+/** The real steps: scenario reader, model builder (with the trend cache), model writer, Astro, pagefind. */
+export async function realSteps(siteRoot: string | undefined): Promise<BuildSteps> {
+  const { loadScenario } = await import('../read/load-scenario.ts');
+  const { buildModel, generatorVersion } = await import('../model/build-model.ts');
+  const { assembleModel } = await import('../model/assemble-model.ts');
+  const { statsTrendEngine } = await import('../model/trend-engine.ts');
+  const { writeModel } = await import('../model/write-model.ts');
+  return {
+    load: (dir, onProgress) => loadScenario(dir, { onProgress }),
+    model: async (scenario, options) => {
+      const onProgress = (_phase: string, done: number, total?: number): void => options.onProgress(done, total);
+      if (options.cacheDir === null) return buildModel(scenario, { onProgress });
+      const fingerprint = await statisticsFingerprint(packageRoot, generatorVersion);
+      const cache = await openTrendCache(options.cacheDir, fingerprint, statsTrendEngine);
+      const set = assembleModel(scenario, cache.engine, { onProgress });
+      await cache.save();
+      const { hits, misses } = cache.stats();
+      options.log(`trend cache: ${formatCount(hits)} series reused, ${formatCount(misses)} computed`);
+      return set;
+    },
+    write: (dir, set) => writeModel(dir, set),
+    render: ({ modelDir, outDir, onPage }) =>
+      renderWithAstro({ modelDir, outDir, onPage, ...(siteRoot === undefined ? {} : { siteRoot }) }),
+    index: (siteDir) => indexWithPagefind(siteDir),
+  };
+}
+
+function errorCode(error: unknown): string | undefined {
+  return typeof error === 'object' && error !== null && 'code' in error ? String((error as { code: unknown }).code) : undefined;
+}
+
+export interface RunBuildOptions {
+  /** Replaces the real steps (tests). */
+  steps?: BuildSteps;
+  progress?: Progress;
+  stdout?: (text: string) => void;
+  stderr?: (text: string) => void;
+}
+
+export async function runBuild(argv: string[], options: RunBuildOptions = {}): Promise<number> {
+  const stdout = options.stdout ?? ((text: string) => process.stdout.write(`${text}\n`));
+  const stderr = options.stderr ?? ((text: string) => process.stderr.write(`${text}\n`));
+  let values;
+  try {
+    ({ values } = parseArgs({
+      args: argv,
+      strict: true,
+      allowPositionals: false,
+      options: {
+        scenario: { type: 'string' },
+        out: { type: 'string' },
+        cache: { type: 'string' },
+        'no-cache': { type: 'boolean' },
+        site: { type: 'string' },
+        quiet: { type: 'boolean' },
+        help: { type: 'boolean', short: 'h' },
+      },
+    }));
+  } catch (error) {
+    return usageError(stderr, 'build', error);
+  }
+  if (values.help) {
+    stdout(buildHelp);
+    return 0;
+  }
+  if (values.cache !== undefined && values['no-cache']) {
+    return usageError(stderr, 'build', new Error('--cache and --no-cache cannot be used together'));
+  }
+  const scenario = path.resolve(values.scenario ?? '.');
+  const out = path.resolve(values.out ?? 'dist');
+  if (out === path.parse(out).root || scenario === out || scenario.startsWith(`${out}${path.sep}`)) {
+    return usageError(stderr, 'build', new Error(`--out ${out} would replace the scenario or the file system root; choose a folder of its own`));
+  }
+  const cache = values['no-cache'] ? null : path.resolve(values.cache ?? path.join(placeFor(out).state, 'cache'));
+  const progress = options.progress ?? createProgress({ quiet: values.quiet === true });
+  const started = performance.now();
+  try {
+    const steps = options.steps ?? (await realSteps(values.site === undefined ? undefined : path.resolve(values.site)));
+    const outcome = await buildRelease({ scenario, out, cache, progress, steps, log: (line) => progress.note(`  ${line}`) });
+    if (outcome.kind === 'invalid') {
+      stderr(formatReport(outcome.report));
+      return 1;
+    }
+    const warnings = outcome.report.issues.filter((item) => item.severity === 'warning').length;
+    progress.note(
+      `Published ${formatCount(outcome.pages)} pages (${formatCount(outcome.files)} files) to ${out}` +
+        `${outcome.unchanged ? ' (unchanged: same content as the site on line)' : ''}` +
+        `${warnings > 0 ? `; ${warnings} warning(s), see \`wrackline check\`` : ''} in ${formatDuration(performance.now() - started)}`,
+    );
+    return 0;
+  } catch (error) {
+    progress.end();
+    if (error instanceof PublishError) {
+      stderr(`wrackline build: ${error.message}`);
+      return error.exitCode;
+    }
+    if (error instanceof Error && error.name === 'ScenarioError') {
+      stderr(`wrackline build: ${error.message}`);
+      return 2;
+    }
+    if (errorCode(error) === 'ENOENT' || errorCode(error) === 'EACCES') {
+      stderr(`wrackline build: ${error instanceof Error ? error.message : String(error)}`);
+      return 2;
+    }
+    stderr(`wrackline build failed; nothing was published.\n${error instanceof Error ? (error.stack ?? error.message) : String(error)}`);
+    return 1;
+  }
+}

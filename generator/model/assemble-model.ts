@@ -1,0 +1,82 @@
+/**
+ * assembleModel: a loaded scenario and a trend engine in, the bulletin model out (site, one region summary per published
+ * season, one bulletin per segment per published season). Pure and deterministic: stable ordering,
+ * no clock, seeds derived from the scenario's seed.
+ *
+ * Each published season is evaluated with only the data dated up to its end, and so is the season
+ * just before it (for "last season"), so a past bulletin never changes when new data arrive.
+ */
+import packageJson from '../../package.json' with { type: 'json' };
+import { defaultRiskRules } from '../risk/default-rules.ts';
+import type { LoadedScenario } from '../scenario/types.ts';
+import { composeBulletin } from './compose-bulletin.ts';
+import { composeRegion } from './compose-region.ts';
+import { evaluateSeason, type SeasonEvaluation, type TrendEngine } from './evaluate-season.ts';
+import { previousSeasonId, seasonRef } from './seasons.ts';
+import type { Bulletin, RegionSummary, SiteModel } from './types.ts';
+
+export interface BulletinModelSet {
+  site: SiteModel;
+  regions: RegionSummary[];
+  bulletins: Bulletin[];
+}
+
+export interface AssembleModelOptions {
+  /** Called after each evaluated season. */
+  onProgress?(phase: string, done: number, total?: number): void;
+}
+
+export const generatorVersion: string = packageJson.version;
+
+function byId<T extends { id: string }>(a: T, b: T): number {
+  return a.id < b.id ? -1 : a.id > b.id ? 1 : 0;
+}
+
+export function assembleModel(scenario: LoadedScenario, engine: TrendEngine, options: AssembleModelOptions = {}): BulletinModelSet {
+  const settings = scenario.settings;
+  const rules = settings.riskRules.length > 0 ? settings.riskRules : defaultRiskRules;
+  const publications = settings.publications.filter((p) => seasonRef(p.season, settings.seasons) !== null);
+
+  const wanted: string[] = [];
+  for (const publication of publications) {
+    const before = previousSeasonId(publication.season, settings.seasons);
+    for (const id of [before, publication.season]) if (id && !wanted.includes(id)) wanted.push(id);
+  }
+  const evaluations = new Map<string, SeasonEvaluation>();
+  wanted.forEach((id, i) => {
+    evaluations.set(id, evaluateSeason(scenario, id, rules, engine));
+    options.onProgress?.('evaluate', i + 1, wanted.length);
+  });
+
+  const regions: RegionSummary[] = [];
+  const bulletins: Bulletin[] = [];
+  const segments = [...scenario.segments].sort(byId);
+  for (const publication of publications) {
+    const now = evaluations.get(publication.season);
+    if (!now) continue;
+    const beforeId = previousSeasonId(publication.season, settings.seasons);
+    const before = beforeId ? (evaluations.get(beforeId) ?? null) : null;
+    regions.push(composeRegion(scenario, now, before, publication.date));
+    for (const segment of segments) bulletins.push(composeBulletin(scenario, segment, now, before, publication.date));
+  }
+
+  const last = publications[publications.length - 1];
+  const site: SiteModel = {
+    schemaVersion: 1,
+    invented: settings.invented,
+    generator: { name: 'wrackline', version: generatorVersion },
+    region: { id: settings.region.id, name: settings.region.name, description: settings.region.description },
+    seasons: publications.flatMap((p) => {
+      const ref = seasonRef(p.season, settings.seasons);
+      return ref ? [{ ...ref, published: p.date, current: p === last }] : [];
+    }),
+    manifest: [...scenario.inputs].sort((a, b) => (a.file < b.file ? -1 : a.file > b.file ? 1 : 0)).map((i) => ({ file: i.file, sha256: i.sha256, bytes: i.bytes })),
+    validation: scenario.report,
+    settingsDigest: {
+      riskRules: rules.map((r) => ({ id: r.id, level: r.level, text: r.text })),
+      confidence: settings.trend.confidence,
+      falseDiscoveryRate: settings.trend.falseDiscoveryRate,
+    },
+  };
+  return { site, regions, bulletins };
+}

@@ -1,0 +1,227 @@
+/**
+ * One bulletin: a segment in a published season, from the season's evaluation (and last season's),
+ * through the sentence templates of generator/bulletin.
+ */
+import { debrisCautions, shellfishCautions } from '../bulletin/cautions.ts';
+import { indicatorSubjects } from '../bulletin/indicator-words.ts';
+import { likelihoodWord } from '../bulletin/likelihood.ts';
+import { formatSignificant } from '../bulletin/numbers.ts';
+import {
+  directionChangeSentence,
+  directionPhrases,
+  headline,
+  levelChangeSentence,
+  levelLastSeasonSentence,
+  levelNowSentence,
+  mainTrendSentence,
+  seasonValueSentence,
+  whySentence,
+} from '../bulletin/phrase-level.ts';
+import { directionSentences, phraseTrend, printedRate, seasonsDisagree, type TrendPhraseInput } from '../bulletin/phrase-trend.ts';
+import { growersSection, reportersSection, visitorsSection } from '../bulletin/sections.ts';
+import { getIndicator } from '../indicators/index.ts';
+import { levelWords } from '../risk/levels.ts';
+import type { LoadedScenario, Segment } from '../scenario/types.ts';
+import type { IndicatorEvaluation, SeasonEvaluation } from './evaluate-season.ts';
+import type { Bulletin, IndicatorBulletin } from './types.ts';
+
+export function permalinkOf(seasonId: string, segmentId: string): string {
+  return `/seasons/${seasonId}/${segmentId}/`;
+}
+
+export function trendPhraseInput(evaluation: IndicatorEvaluation, scenario: LoadedScenario): TrendPhraseInput {
+  const definition = getIndicator(evaluation.indicator);
+  const seasonLabels: { [name: string]: string } = {};
+  for (const s of scenario.settings.seasons) seasonLabels[s.id] = s.label;
+  return {
+    subject: indicatorSubjects[evaluation.indicator],
+    unit: definition.unit,
+    trend: evaluation.trend,
+    direction: evaluation.direction,
+    qValue: evaluation.qValue,
+    probabilityUp: evaluation.probabilityUp,
+    falseDiscoveryRate: scenario.settings.trend.falseDiscoveryRate,
+    confidence: scenario.settings.trend.confidence,
+    segmentsTested: evaluation.segmentsTested,
+    seasonLabels,
+    samples: evaluation.yearSpan ? { count: evaluation.sampleCount, firstYear: evaluation.yearSpan.first, lastYear: evaluation.yearSpan.last } : null,
+  };
+}
+
+function chartDescription(evaluation: IndicatorEvaluation, segmentName: string, confidence: number): string {
+  const definition = getIndicator(evaluation.indicator);
+  const span = evaluation.yearSpan
+    ? evaluation.yearSpan.first === evaluation.yearSpan.last
+      ? ` in ${evaluation.yearSpan.first}`
+      : ` from ${evaluation.yearSpan.first} to ${evaluation.yearSpan.last}`
+    : '';
+  const band = evaluation.trend?.band ? ` The line is the trend, with its ${Math.round(confidence * 100)}% band.` : '';
+  return `${definition.label} at ${segmentName}, ${definition.unitShort}: ${evaluation.sampleCount} values${span}. Direction: ${directionPhrases[evaluation.direction]}.${band}`;
+}
+
+function indicatorBulletin(evaluation: IndicatorEvaluation, scenario: LoadedScenario, segment: Segment): IndicatorBulletin {
+  const definition = getIndicator(evaluation.indicator);
+  const input = trendPhraseInput(evaluation, scenario);
+  const claimed = evaluation.direction === 'falling' && evaluation.probabilityUp !== null ? 1 - evaluation.probabilityUp : evaluation.probabilityUp;
+  return {
+    indicator: evaluation.indicator,
+    label: definition.label,
+    unit: definition.unit,
+    unitShort: definition.unitShort,
+    observations: evaluation.observations,
+    seasonValue: evaluation.seasonValue,
+    assessmentValue: evaluation.assessmentValue,
+    trend: evaluation.trend,
+    qValue: evaluation.qValue,
+    direction: evaluation.direction,
+    probabilityUp: evaluation.probabilityUp,
+    likelihoodWords: evaluation.direction === 'rising' || evaluation.direction === 'falling' ? likelihoodWord(claimed) : null,
+    threshold: definition.threshold ? { ...definition.threshold } : null,
+    sentences: phraseTrend(input),
+    chartDescription: chartDescription(evaluation, segment.name, scenario.settings.trend.confidence),
+    seasonsDisagree: seasonsDisagree(evaluation.trend, scenario.settings.trend.confidence),
+  };
+}
+
+function keyNumbers(bulletin: Pick<Bulletin, 'level' | 'indicators' | 'drift'>, confidence: number): { label: string; value: string }[] {
+  const rows: { label: string; value: string }[] = [{ label: 'Level', value: levelWords(bulletin.level.id) }];
+  for (const ind of bulletin.indicators) {
+    if (ind.seasonValue !== null) rows.push({ label: `${ind.label}, this season`, value: `${formatSignificant(ind.seasonValue)} ${ind.unitShort}` });
+    let trendText: string = directionPhrases[ind.direction];
+    const rate = printedRate({
+      subject: ind.label,
+      unit: ind.unit,
+      trend: ind.trend,
+      direction: ind.direction,
+      qValue: ind.qValue,
+      probabilityUp: ind.probabilityUp,
+      falseDiscoveryRate: 0,
+      confidence,
+      segmentsTested: 0,
+      seasonLabels: {},
+      samples: null,
+    });
+    if (rate && ind.direction !== 'too-little-data') {
+      const range = rate.text.lower !== null && rate.text.upper !== null ? ` (${Math.round(confidence * 100)}% range ${rate.text.lower} to ${rate.text.upper})` : '';
+      trendText += `; ${rate.slope > 0 ? '+' : ''}${rate.text.slope} ${ind.unitShort} a year${range}`;
+    }
+    rows.push({ label: `${ind.label}, trend`, value: trendText });
+  }
+  if (bulletin.drift) rows.push({ label: 'Modelled arrivals per km, this season', value: formatSignificant(bulletin.drift.arrivalsPerKm) });
+  return rows;
+}
+
+export function composeBulletin(
+  scenario: LoadedScenario,
+  segment: Segment,
+  now: SeasonEvaluation,
+  previous: SeasonEvaluation | null,
+  published: string,
+): Bulletin {
+  const settings = scenario.settings;
+  const evaluation = now.segments.get(segment.id);
+  if (!evaluation) throw new Error(`composeBulletin: segment ${segment.id} was not evaluated for ${now.season.id}`);
+  const before = previous?.segments.get(segment.id) ?? null;
+  const indicators = evaluation.indicators.map((e) => indicatorBulletin(e, scenario, segment));
+  const permalink = permalinkOf(now.season.id, segment.id);
+
+  const moving = evaluation.indicators.map((e) => ({ subject: indicatorSubjects[e.indicator], direction: e.direction }));
+  const summary = [levelNowSentence(evaluation.level), levelLastSeasonSentence(before?.level ?? null), whySentence(evaluation.level), mainTrendSentence(moving)];
+
+  const changes: string[] = [];
+  const levelChange = levelChangeSentence(evaluation.level, before?.level ?? null);
+  if (levelChange) changes.push(levelChange);
+  for (const e of evaluation.indicators) {
+    const old = before?.indicators.find((b) => b.indicator === e.indicator) ?? null;
+    const subject = indicatorSubjects[e.indicator];
+    const valueSentence = seasonValueSentence(
+      subject,
+      getIndicator(e.indicator).unit,
+      e.seasonValue === null ? null : formatSignificant(e.seasonValue),
+      old?.seasonValue === null || old?.seasonValue === undefined ? null : formatSignificant(old.seasonValue),
+    );
+    if (valueSentence) changes.push(valueSentence);
+    const directionChange = directionChangeSentence(subject, e.direction, old ? old.direction : null);
+    if (directionChange) changes.push(directionChange);
+  }
+  if (changes.length === 0) changes.push('Nothing to compare with last season.');
+
+  const tissue = evaluation.indicators.find((e) => e.indicator === 'shellfish-tissue') ?? null;
+  const litter = evaluation.indicators.find((e) => e.indicator === 'beach-litter') ?? null;
+  const mentionsShellfish = segment.shellfish !== 'none' || tissue !== null;
+  const correction =
+    [...settings.corrections]
+      .filter((c) => c.season === now.season.id && (c.segment === null || c.segment === segment.id))
+      .sort((a, b) => (a.date < b.date ? 1 : a.date > b.date ? -1 : 0))
+      .map((c) => ({ date: c.date, reason: c.reason }))[0] ?? null;
+
+  const partial = { level: evaluation.level, indicators, drift: evaluation.drift };
+  const reporters = reportersSection({
+    segmentName: segment.name,
+    season: now.season,
+    published,
+    publisher: settings.publisher,
+    permalink,
+    keyNumbers: keyNumbers(partial, settings.trend.confidence),
+  });
+
+  return {
+    schemaVersion: 1,
+    invented: settings.invented,
+    season: now.season,
+    previousSeason: previous?.season ?? null,
+    published,
+    correction,
+    segment: {
+      id: segment.id,
+      name: segment.name,
+      kind: segment.kind,
+      shellfish: segment.shellfish,
+      place: segment.place,
+      lengthKm: segment.lengthKm,
+      geometry: segment.geometry,
+      bbox: segment.bbox,
+    },
+    level: evaluation.level,
+    previousLevel: before?.level ?? null,
+    headline: headline(segment.name, evaluation.level, now.season.label),
+    summary,
+    changes,
+    indicators,
+    drift: evaluation.drift,
+    sections: {
+      growers: growersSection({
+        shellfish: segment.shellfish,
+        tissue: tissue
+          ? {
+              seasonValue: tissue.seasonValue,
+              assessmentValue: tissue.assessmentValue,
+              unit: getIndicator('shellfish-tissue').unit,
+              trendSentences: directionSentences(trendPhraseInput(tissue, scenario)),
+            }
+          : null,
+        nearestZone: evaluation.drift?.nearestZone ?? null,
+        driftAvailable: evaluation.drift !== null,
+      }),
+      visitors: visitorsSection({
+        litter: litter
+          ? {
+              seasonValue: litter.seasonValue,
+              unit: getIndicator('beach-litter').unit,
+              threshold: getIndicator('beach-litter').threshold,
+              trendSentences: directionSentences(trendPhraseInput(litter, scenario)),
+            }
+          : null,
+        drift: evaluation.drift,
+      }),
+      reporters,
+    },
+    cautions: {
+      shellfish: mentionsShellfish ? shellfishCautions(settings.authorities) : [],
+      debris: debrisCautions(settings.authorities),
+    },
+    authorities: settings.authorities.map((a) => ({ ...a })),
+    permalink,
+  };
+}
+

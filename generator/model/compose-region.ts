@@ -1,0 +1,90 @@
+/**
+ * The region's page for one published season: every segment's level and directions, the Regional
+ * Kendall trend per indicator (Helsel & Frans 2006: the Seasonal Kendall test with sites in place
+ * of seasons), the accumulation zones, and a short summary.
+ */
+import { indicatorSubjects, lowerFirst } from '../bulletin/indicator-words.ts';
+import { formatNumber, formatSignificant } from '../bulletin/numbers.ts';
+import { getIndicator } from '../indicators/index.ts';
+import { levelScale } from '../risk/levels.ts';
+import type { LoadedScenario } from '../scenario/types.ts';
+import type { RegionalResult, SeasonEvaluation } from './evaluate-season.ts';
+import type { Direction, IndicatorId, RegionalTrend, RegionSummary } from './types.ts';
+
+export function regionalTrendSentence(subject: string, unit: string, result: RegionalResult | null, segments: number, falseDiscoveryRate: number): string {
+  const lower = lowerFirst(subject);
+  if (!result || result.p === null) return `Too little data to say if ${lower} is changing across the region.`;
+  const places = `${formatNumber(segments, 0)} ${segments === 1 ? 'place' : 'places'}`;
+  if (result.p < falseDiscoveryRate && result.S !== null && result.S !== 0) {
+    const up = result.S > 0;
+    const rate = result.slope !== null && result.slope !== 0 ? ` by about ${formatSignificant(Math.abs(result.slope))} ${unit} a year` : '';
+    return `Across ${places}, ${lower} is going ${up ? 'up' : 'down'}${rate}.`;
+  }
+  return `Across ${places}, we cannot tell if ${lower} is going up or down.`;
+}
+
+export function composeRegion(scenario: LoadedScenario, now: SeasonEvaluation, previous: SeasonEvaluation | null, published: string): RegionSummary {
+  const settings = scenario.settings;
+  const segments = [...scenario.segments].sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+  const rows = segments.map((segment) => {
+    const evaluation = now.segments.get(segment.id);
+    if (!evaluation) throw new Error(`composeRegion: segment ${segment.id} was not evaluated`);
+    const directions: Partial<Record<IndicatorId, Direction>> = {};
+    for (const e of evaluation.indicators) directions[e.indicator] = e.direction;
+    return {
+      id: segment.id,
+      name: segment.name,
+      kind: segment.kind,
+      shellfish: segment.shellfish,
+      level: evaluation.level,
+      previousLevel: previous?.segments.get(segment.id)?.level ?? null,
+      directions,
+      geometry: segment.geometry,
+    };
+  });
+  const regionalTrends: RegionalTrend[] = now.regional.map(({ indicator, result, segments: count }) => {
+    const definition = getIndicator(indicator);
+    return {
+      indicator,
+      label: definition.label,
+      S: result?.S ?? null,
+      z: result?.z ?? null,
+      p: result?.p ?? null,
+      slope: result?.slope === null || result?.slope === undefined ? null : result.slope,
+      unitShort: definition.unitShort,
+      sentence: regionalTrendSentence(indicatorSubjects[indicator], definition.unit, result, count, settings.trend.falseDiscoveryRate),
+    };
+  });
+  const counts = levelScale
+    .slice()
+    .reverse()
+    .map((level) => ({ level, n: rows.filter((r) => r.level.id === level.id).length }))
+    .filter((c) => c.n > 0)
+    .map((c) => `${formatNumber(c.n, 0)} ${c.level.label}`);
+  const up = rows.filter((r) => r.previousLevel && r.level.rank > r.previousLevel.rank).length;
+  const down = rows.filter((r) => r.previousLevel && r.level.rank < r.previousLevel.rank).length;
+  const summary = [`Levels of the ${formatNumber(rows.length, 0)} places this season: ${counts.join(', ')}.`];
+  if (previous) {
+    summary.push(
+      `Since last season, ${formatNumber(up, 0)} ${up === 1 ? 'place' : 'places'} went up a level and ${formatNumber(down, 0)} went down.`,
+    );
+  }
+  for (const trend of regionalTrends) summary.push(trend.sentence);
+  const highest = Math.max(0, ...rows.map((r) => r.level.rank));
+  const atHighest = rows.filter((r) => r.level.rank === highest).length;
+  const highestLabel = levelScale.find((l) => l.rank === highest)?.label ?? 'Scant';
+  return {
+    schemaVersion: 1,
+    invented: settings.invented,
+    season: now.season,
+    published,
+    region: { id: settings.region.id, name: settings.region.name, description: settings.region.description },
+    publisher: settings.publisher,
+    segments: rows,
+    regionalTrends,
+    zones: now.zones,
+    headline: `${settings.region.name}, ${lowerFirst(now.season.label)}: the highest level is ${highestLabel} (level ${highest} of 4), at ${formatNumber(atHighest, 0)} of ${formatNumber(rows.length, 0)} places.`,
+    summary,
+  };
+}
+

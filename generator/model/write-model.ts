@@ -1,0 +1,57 @@
+/**
+ * Writes the bulletin model as JSON files (stable key order, 2-space indent, trailing newline):
+ *   <dir>/site.json
+ *   <dir>/regions/<seasonId>.json
+ *   <dir>/bulletins/<seasonId>/<segmentId>.json
+ * Files are written to a temporary name and renamed, so a reader never sees half a file.
+ */
+import { mkdir, rename, writeFile } from 'node:fs/promises';
+import { dirname, join } from 'node:path';
+import type { BulletinModelSet } from './assemble-model.ts';
+
+/** JSON with object keys sorted at every depth (arrays keep their order). */
+export function stableJson(value: unknown): string {
+  return `${JSON.stringify(sortKeys(value), null, 2)}\n`;
+}
+
+function sortKeys(value: unknown): unknown {
+  if (Array.isArray(value)) return value.map(sortKeys);
+  if (value !== null && typeof value === 'object') {
+    const out: { [key: string]: unknown } = {};
+    for (const key of Object.keys(value).sort()) {
+      const child = (value as { [key: string]: unknown })[key];
+      if (child !== undefined) out[key] = sortKeys(child);
+    }
+    return out;
+  }
+  if (typeof value === 'number' && !Number.isFinite(value)) return null;
+  return value;
+}
+
+const safeName = /^[a-z0-9][a-z0-9-]*$/;
+
+function checkedName(kind: string, name: string): string {
+  if (!safeName.test(name)) throw new Error(`writeModel: ${kind} "${name}" is not a safe file name`);
+  return name;
+}
+
+async function writeJson(path: string, value: unknown): Promise<void> {
+  await mkdir(dirname(path), { recursive: true });
+  const temporary = `${path}.tmp`;
+  await writeFile(temporary, stableJson(value), 'utf8');
+  await rename(temporary, path);
+}
+
+export async function writeModel(dir: string, set: BulletinModelSet): Promise<void> {
+  await mkdir(dir, { recursive: true });
+  await writeJson(join(dir, 'site.json'), set.site);
+  for (const region of set.regions) {
+    await writeJson(join(dir, 'regions', `${checkedName('season', region.season.id)}.json`), region);
+  }
+  for (const bulletin of set.bulletins) {
+    await writeJson(
+      join(dir, 'bulletins', checkedName('season', bulletin.season.id), `${checkedName('segment', bulletin.segment.id)}.json`),
+      bulletin,
+    );
+  }
+}

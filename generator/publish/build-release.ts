@@ -1,0 +1,172 @@
+/**
+ * One build, start to finish: read and validate the scenario, build the bulletin model, render
+ * it, check the result, and publish it atomically. Each step is a function passed in, so the
+ * order and the guarantees here are tested with small stand-ins as well as with the real
+ * reader, model builder and Astro site.
+ *
+ * Guarantees (each has a test under test/publish/):
+ * - invalid data: stops after reading; nothing next to or at the output is created or changed;
+ * - any exception or a killed process: the published release is never written to (see
+ *   release-swap.ts); work folders are removed now or by the next run;
+ * - a past-season page that would change without a recorded correction: refused (archive-ledger.ts);
+ * - pages without the security policy or with inline script: refused (html-safety.ts);
+ * - output paths: every model path and page path is a slug or checked to stay inside its root.
+ */
+import { readFile, writeFile } from 'node:fs/promises';
+import path from 'node:path';
+import type { BuildSteps, ModelSet } from './build-steps.ts';
+import type { LoadedScenario } from '../scenario/types.ts';
+import type { ArchiveLedger } from './archive-ledger.ts';
+import { assertArchiveIntact, ledgerFileName, ledgerFromModel, readLedger } from './archive-ledger.ts';
+import type { Correction } from './archive-ledger.ts';
+import { siteProblems } from './html-safety.ts';
+import { PublishError } from './publish-error.ts';
+import { openPublishSession } from './release-swap.ts';
+import type { PublishSession } from './release-swap.ts';
+import { assertSlug } from './safe-path.ts';
+import { listFiles, treeDigest, writeManifest } from './tree-hash.ts';
+import type { Progress } from '../progress/progress.ts';
+import type { ValidationReport } from '../model/types.ts';
+
+export interface BuildReleaseOptions {
+  scenario: string;
+  out: string;
+  /** Cache folder for reusable per-series results; null disables reuse. */
+  cache: string | null;
+  progress: Progress;
+  steps: BuildSteps;
+  /** Extra lines for the person running the build (stderr). */
+  log?: (line: string) => void;
+  /** Test hook: runs after rendering, before any check or swap. */
+  afterRender?: (siteDir: string) => Promise<void>;
+}
+
+export type BuildOutcome =
+  | { kind: 'invalid'; report: ValidationReport }
+  | {
+      kind: 'published';
+      release: string;
+      unchanged: boolean;
+      pages: number;
+      files: number;
+      digest: string;
+      report: ValidationReport;
+    };
+
+/** Does the built site ask for a search index? (pages marked with data-pagefind-body) */
+async function wantsSearchIndex(siteDir: string, files: readonly string[]): Promise<boolean> {
+  for (const file of files) {
+    if (!file.endsWith('.html')) continue;
+    if ((await readFile(path.join(siteDir, file), 'utf8')).includes('data-pagefind-body')) return true;
+  }
+  return false;
+}
+
+function corrections(scenario: LoadedScenario): Correction[] {
+  return scenario.settings.corrections.map((correction) => ({
+    season: correction.season,
+    segment: correction.segment ?? null,
+    date: correction.date,
+    reason: correction.reason,
+  }));
+}
+
+function checkIds(set: ModelSet): void {
+  for (const bulletin of set.bulletins) {
+    assertSlug(bulletin.segment.id, 'segment id');
+    assertSlug(bulletin.season.id, 'season id');
+  }
+  for (const region of set.regions) assertSlug(region.season.id, 'season id');
+}
+
+/** Reading, statistics and writing the model: the large objects live only inside this step. */
+async function prepareModel(
+  options: BuildReleaseOptions,
+): Promise<
+  | { kind: 'invalid'; report: ValidationReport }
+  | { kind: 'ready'; session: PublishSession; modelDir: string; corrections: Correction[]; report: ValidationReport }
+> {
+  const { progress, steps } = options;
+  progress.start('reading');
+  const scenario = await steps.load(options.scenario, (_phase, done, total) => progress.update(done, total));
+  progress.end();
+  if (!scenario.report.ok) return { kind: 'invalid', report: scenario.report };
+
+  progress.start('statistics', scenario.segments.length);
+  const set = await steps.model(scenario, {
+    cacheDir: options.cache,
+    onProgress: (done, total) => progress.update(done, total),
+    log: (line) => progress.note(`  ${line}`),
+  });
+  progress.update(set.bulletins.length, set.bulletins.length);
+  progress.end();
+  checkIds(set);
+
+  const session = await openPublishSession(options.out, options.log ?? (() => {}));
+  try {
+    const modelDir = await session.workFolder('model');
+    await steps.write(modelDir, set);
+    return { kind: 'ready', session, modelDir, corrections: corrections(scenario), report: scenario.report };
+  } catch (error) {
+    await session.close();
+    throw error;
+  }
+}
+
+export async function buildRelease(options: BuildReleaseOptions): Promise<BuildOutcome> {
+  const { progress, steps } = options;
+  const prepared = await prepareModel(options);
+  if (prepared.kind === 'invalid') return prepared;
+  const { session, modelDir } = prepared;
+  try {
+    const siteDir = await session.workFolder('site');
+    progress.start('pages');
+    const rendered = await steps.render({ modelDir, outDir: siteDir, onPage: (done) => progress.update(done) });
+    progress.end();
+    if (options.afterRender) await options.afterRender(siteDir);
+
+    progress.start('checks');
+    let files = await listFiles(siteDir);
+    if (await wantsSearchIndex(siteDir, files)) {
+      await steps.index(siteDir);
+      files = await listFiles(siteDir);
+    }
+    const problems = await siteProblems(siteDir, files);
+    if (problems.length > 0) {
+      const shown = problems.slice(0, 12).map((problem) => `  - ${problem.page}: ${problem.problem}`);
+      throw new PublishError(
+        [
+          `${problems.length} safety problem(s) in the built pages; nothing was published:`,
+          ...shown,
+          ...(problems.length > 12 ? [`  … and ${problems.length - 12} more`] : []),
+        ].join('\n'),
+      );
+    }
+    const ledger = await ledgerFromModel(modelDir);
+    const published = await session.publishedFolder();
+    assertArchiveIntact(published ? await readLedger(published) : null, ledger, prepared.corrections);
+    await writeLedgerFile(siteDir, ledger);
+    const manifest = await writeManifest(siteDir);
+    progress.end();
+
+    progress.start('publishing');
+    const digest = treeDigest(manifest);
+    const outcome = await session.publish(siteDir, `r-${digest.slice(0, 20)}`);
+    progress.end();
+    return {
+      kind: 'published',
+      release: outcome.release,
+      unchanged: outcome.unchanged,
+      pages: rendered.pages,
+      files: manifest.length + 1,
+      digest,
+      report: prepared.report,
+    };
+  } finally {
+    await session.close();
+  }
+}
+
+async function writeLedgerFile(siteDir: string, ledger: ArchiveLedger): Promise<void> {
+  await writeFile(path.join(siteDir, ledgerFileName), `${JSON.stringify(ledger, null, 2)}\n`);
+}

@@ -1,0 +1,14 @@
+/**
+ * The one error type of the publishing step. `exitCode` follows the command-line contract:
+ * 1 when the data would produce a wrong or unsafe publication (an archived page would change,
+ * an id is not a slug), 2 when the request itself cannot be carried out (an output folder we
+ * must not overwrite, another build holding the lock).
+ */
+export class PublishError extends Error {
+  readonly exitCode: 1 | 2;
+  constructor(message: string, exitCode: 1 | 2 = 1) {
+    super(message);
+    this.name = 'PublishError';
+    this.exitCode = exitCode;
+  }
+}

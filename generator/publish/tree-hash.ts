@@ -1,0 +1,80 @@
+/**
+ * Content hashes of a folder tree: every regular file's SHA-256 and size, keyed by its path
+ * relative to the root with forward slashes, sorted by that path (code-unit order, the same on
+ * every machine). The publishing step writes this list as `manifest.json`; the reproducibility
+ * test compares two such lists.
+ */
+import { createHash } from 'node:crypto';
+import { createReadStream } from 'node:fs';
+import { readdir, writeFile } from 'node:fs/promises';
+import path from 'node:path';
+
+export interface FileHash {
+  file: string;
+  sha256: string;
+  bytes: number;
+}
+
+export const manifestFileName = 'manifest.json';
+
+export async function hashFile(file: string): Promise<{ sha256: string; bytes: number }> {
+  const hash = createHash('sha256');
+  let bytes = 0;
+  for await (const chunk of createReadStream(file)) {
+    const buffer = chunk as Buffer;
+    bytes += buffer.length;
+    hash.update(buffer);
+  }
+  return { sha256: hash.digest('hex'), bytes };
+}
+
+/** Lists regular files under `root` (following no symlinks inside it), relative, sorted. */
+export async function listFiles(root: string): Promise<string[]> {
+  const out: string[] = [];
+  async function walk(relative: string): Promise<void> {
+    const entries = await readdir(path.join(root, relative), { withFileTypes: true });
+    for (const entry of entries) {
+      const child = relative === '' ? entry.name : `${relative}/${entry.name}`;
+      if (entry.isDirectory()) await walk(child);
+      else if (entry.isFile()) out.push(child);
+    }
+  }
+  await walk('');
+  return out.sort(compareCodeUnits);
+}
+
+export function compareCodeUnits(a: string, b: string): number {
+  return a < b ? -1 : a > b ? 1 : 0;
+}
+
+/** Hashes every file under `root`; `skip` leaves named relative paths out. */
+export async function hashTree(root: string, skip: ReadonlySet<string> = new Set()): Promise<FileHash[]> {
+  const files = (await listFiles(root)).filter((file) => !skip.has(file));
+  const result: FileHash[] = [];
+  // A few reads at once keeps the disk busy without opening thousands of files together.
+  const parallel = 16;
+  for (let start = 0; start < files.length; start += parallel) {
+    const batch = files.slice(start, start + parallel);
+    const hashes = await Promise.all(batch.map((file) => hashFile(path.join(root, file))));
+    batch.forEach((file, index) => {
+      const hashed = hashes[index];
+      if (hashed) result.push({ file, ...hashed });
+    });
+  }
+  return result;
+}
+
+/** One hash over a whole tree listing: changes when any file's path or content changes. */
+export function treeDigest(files: readonly FileHash[]): string {
+  const hash = createHash('sha256');
+  for (const entry of files) hash.update(`${entry.file}\0${entry.sha256}\0${entry.bytes}\n`);
+  return hash.digest('hex');
+}
+
+/** Writes `manifest.json` (every other file of the tree) and returns the listing. */
+export async function writeManifest(root: string): Promise<FileHash[]> {
+  const files = await hashTree(root, new Set([manifestFileName]));
+  const body = { generator: 'wrackline', files };
+  await writeFile(path.join(root, manifestFileName), `${JSON.stringify(body, null, 2)}\n`);
+  return files;
+}

@@ -1,0 +1,92 @@
+/**
+ * A cache of per-series trend results, so a rebuild after a small data change recomputes only
+ * the series that changed. It wraps the model's trend engine: `analyze(points, options)` is
+ * looked up by the SHA-256 of the series, the options and a fingerprint of the statistics code
+ * (the package version and the text of every file in generator/stats/), and computed on a miss.
+ *
+ * What is not cached, because it depends on all segments at once and is cheap: the
+ * Benjamini–Hochberg adjustment, the regional test, region percentiles, levels and sentences.
+ * Those are recomputed on every build, so results stay exactly those of a build without cache
+ * (a test compares the two).
+ *
+ * The cache is one JSON file in the cache folder; deleting the folder is always safe. Only
+ * entries used by the latest build are kept, so it does not grow without bound. A file that
+ * cannot be read or parsed is ignored (and rewritten).
+ */
+import { createHash } from 'node:crypto';
+import { mkdir, readFile, readdir, rename, writeFile } from 'node:fs/promises';
+import path from 'node:path';
+import type { TrendEngine } from '../model/evaluate-season.ts';
+import type { TrendResult } from '../stats/types.ts';
+import { canonicalJson } from './archive-ledger.ts';
+import { compareCodeUnits } from './tree-hash.ts';
+
+export const trendCacheFile = 'trend-results.json';
+
+interface CacheFile {
+  fingerprint: string;
+  entries: { [key: string]: TrendResult };
+}
+
+/** Changes whenever the statistics code or the package version changes. */
+export async function statisticsFingerprint(packageRoot: string, version: string): Promise<string> {
+  const hash = createHash('sha256').update(`wrackline ${version}\n`);
+  const folders = ['generator/stats', 'generator/model/trend-engine.ts'];
+  for (const item of folders) {
+    const full = path.join(packageRoot, item);
+    const files = item.endsWith('.ts')
+      ? [full]
+      : (await readdir(full)).filter((name) => name.endsWith('.ts')).sort(compareCodeUnits).map((name) => path.join(full, name));
+    for (const file of files) hash.update(`${path.relative(packageRoot, file)}\0`).update(await readFile(file));
+  }
+  return hash.digest('hex');
+}
+
+export interface CachedEngine {
+  engine: TrendEngine;
+  stats(): { hits: number; misses: number };
+  /** Writes the entries used in this build. */
+  save(): Promise<void>;
+}
+
+export async function openTrendCache(cacheDir: string, fingerprint: string, inner: TrendEngine): Promise<CachedEngine> {
+  let stored: CacheFile['entries'] = {};
+  try {
+    const parsed = JSON.parse(await readFile(path.join(cacheDir, trendCacheFile), 'utf8')) as CacheFile;
+    if (parsed.fingerprint === fingerprint && parsed.entries && typeof parsed.entries === 'object') stored = parsed.entries;
+  } catch {
+    // no cache yet, or a damaged one: start empty
+  }
+  const used: CacheFile['entries'] = {};
+  let hits = 0;
+  let misses = 0;
+  const engine: TrendEngine = {
+    analyze(points, options) {
+      const key = createHash('sha256').update(canonicalJson({ points, options })).digest('hex');
+      const found = used[key] ?? stored[key];
+      if (found !== undefined) {
+        hits += 1;
+        used[key] = found;
+        // A fresh copy each time: callers must not be able to change the cached value.
+        return structuredClone(found);
+      }
+      misses += 1;
+      const result = inner.analyze(points, options);
+      // Stored as it will be read back (JSON), so a hit now and a hit next build are the same.
+      used[key] = JSON.parse(JSON.stringify(result)) as TrendResult;
+      return result;
+    },
+    adjust: (pValues) => inner.adjust(pValues),
+    regional: (series, options) => inner.regional(series, options),
+  };
+  return {
+    engine,
+    stats: () => ({ hits, misses }),
+    async save() {
+      await mkdir(cacheDir, { recursive: true });
+      const temporary = path.join(cacheDir, `${trendCacheFile}.${process.pid}`);
+      await writeFile(temporary, JSON.stringify({ fingerprint, entries: used } satisfies CacheFile));
+      await rename(temporary, path.join(cacheDir, trendCacheFile));
+    },
+  };
+}

@@ -1,0 +1,223 @@
+/**
+ * Reads one monitoring table (an indicator resource) into normalised records. The indicator's
+ * module (generator/indicators) says which columns, types and units it needs; the table's own
+ * Table Schema adds its constraints. Rows are checked for the segment they name (foreign key),
+ * their date against the scenario's period and publication date, then normalised.
+ */
+import {
+  DateAfterScenario,
+  DateBeforeScenario,
+  DateInFuture,
+  SchemaFieldMissing,
+  SchemaFieldType,
+  UnitMismatch,
+  UnknownSegment,
+  DateNotInSeason,
+} from '../errors.ts';
+import type { IndicatorDefinition } from '../indicators/index.ts';
+import type { ScenarioSettings } from '../scenario/settings.ts';
+import type { Record as ScenarioRecord } from '../scenario/types.ts';
+import { countDataLines, readCsvTable } from './csv-table.ts';
+import type { IssueLog } from './issue-log.ts';
+import type { FieldDescriptor, ResourceEntry, TableSchema } from './package-descriptor.ts';
+import { decimalYear, seasonOfDate } from './season-calendar.ts';
+import type { CellRule } from './table-cells.ts';
+import { sameUnit } from './units.ts';
+
+export interface ScenarioPeriod {
+  /** First allowed date, or null for no lower bound. */
+  start: string | null;
+  /** Last day of the last published season. */
+  end: string;
+  /** Publication date of the current season: nothing may be dated after it. */
+  published: string;
+}
+
+function toNumberOrNull(value: number | string | undefined): number | null {
+  if (typeof value === 'number') return value;
+  if (typeof value === 'string' && value.trim() !== '' && Number.isFinite(Number(value))) return Number(value);
+  return null;
+}
+
+function fieldType(field: FieldDescriptor): CellRule['type'] {
+  const type = field.type;
+  if (type === 'string' || type === 'integer' || type === 'number' || type === 'date' || type === 'datetime') return type;
+  return 'other';
+}
+
+/** Cell rules for every schema field, tightened by the indicator's own requirements. */
+export function buildRules(schema: TableSchema, definition: IndicatorDefinition | null): CellRule[] {
+  return schema.fields.map((field) => {
+    const requirement = definition?.columns.find((c) => c.name === field.name);
+    const constraints = field.constraints ?? {};
+    const schemaMinimum = toNumberOrNull(constraints.minimum);
+    const schemaMaximum = toNumberOrNull(constraints.maximum);
+    const minimum = requirement?.minimum ?? null;
+    const enumValues = requirement?.enum ?? (constraints.enum ? constraints.enum.map(String) : null);
+    let type = fieldType(field);
+    // An integer the indicator needs is checked as an integer even when declared as number.
+    if (requirement?.type === 'integer' && type === 'number') type = 'integer';
+    return {
+      name: field.name,
+      type,
+      required: constraints.required === true || requirement?.required === true,
+      minimum: minimum !== null && schemaMinimum !== null ? Math.max(minimum, schemaMinimum) : (minimum ?? schemaMinimum),
+      exclusiveMinimum: requirement?.exclusiveMinimum ?? constraints.exclusiveMinimum ?? null,
+      maximum: schemaMaximum,
+      enum: enumValues,
+      detectionLimitPrefix: field.detectionLimitPrefix ?? null,
+    };
+  });
+}
+
+const compatibleTypes: { [required: string]: readonly string[] } = {
+  string: ['string'],
+  integer: ['integer', 'number'],
+  number: ['number', 'integer'],
+  date: ['date', 'datetime'],
+};
+
+/**
+ * Checks the table schema against the indicator: every required column declared with a fitting
+ * type and the expected unit. Returns false when the table cannot be read.
+ */
+export function checkSchema(resource: ResourceEntry, schema: TableSchema, definition: IndicatorDefinition, log: IssueLog): boolean {
+  const file = resource.path;
+  let usable = true;
+  for (const column of definition.columns) {
+    const field = schema.fields.find((f) => f.name === column.name);
+    if (!field) {
+      if (column.required) {
+        const expected = `a field ${column.name} of type ${column.type}${column.unit ? ` in ${column.unit}` : ''}`;
+        log.add(SchemaFieldMissing, SchemaFieldMissing.message(file, column.name, expected), { file, row: 1, column: column.name, value: null, expected, severity: 'error', excluded: true });
+        usable = false;
+      }
+      continue;
+    }
+    const allowed = compatibleTypes[column.type] ?? [column.type];
+    if (!allowed.includes(field.type)) {
+      log.add(SchemaFieldType, SchemaFieldType.message(file, column.name, field.type, `type ${column.type}`), {
+        file, row: 1, column: column.name, value: field.type, expected: `type ${column.type}`, severity: 'error', excluded: true,
+      });
+      usable = false;
+    }
+    if (column.unit) {
+      if (field.unit === undefined) {
+        log.add(UnitMismatch, `${file} row 1, column ${column.name}: no unit is declared; expected "${column.unit}"; values were read as ${column.unit}`, {
+          file, row: 1, column: column.name, value: null, expected: column.unit, severity: 'warning', excluded: false,
+        });
+      } else if (!sameUnit(field.unit, column.unit)) {
+        log.add(UnitMismatch, UnitMismatch.message(file, column.name, field.unit, column.unit), {
+          file, row: 1, column: column.name, value: field.unit, expected: column.unit, severity: 'error', excluded: true,
+        });
+        usable = false;
+      }
+    }
+  }
+  return usable;
+}
+
+export interface IndicatorTableInput {
+  resource: ResourceEntry;
+  absolutePath: string;
+  definition: IndicatorDefinition;
+  settings: ScenarioSettings;
+  period: ScenarioPeriod;
+  segmentIds: ReadonlySet<string>;
+  segmentsFile: string;
+  log: IssueLog;
+  onProgress?: (bytesRead: number, bytesTotal: number) => void;
+}
+
+export async function readIndicatorTable(input: IndicatorTableInput): Promise<ScenarioRecord[]> {
+  const { resource, definition, log, period, settings } = input;
+  const file = resource.path;
+  const schema = resource.schema;
+  const records: ScenarioRecord[] = [];
+  if (!schema) return records;
+  if (!checkSchema(resource, schema, definition, log)) {
+    const lines = await countDataLines(input.absolutePath, resource.compression, resource.dialect.header);
+    const counts = log.countsFor(file);
+    counts.read += lines;
+    counts.excluded += lines;
+    return records;
+  }
+  const rules = buildRules(schema, definition);
+  const primaryKey = schema.primaryKey ?? [definition.keyColumn];
+  const segmentColumns = new Set<string>(['segment_id']);
+  for (const foreignKey of schema.foreignKeys) {
+    if (foreignKey.reference.resource === 'segments' && foreignKey.fields.length === 1 && foreignKey.fields[0]) segmentColumns.add(foreignKey.fields[0]);
+  }
+  const dateColumn = definition.columns.find((c) => c.type === 'date')?.name ?? 'date';
+
+  await readCsvTable({
+    absolutePath: input.absolutePath,
+    file,
+    dialect: resource.dialect,
+    compression: resource.compression,
+    rules,
+    missingValues: schema.missingValues,
+    essentialColumns: definition.columns.filter((c) => c.required).map((c) => c.name),
+    primaryKey,
+    log,
+    ...(input.onProgress ? { onProgress: input.onProgress } : {}),
+    onRow: (row) => {
+      const line = row.line;
+      let keep = true;
+      for (const column of segmentColumns) {
+        const value = row.values[column];
+        if (typeof value === 'string' && !input.segmentIds.has(value)) {
+          log.add(UnknownSegment, UnknownSegment.message(file, line, column, value, input.segmentsFile), {
+            file, row: line, column, value, expected: `a segment id from ${input.segmentsFile}`, severity: 'error', excluded: true,
+          });
+          keep = false;
+        }
+      }
+      const date = String(row.values[dateColumn] ?? '').slice(0, 10);
+      if (period.start !== null && date < period.start) {
+        log.add(DateBeforeScenario, DateBeforeScenario.message(file, line, dateColumn, date, period.start), {
+          file, row: line, column: dateColumn, value: date, expected: `${period.start} or later`, severity: 'error', excluded: true,
+        });
+        keep = false;
+      } else if (date > period.published) {
+        log.add(DateInFuture, DateInFuture.message(file, line, dateColumn, date, period.published), {
+          file, row: line, column: dateColumn, value: date, expected: `${period.published} or earlier`, severity: 'error', excluded: true,
+        });
+        keep = false;
+      } else if (date > period.end) {
+        log.add(DateAfterScenario, DateAfterScenario.message(file, line, dateColumn, date, period.end), {
+          file, row: line, column: dateColumn, value: date, expected: `${period.end} or earlier`, severity: 'warning', excluded: true,
+        });
+        keep = false;
+      }
+      const season = seasonOfDate(date, settings.seasons);
+      if (!season) {
+        log.add(DateNotInSeason, DateNotInSeason.message(file, line, dateColumn, date), {
+          file, row: line, column: dateColumn, value: date, expected: 'a date in a month covered by the seasons of scenario.json', severity: 'error', excluded: true,
+        });
+        keep = false;
+      }
+      if (!keep || !season) return 'excluded';
+      const normalised = definition.normalise(row);
+      records.push({
+        indicator: definition.id,
+        segmentId: String(row.values['segment_id']),
+        date,
+        t: decimalYear(date),
+        season: season.id,
+        seasonName: season.name,
+        value: normalised.value,
+        censored: normalised.censored,
+        extra: normalised.note === undefined ? normalised.extra : { ...normalised.extra, note: normalised.note },
+        source: { file, row: line },
+      });
+      return 'kept';
+    },
+  });
+  return records;
+}
+
+/** For a table schema given only as fields, the names it declares (for messages). */
+export function schemaFieldNames(schema: TableSchema): string[] {
+  return schema.fields.map((f) => f.name);
+}

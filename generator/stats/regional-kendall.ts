@@ -1,0 +1,34 @@
+/**
+ * Regional Kendall test (Helsel & Frans 2006, "Regional Kendall test for trend", Environ. Sci.
+ * Technol. 40(13):4066–4073; volume and pages from memory): the Seasonal Kendall test with sites in
+ * place of seasons: S = Σ_sites S_k, Var(S) = Σ Var(S_k), z with the continuity correction; the
+ * regional slope is the median of all within-site slopes. The cross-site covariance correction
+ * (Hirsch & Slack 1984 form, sites sharing years) is reported as varSCovariance/pCovariance;
+ * prefer it when sites are close enough to share weather.
+ *
+ * @example
+ *   regionalKendall([{ site: 'a', points }, { site: 'b', points: others }], { confidence: 0.95 });
+ */
+import { seasonalKendall, type SeasonalKendallDetail, type SeasonGroup } from './seasonal-kendall.ts';
+import { prepareSeries } from './series-input.ts';
+import type { SeriesPoint } from './types.ts';
+
+export interface RegionalSite {
+  site: string;
+  points: SeriesPoint[];
+}
+
+/**
+ * Regional Kendall over sites; null when fewer than one site has 2 or more values.
+ * @throws when a value or time is NaN or ±Infinity, or the confidence is not in (0, 1)
+ */
+export function regionalKendall(sites: readonly RegionalSite[], options: { confidence?: number } = {}): SeasonalKendallDetail | null {
+  const groups: SeasonGroup[] = [];
+  for (const { site, points } of sites) {
+    const prepared = prepareSeries(points, 'regionalKendall');
+    if (prepared.t.length < 2) continue;
+    groups.push({ season: site, t: prepared.t, y: prepared.y, censored: prepared.censored });
+  }
+  if (groups.length === 0) return null;
+  return seasonalKendall(groups, options.confidence === undefined ? {} : { confidence: options.confidence });
+}

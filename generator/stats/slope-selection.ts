@@ -1,0 +1,448 @@
+/**
+ * Selection of the k-th smallest of the N′ pairwise slopes (y_j − y_i)/(t_j − t_i), t_i ≠ t_j,
+ * without building the list of slopes: randomized interval shrinking for slope selection
+ * (Matoušek 1991, "Randomized optimal algorithm for slope selection", Inf. Process. Lett.
+ * 39(4):183–187; Dillencourt, Mount & Netanyahu 1992, "A randomized algorithm for slope
+ * selection", Int. J. Comput. Geom. Appl. 2(1):1–27).
+ *
+ * Idea (Dillencourt et al. 1992, §2): with points ordered by time, a pair's slope is below s
+ * exactly when the pair is inverted in the order of the keys y − s·t, so the number of slopes
+ * below s is an inversion count, O(n log n) by merge sort. The slopes inside an interval
+ * [lo, hi) are the pairs whose order differs between the key orders at lo and at hi; they can be
+ * counted, sampled uniformly (Fenwick tree, O((n + K) log n)) and, once few, listed. Each round
+ * samples K ≈ n slopes of the current interval, keeps the sample window around the wanted rank
+ * (±2.5 binomial standard deviations), and shrinks the interval to it; about three rounds bring
+ * a million points down to a few million candidate slopes, which are listed and sorted.
+ * Expected time O(n log n), memory O(n + K).
+ *
+ * Floating point: interval ends are never actual slopes; they are moved off a sampled slope by a
+ * margin far above the rounding error of the keys (centred data), so each pair's side of an end
+ * is decided exactly unless a slope lies within ~1e-12 relative of that margin. The counts are
+ * cross-checked (the listed slopes must match the counted ones) and a mismatch throws.
+ *
+ * Repeated slopes (ties in value give many zero slopes): when the sample window holds a
+ * repeated value v, the ranks v occupies are counted exactly and the interval is split at v,
+ * so a huge block of equal slopes is never listed.
+ *
+ * Randomness comes from a seeded generator, so results and running time are reproducible; the
+ * selected values do not depend on the seed.
+ */
+import { createSeededRandom } from '../random/seeded-random.ts';
+
+export interface SlopeSelectionOptions {
+  /** seed of the sampling; defaults to 1 */
+  seed?: number;
+  /** list all slopes directly while N′ is at most this; defaults to 2,000,000 */
+  directLimit?: number;
+}
+
+/** N′: the number of pairs with different times, for t sorted ascending. */
+export function countSlopePairs(t: ArrayLike<number>): number {
+  const n = t.length;
+  let tied = 0;
+  let run = 1;
+  for (let i = 1; i <= n; i++) {
+    if (i < n && t[i] === t[i - 1]) run++;
+    else {
+      tied += (run * (run - 1)) / 2;
+      run = 1;
+    }
+  }
+  return (n * (n - 1)) / 2 - tied;
+}
+
+/** All N′ slopes, unsorted (only for small series and for tests). */
+export function listAllSlopes(t: ArrayLike<number>, y: ArrayLike<number>): Float64Array {
+  const n = t.length;
+  const slopes: number[] = [];
+  for (let i = 0; i < n; i++) {
+    const ti = t[i] as number;
+    const yi = y[i] as number;
+    for (let j = i + 1; j < n; j++) {
+      const dt = (t[j] as number) - ti;
+      if (dt !== 0) slopes.push(((y[j] as number) - yi) / dt);
+    }
+  }
+  return Float64Array.from(slopes);
+}
+
+/**
+ * Indices 0..n−1 stably sorted by key (ties keep index order), and the number of strict
+ * inversions of the keys (pairs i < j with key_i > key_j). Bottom-up merge sort moving keys and
+ * indices together, with insertion sort on runs of 16.
+ */
+export function sortCountingInversions(keys: Float64Array): { order: Uint32Array; inversions: number } {
+  const n = keys.length;
+  let srcKey = Float64Array.from(keys);
+  let srcIdx = new Uint32Array(n);
+  for (let i = 0; i < n; i++) srcIdx[i] = i;
+  let inversions = 0;
+  const run = 16;
+  for (let start = 0; start < n; start += run) {
+    const end = Math.min(start + run, n);
+    for (let i = start + 1; i < end; i++) {
+      const key = srcKey[i] as number;
+      const idx = srcIdx[i] as number;
+      let j = i - 1;
+      while (j >= start && (srcKey[j] as number) > key) {
+        srcKey[j + 1] = srcKey[j] as number;
+        srcIdx[j + 1] = srcIdx[j] as number;
+        j--;
+      }
+      inversions += i - 1 - j;
+      srcKey[j + 1] = key;
+      srcIdx[j + 1] = idx;
+    }
+  }
+  let dstKey = new Float64Array(n);
+  let dstIdx = new Uint32Array(n);
+  for (let width = run; width < n; width *= 2) {
+    for (let start = 0; start < n; start += 2 * width) {
+      const middle = Math.min(start + width, n);
+      const end = Math.min(start + 2 * width, n);
+      let i = start;
+      let j = middle;
+      let k = start;
+      while (i < middle && j < end) {
+        const right = srcKey[j] as number;
+        const left = srcKey[i] as number;
+        if (right < left) {
+          dstKey[k] = right;
+          dstIdx[k++] = srcIdx[j++] as number;
+          inversions += middle - i;
+        } else {
+          dstKey[k] = left;
+          dstIdx[k++] = srcIdx[i++] as number;
+        }
+      }
+      while (i < middle) {
+        dstKey[k] = srcKey[i] as number;
+        dstIdx[k++] = srcIdx[i++] as number;
+      }
+      while (j < end) {
+        dstKey[k] = srcKey[j] as number;
+        dstIdx[k++] = srcIdx[j++] as number;
+      }
+    }
+    [srcKey, dstKey] = [dstKey, srcKey];
+    [srcIdx, dstIdx] = [dstIdx, srcIdx];
+  }
+  return { order: srcIdx, inversions };
+}
+
+interface Prepared {
+  n: number;
+  t: Float64Array; // ordered by (t, y)
+  y: Float64Array;
+  tc: Float64Array; // centred copies for the keys
+  yc: Float64Array;
+  scaleY: number;
+  scaleT: number;
+  minGap: number;
+  keys: Float64Array; // scratch
+  orders: Map<number, { order: Uint32Array; inversions: number }>; // cache by threshold
+}
+
+function prepare(t: ArrayLike<number>, y: ArrayLike<number>): Prepared {
+  const n = t.length;
+  // order by (t, y): t is ascending already; sort y inside groups of equal t
+  const index = Array.from({ length: n }, (_, i) => i);
+  index.sort((a, b) => (t[a] as number) - (t[b] as number) || (y[a] as number) - (y[b] as number));
+  const ts = new Float64Array(n);
+  const ys = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    ts[i] = t[index[i] as number] as number;
+    ys[i] = y[index[i] as number] as number;
+  }
+  const tMid = n > 0 ? ((ts[0] as number) + (ts[n - 1] as number)) / 2 : 0;
+  let yMin = Infinity;
+  let yMax = -Infinity;
+  for (let i = 0; i < n; i++) {
+    yMin = Math.min(yMin, ys[i] as number);
+    yMax = Math.max(yMax, ys[i] as number);
+  }
+  const yMid = n > 0 ? (yMin + yMax) / 2 : 0;
+  const tc = new Float64Array(n);
+  const yc = new Float64Array(n);
+  let scaleT = 0;
+  let scaleY = 0;
+  let minGap = Infinity;
+  for (let i = 0; i < n; i++) {
+    tc[i] = (ts[i] as number) - tMid;
+    yc[i] = (ys[i] as number) - yMid;
+    scaleT = Math.max(scaleT, Math.abs(tc[i] as number));
+    scaleY = Math.max(scaleY, Math.abs(yc[i] as number));
+    if (i > 0) {
+      const gap = (ts[i] as number) - (ts[i - 1] as number);
+      if (gap > 0) minGap = Math.min(minGap, gap);
+    }
+  }
+  return { n, t: ts, y: ys, tc, yc, scaleT, scaleY, minGap, keys: new Float64Array(n), orders: new Map() };
+}
+
+/** Margin that moves an interval end off a slope value, far above key rounding error. */
+function margin(p: Prepared, s: number): number {
+  const m = (1e-13 * (p.scaleY + Math.abs(s) * p.scaleT)) / p.minGap;
+  return m > 0 ? m : 1e-300;
+}
+
+function fillKeys(p: Prepared, s: number): Float64Array {
+  const { keys, tc, yc, n } = p;
+  if (s === -Infinity) for (let i = 0; i < n; i++) keys[i] = tc[i] as number;
+  else if (s === Infinity) for (let i = 0; i < n; i++) keys[i] = -(tc[i] as number);
+  else for (let i = 0; i < n; i++) keys[i] = (yc[i] as number) - s * (tc[i] as number);
+  return keys;
+}
+
+/** Key order at s and the number of slopes strictly below s (cached: each end is used again). */
+function orderAt(p: Prepared, s: number): { order: Uint32Array; inversions: number } {
+  let entry = p.orders.get(s);
+  if (!entry) {
+    entry = sortCountingInversions(fillKeys(p, s));
+    if (p.orders.size > 8) p.orders.delete(p.orders.keys().next().value as number);
+    p.orders.set(s, entry);
+  }
+  return entry;
+}
+
+/** Number of slopes strictly below s. */
+function countBelow(p: Prepared, s: number, total: number): number {
+  if (s === -Infinity) return 0;
+  if (s === Infinity) return total;
+  return orderAt(p, s).inversions;
+}
+
+/** For the interval [lo, hi): the points in key order at lo, and each one's position at hi. */
+function intervalSequence(p: Prepared, lo: number, hi: number): { loOrder: Uint32Array; seq: Uint32Array } {
+  const loOrder = orderAt(p, lo).order;
+  const hiOrder = orderAt(p, hi).order;
+  const hiRank = new Uint32Array(p.n);
+  for (let r = 0; r < p.n; r++) hiRank[hiOrder[r] as number] = r;
+  const seq = new Uint32Array(p.n);
+  for (let r = 0; r < p.n; r++) seq[r] = hiRank[loOrder[r] as number] as number;
+  return { loOrder, seq };
+}
+
+function slopeOf(p: Prepared, a: number, b: number): number {
+  return ((p.y[b] as number) - (p.y[a] as number)) / ((p.t[b] as number) - (p.t[a] as number));
+}
+
+/**
+ * Walk the inversions of the interval sequence by merge sort: inside each merge, a right element
+ * taken first is inverted with the whole remaining left run, so the slopes in [lo, hi) come as
+ * contiguous runs. With `rate` = 1 every slope is written; below 1 each is kept independently
+ * with that probability, skipping ahead by geometric gaps (a Bernoulli sample in O(n log n + K)).
+ */
+function walkInterval(p: Prepared, lo: number, hi: number, rate: number, capacity: number, uniform: () => number): Float64Array {
+  const { loOrder, seq } = intervalSequence(p, lo, hi);
+  const n = p.n;
+  const out = new Float64Array(capacity);
+  let count = 0;
+  const logKeep = rate < 1 ? Math.log(1 - rate) : 0;
+  const gap = () => (rate >= 1 ? 0 : Math.floor(Math.log(1 - uniform()) / logKeep));
+  let skip = gap();
+  let srcVal = Uint32Array.from(seq);
+  let srcPos = Uint32Array.from(loOrder); // carry the point index itself
+  let dstVal = new Uint32Array(n);
+  let dstPos = new Uint32Array(n);
+  for (let width = 1; width < n; width *= 2) {
+    for (let start = 0; start < n; start += 2 * width) {
+      const middle = Math.min(start + width, n);
+      const end = Math.min(start + 2 * width, n);
+      let i = start;
+      let j = middle;
+      let k = start;
+      while (i < middle && j < end) {
+        if ((srcVal[j] as number) < (srcVal[i] as number)) {
+          const b = srcPos[j] as number;
+          const runLength = middle - i;
+          while (skip < runLength) {
+            if (count >= capacity) {
+              if (rate >= 1) throw new Error('slope selection lost count of the interval (rounding); please report');
+              skip = Infinity; // a sample far above its expected size: keep what was drawn
+              break;
+            }
+            out[count++] = slopeOf(p, srcPos[i + skip] as number, b);
+            skip += 1 + gap();
+          }
+          skip -= runLength;
+          dstVal[k] = srcVal[j] as number;
+          dstPos[k++] = b;
+          j++;
+        } else {
+          dstVal[k] = srcVal[i] as number;
+          dstPos[k++] = srcPos[i++] as number;
+        }
+      }
+      while (i < middle) {
+        dstVal[k] = srcVal[i] as number;
+        dstPos[k++] = srcPos[i++] as number;
+      }
+      while (j < end) {
+        dstVal[k] = srcVal[j] as number;
+        dstPos[k++] = srcPos[j++] as number;
+      }
+    }
+    [srcVal, dstVal] = [dstVal, srcVal];
+    [srcPos, dstPos] = [dstPos, srcPos];
+  }
+  if (rate >= 1 && count !== capacity) throw new Error('slope selection lost count of the interval (rounding); please report');
+  return out.subarray(0, count);
+}
+
+/** Rearrange `values[from..to)` so that values[k] is the one it would hold if sorted (Hoare's quickselect). */
+export function quickselect(values: Float64Array, k: number, from: number, to: number): number {
+  let left = from;
+  let right = to - 1;
+  while (right > left) {
+    const pivot = values[(left + right) >> 1] as number;
+    let i = left;
+    let j = right;
+    while (i <= j) {
+      while ((values[i] as number) < pivot) i++;
+      while ((values[j] as number) > pivot) j--;
+      if (i <= j) {
+        const swap = values[i] as number;
+        values[i] = values[j] as number;
+        values[j] = swap;
+        i++;
+        j--;
+      }
+    }
+    if (k <= j) right = j;
+    else if (k >= i) left = i;
+    else break;
+  }
+  return values[k] as number;
+}
+
+/** Values at 0-based positions `positions` (ascending) of `values` if it were sorted. */
+function selectPositions(values: Float64Array, positions: readonly number[]): number[] {
+  if (values.length <= 200_000) {
+    values.sort();
+    return positions.map((q) => values[q] as number);
+  }
+  const result: number[] = [];
+  let from = 0;
+  for (const q of positions) {
+    result.push(quickselect(values, q, from, values.length));
+    from = q; // everything left of q is ≤ values[q]
+  }
+  return result;
+}
+
+/**
+ * The k-th smallest pairwise slopes for each rank k in `ranks` (1-based, 1..N′), in the order given.
+ * @param t times, ascending
+ * @param y values
+ * @throws when a rank is outside 1..N′
+ */
+export function selectPairwiseSlopes(t: ArrayLike<number>, y: ArrayLike<number>, ranks: readonly number[], options: SlopeSelectionOptions = {}): number[] {
+  const total = countSlopePairs(t);
+  for (const k of ranks) {
+    if (!Number.isInteger(k) || k < 1 || k > total) throw new Error(`selectPairwiseSlopes requires ranks in 1..${total}; got ${k}`);
+  }
+  const directLimit = options.directLimit ?? 2_000_000;
+  if (total <= directLimit) {
+    const all = listAllSlopes(t, y).sort();
+    return ranks.map((k) => all[k - 1] as number);
+  }
+  const p = prepare(t, y);
+  const random = createSeededRandom(options.seed ?? 1);
+  const uniform = random.uniform;
+  const found = new Map<number, number>();
+  const wanted = [...new Set(ranks)].sort((a, b) => a - b);
+  const listLimit = Math.max(6 * p.n, 100_000);
+  const sampleSize = Math.max(2000, Math.min(p.n, 1_000_000));
+  // (the sample window keeps ±2.5 binomial standard deviations around each wanted rank)
+
+  const solve = (lo: number, hi: number, below: number, inside: number, want: number[], depth: number): void => {
+    if (want.length === 0) return;
+    if (depth > 80) throw new Error('slope selection went too deep; please report');
+    if (inside <= listLimit) {
+      const slopes = walkInterval(p, lo, hi, 1, inside, uniform);
+      const values = selectPositions(slopes, want.map((k) => k - below - 1));
+      want.forEach((k, i) => found.set(k, values[i] as number));
+      return;
+    }
+    let sample: Float64Array;
+    if (lo === -Infinity && hi === Infinity) {
+      sample = new Float64Array(sampleSize);
+      for (let k = 0; k < sampleSize; ) {
+        const a = Math.floor(uniform() * p.n);
+        const b = Math.floor(uniform() * p.n);
+        if (p.t[a] === p.t[b]) continue;
+        sample[k++] = slopeOf(p, Math.min(a, b), Math.max(a, b));
+      }
+    } else {
+      const rate = sampleSize / inside;
+      sample = walkInterval(p, lo, hi, rate, Math.ceil(sampleSize + 8 * Math.sqrt(sampleSize) + 64), uniform);
+    }
+    sample.sort();
+    const K = sample.length;
+    if (K < 2) throw new Error('slope selection drew too small a sample; please report');
+    const position = (k: number) => ((k - below) / inside) * K; // 1-based position in the sample
+    const spread = (k: number) => {
+      const q = (k - below) / inside;
+      return 2.5 * Math.sqrt(K * q * (1 - q)) + 2;
+    };
+    // A repeated value at a wanted position: count its ranks exactly and split the interval there.
+    for (const k of want) {
+      const at = Math.min(K - 1, Math.max(0, Math.round(position(k)) - 1));
+      const v = sample[at] as number;
+      const w = Math.ceil(spread(k));
+      const left = sample[Math.max(0, at - w)] as number;
+      const right = sample[Math.min(K - 1, at + w)] as number;
+      if (left === v || right === v || (at > 0 && sample[at - 1] === v) || (at + 1 < K && sample[at + 1] === v)) {
+        const vLo = v - margin(p, v);
+        const vHi = v + margin(p, v);
+        const cLo = countBelow(p, vLo, total);
+        const cHi = countBelow(p, vHi, total);
+        const lower: number[] = [];
+        const upper: number[] = [];
+        for (const r of want) {
+          if (r > cLo && r <= cHi) found.set(r, v);
+          else if (r <= cLo) lower.push(r);
+          else upper.push(r);
+        }
+        solve(lo, vLo, below, cLo - below, lower, depth + 1);
+        solve(vHi, hi, cHi, below + inside - cHi, upper, depth + 1);
+        return;
+      }
+    }
+    // Group the wanted ranks whose sample windows overlap.
+    const clusters: number[][] = [];
+    for (const k of want) {
+      const last = clusters[clusters.length - 1];
+      const previous = last?.[last.length - 1];
+      if (last && previous !== undefined && position(previous) + spread(previous) >= position(k) - spread(k)) last.push(k);
+      else clusters.push([k]);
+    }
+    for (const cluster of clusters) {
+      const first = cluster[0] as number;
+      const lastRank = cluster[cluster.length - 1] as number;
+      const iLow = Math.floor(position(first) - spread(first));
+      const iHigh = Math.ceil(position(lastRank) + spread(lastRank));
+      const newLo = iLow < 1 ? lo : (sample[iLow - 1] as number) - margin(p, sample[iLow - 1] as number);
+      const newHi = iHigh > K ? hi : (sample[iHigh - 1] as number) + margin(p, sample[iHigh - 1] as number);
+      const cLo = newLo === lo ? below : countBelow(p, newLo, total);
+      const cHi = newHi === hi ? below + inside : countBelow(p, newHi, total);
+      const inRange = cluster.filter((r) => r > cLo && r <= cHi);
+      const lower = cluster.filter((r) => r <= cLo);
+      const upper = cluster.filter((r) => r > cHi);
+      if (inRange.length === cluster.length && cHi - cLo >= inside) {
+        // no progress (should not happen)
+        throw new Error('slope selection made no progress; please report');
+      }
+      solve(newLo, newHi, cLo, cHi - cLo, inRange, depth + 1);
+      solve(lo, newLo, below, cLo - below, lower, depth + 1);
+      solve(newHi, hi, cHi, below + inside - cHi, upper, depth + 1);
+    }
+  };
+  solve(-Infinity, Infinity, 0, total, wanted, 0);
+  return ranks.map((k) => {
+    const value = found.get(k);
+    if (value === undefined) throw new Error('slope selection did not converge; please report');
+    return value;
+  });
+}

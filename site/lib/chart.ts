@@ -1,0 +1,108 @@
+/**
+ * Indicator charts as inline SVG strings, drawn at build time with Observable Plot on a
+ * linkedom document (no browser, no client script). Marks: the uncertainty band of the
+ * trend, the Sen line, observations (filled dots; values below the detection limit as open
+ * downward triangles drawn at the limit), and the threshold line where the model has one.
+ * Where the model says seasons disagree, one small panel per season of the year.
+ * Each chart is rendered once per build and reused (bulletin, permalink and embed pages).
+ */
+import * as Plot from '@observablehq/plot';
+import { parseHTML } from 'linkedom';
+import type { IndicatorBulletin } from '../../generator/model/types.ts';
+
+const { document } = parseHTML('<!doctype html><html><head></head><body></body></html>');
+const cache = new Map<string, string>();
+
+const ink = '#1f2a33';
+const bandFill = '#9fb9c7';
+const lineColour = '#0f4c5c';
+const thresholdColour = '#963f30';
+
+/** Decimal year → UTC Date (year length 365.25 days, matching the model's decimal years). */
+export function dateFromDecimalYear(t: number): Date {
+  const year = Math.floor(t);
+  return new Date(Date.UTC(year, 0, 1) + (t - year) * 365.25 * 864e5);
+}
+
+function dateFromIso(iso: string): Date {
+  return new Date(`${iso.slice(0, 10)}T00:00:00Z`);
+}
+
+/** Round numbers inside geometry attributes to one decimal; leave text (tick labels) alone. */
+export function roundSvgNumbers(svg: string): string {
+  return svg.replace(/ (d|x|y|x1|x2|y1|y2|cx|cy|r|width|height|transform|points|viewBox)="([^"]*)"/g, (_, name: string, value: string) =>
+    ` ${name}="${value.replace(/-?\d*\.\d+(?:e-?\d+)?/g, (n) => String(Math.round(Number(n) * 10) / 10))}"`);
+}
+
+/** Plot labels its mark groups with aria-label; inside an image role those labels are noise
+ * and axe flags them on a plain <g>, so give the root role="img" and drop the group labels. */
+function tidyAria(svg: string): string {
+  return svg.replace(/(<g\b[^>]*?) aria-label="[^"]*"/g, '$1').replace(/^<svg /, '<svg role="img" focusable="false" ');
+}
+
+export function seasonOfYear(seasonId: string): string {
+  return seasonId.replace(/^\d{4}-/, '');
+}
+
+const seasonOrder = ['winter', 'spring', 'summer', 'autumn'];
+
+interface ChartOptions {
+  cacheKey: string;
+  width?: number;
+}
+
+export function renderIndicatorChart(indicator: IndicatorBulletin, options: ChartOptions): string {
+  const hit = cache.get(options.cacheKey);
+  if (hit !== undefined) return hit;
+  const width = options.width ?? 420;
+  const obs = indicator.observations.filter((o) => o.value !== null).map((o) => ({
+    date: dateFromIso(o.date),
+    value: o.value as number,
+    censored: o.censored,
+    season: seasonOfYear(o.season),
+    title: `${o.date}: ${o.censored ? 'below detection limit ' : ''}${o.value} ${indicator.unitShort}`,
+  }));
+  const seasonal = indicator.seasonsDisagree;
+  const band = indicator.trend?.band ?? null;
+  const sen = indicator.trend?.sen ?? null;
+  const marks: Plot.Markish[] = [Plot.gridY({ stroke: '#c8d0d4', strokeOpacity: 0.7 })];
+
+  if (!seasonal && band && band.t.length > 1) {
+    const rows = band.t.map((t, i) => ({ date: dateFromDecimalYear(t), lower: band.lower[i] ?? null, upper: band.upper[i] ?? null, fit: band.fit[i] ?? null }));
+    marks.push(Plot.areaY(rows, { x: 'date', y1: 'lower', y2: 'upper', fill: bandFill, fillOpacity: 0.45 }));
+    marks.push(Plot.lineY(rows, { x: 'date', y: 'fit', stroke: lineColour, strokeWidth: 2.5 }));
+  } else if (!seasonal && sen && sen.slope !== null && sen.intercept !== null && obs.length > 1) {
+    const t0 = indicator.observations[0]!.t;
+    const t1 = indicator.observations[indicator.observations.length - 1]!.t;
+    const rows = [t0, t1].map((t) => ({ date: dateFromDecimalYear(t), fit: sen.intercept! + sen.slope! * t }));
+    marks.push(Plot.lineY(rows, { x: 'date', y: 'fit', stroke: lineColour, strokeWidth: 2.5 }));
+  }
+  if (indicator.threshold) {
+    marks.push(Plot.ruleY([indicator.threshold.value], { stroke: thresholdColour, strokeWidth: 1.5, strokeDasharray: '6 4' }));
+    if (!seasonal) {
+      marks.push(Plot.text([indicator.threshold.value], { y: (d: number) => d, frameAnchor: 'right', dy: -7, text: () => `${indicator.threshold!.label} ${indicator.threshold!.value}`, fill: thresholdColour, fontSize: 11, textAnchor: 'end' }));
+    }
+  }
+  const facet = seasonal ? { fx: 'season' } : {};
+  marks.push(Plot.dot(obs.filter((o) => !o.censored), { x: 'date', y: 'value', r: 2.6, fill: ink, fillOpacity: 0.8, stroke: '#fff', strokeWidth: 0.6, title: 'title', ...facet }));
+  marks.push(Plot.dot(obs.filter((o) => o.censored), { x: 'date', y: 'value', r: 4, symbol: 'triangle', rotate: 180, fill: '#fff', stroke: ink, strokeWidth: 1.3, title: 'title', ...facet }));
+  if (seasonal) marks.push(Plot.frame({ stroke: '#c8d0d4' }));
+
+  const plot = Plot.plot({
+    document: document as unknown as Document,
+    ariaLabel: `${indicator.label}: ${indicator.chartDescription}`,
+    width,
+    height: seasonal ? 220 : 250,
+    marginLeft: 44,
+    marginRight: 16,
+    marginTop: seasonal ? 28 : 20,
+    style: { fontSize: '12px', fontFamily: 'inherit', color: ink, background: 'transparent', overflow: 'visible' },
+    x: { type: 'utc', label: null, ticks: seasonal ? 2 : 5, inset: 8 },
+    y: { label: indicator.unitShort, grid: false, zero: true, nice: true },
+    ...(seasonal ? { fx: { domain: seasonOrder.filter((s) => obs.some((o) => o.season === s)), label: null, padding: 0.08 } } : {}),
+    marks,
+  });
+  const svg = tidyAria(roundSvgNumbers((plot as unknown as { outerHTML: string }).outerHTML));
+  cache.set(options.cacheKey, svg);
+  return svg;
+}

@@ -1,0 +1,11 @@
+/**
+ * The Content-Security-Policy every page carries in a meta element: scripts only from this
+ * origin and never inline, no plugins, no <base>. `frame-ancestors` is ignored (and warned
+ * about) in a meta element, so it belongs in an HTTP header from the server.
+ * `wasm` adds 'wasm-unsafe-eval' (lets WebAssembly compile, not JavaScript eval) for the
+ * search page, whose optional index runs as WebAssembly.
+ */
+export function cspContent(options: { wasm?: boolean } = {}): string {
+  const script = options.wasm ? "script-src 'self' 'wasm-unsafe-eval'" : "script-src 'self'";
+  return ["default-src 'self'", script, "style-src 'self' 'unsafe-inline'", "img-src 'self' data:", "object-src 'none'", "base-uri 'none'", "form-action 'self'"].join('; ');
+}

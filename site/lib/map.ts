@@ -1,0 +1,182 @@
+/**
+ * Maps as inline SVG strings, drawn at build time: segment lines (and zone hulls) go through
+ * TopoJSON (topojson-server `topology` quantises shared coordinates, topojson-client `feature`
+ * turns them back into GeoJSON), then d3-geo `geoPath` with a Mercator projection fitted to
+ * the frame writes short path strings (1 decimal). Rendering only: levels and zones come
+ * from the bulletin model.
+ */
+import { geoArea, geoBounds, geoDistance, geoMercator, geoPath } from 'd3-geo';
+import type { GeoPermissibleObjects } from 'd3-geo';
+import { topology } from 'topojson-server';
+import { feature } from 'topojson-client';
+import type { Feature, FeatureCollection, Geometry, Polygon } from 'geojson';
+import type { AccumulationZone, LevelId } from '../../generator/model/types.ts';
+import { escapeXml } from './format.ts';
+import { levelPatternDefs, levelStyles } from './levels.ts';
+
+export interface MapSegment {
+  id: string;
+  name: string;
+  level: LevelId;
+  levelLabel: string;
+  geometry: Geometry;
+}
+
+export interface MapOptions {
+  idPrefix: string;                 // makes <title>/<desc> ids unique on the page
+  title: string;
+  description: string;
+  segments: MapSegment[];
+  zones?: AccumulationZone[];
+  highlight?: string | null;        // segment id for a locator map
+  width?: number;                   // defaults to 640
+  badges?: boolean;                 // numbered level badges; defaults to true under 80 segments
+}
+
+type Props = { id: string; name: string; level: LevelId; levelLabel: string };
+
+/** d3-geo wants exterior rings clockwise (opposite of RFC 7946): a ring wound the other way
+ * covers the whole sphere, so reverse any ring whose area exceeds a hemisphere. */
+function rewindForD3(polygon: Polygon): Polygon {
+  const f: Feature<Polygon> = { type: 'Feature', properties: {}, geometry: polygon };
+  if (geoArea(f) <= 2 * Math.PI) return polygon;
+  return { type: 'Polygon', coordinates: polygon.coordinates.map((ring) => [...ring].reverse()) };
+}
+
+function rewindGeometry(geometry: Geometry): Geometry {
+  if (geometry.type === 'Polygon') return rewindForD3(geometry);
+  if (geometry.type === 'MultiPolygon') {
+    return { type: 'MultiPolygon', coordinates: geometry.coordinates.map((c) => rewindForD3({ type: 'Polygon', coordinates: c }).coordinates) };
+  }
+  return geometry;
+}
+
+function viaTopology(segments: MapSegment[]): Feature<Geometry, Props>[] {
+  const collection: FeatureCollection<Geometry, Props> = {
+    type: 'FeatureCollection',
+    features: segments.map((s) => ({ type: 'Feature', properties: { id: s.id, name: s.name, level: s.level, levelLabel: s.levelLabel }, geometry: s.geometry })),
+  };
+  const topo = topology({ segments: collection }, 1e5);
+  const back = feature(topo, topo.objects['segments']!) as unknown as FeatureCollection<Geometry, Props>;
+  return back.features.map((f) => ({ ...f, geometry: rewindGeometry(f.geometry) }));
+}
+
+function isArea(geometry: Geometry): boolean {
+  return geometry.type === 'Polygon' || geometry.type === 'MultiPolygon';
+}
+
+const niceKm = [0.5, 1, 2, 5, 10, 20, 50, 100, 200, 500];
+
+export function renderMap(options: MapOptions): string {
+  const width = options.width ?? 640;
+  const pad = 16;
+  const highlight = options.highlight ?? null;
+  let features = viaTopology(options.segments);
+  const zones = (options.zones ?? []).filter((z) => z.hull.length >= 4).map((z) => ({
+    zone: z,
+    feature: { type: 'Feature', properties: {}, geometry: rewindForD3({ type: 'Polygon', coordinates: [z.hull] }) } as Feature<Polygon>,
+  }));
+
+  // Frame: the whole region, or for a locator the highlighted segment with its surroundings.
+  let frame: GeoPermissibleObjects = { type: 'FeatureCollection', features: [...features, ...zones.map((z) => z.feature)] } as FeatureCollection;
+  if (highlight) {
+    const target = features.find((f) => f.properties.id === highlight);
+    if (target) {
+      const [[w, s], [e, n]] = geoBounds(target);
+      const spanLon = Math.max(e - w, 0.08) * 1.6;
+      const spanLat = Math.max(n - s, 0.05) * 1.6;
+      const cx = (w + e) / 2;
+      const cy = (s + n) / 2;
+      const win = [cx - spanLon, cy - spanLat, cx + spanLon, cy + spanLat] as const;
+      frame = { type: 'MultiPoint', coordinates: [[win[0], win[1]], [win[2], win[3]]] };
+      features = features.filter((f) => {
+        const [[fw, fs], [fe, fn]] = geoBounds(f);
+        return fe >= win[0] && fw <= win[2] && fn >= win[1] && fs <= win[3];
+      });
+    }
+  }
+
+  const projection = geoMercator().fitWidth(width - 2 * pad, frame);
+  const probe = geoPath(projection).bounds(frame);
+  const height = Math.round(Math.min(Math.max(probe[1][1] - probe[0][1] + 2 * pad, 220), highlight ? 360 : 560));
+  projection.fitExtent([[pad, pad], [width - pad, height - pad]], frame).clipExtent([[0, 0], [width, height]]);
+  const path = geoPath(projection).digits(1);
+
+  const parts: string[] = [];
+  const tid = `${options.idPrefix}-title`;
+  const did = `${options.idPrefix}-desc`;
+  parts.push(`<svg class="map" viewBox="0 0 ${width} ${height}" role="img" aria-labelledby="${tid} ${did}" preserveAspectRatio="xMidYMid meet">`);
+  parts.push(`<title id="${tid}">${escapeXml(options.title)}</title><desc id="${did}">${escapeXml(options.description)}</desc>`);
+  const pat = `${options.idPrefix}-zone`;
+  parts.push(`<defs><pattern id="${pat}" width="7" height="7" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><rect width="7" height="7" fill="#dfe8ec"/><path d="M0 0V7" stroke="#5d7482" stroke-width="1.4"/></pattern>${features.some((f) => isArea(f.geometry)) ? levelPatternDefs().replace(/wl-pat-/g, `${options.idPrefix}-pat-`) : ''}</defs>`);
+  parts.push(`<rect class="sea" x="0" y="0" width="${width}" height="${height}" fill="#f1f0eb"/>`);
+
+  for (const { zone, feature: f } of zones) {
+    const d = path(f);
+    if (!d) continue;
+    const label = `Offshore accumulation zone ${zone.id}: about ${zone.particles} modelled particles within ${zone.radiusKm} km`;
+    parts.push(`<path d="${d}" fill="url(#${pat})" fill-opacity="${highlight ? 0.5 : 0.9}" stroke="#3d5563" stroke-width="1" stroke-dasharray="3 2"><title>${escapeXml(label)}</title></path>`);
+    const c = projection([zone.lon, zone.lat]);
+    if (c && !highlight) {
+      parts.push(`<text x="${c[0].toFixed(1)}" y="${c[1].toFixed(1)}" class="zone-label" text-anchor="middle" dy="0.35em" font-size="11" font-weight="600" fill="#1f2a33" stroke="#f1f0eb" stroke-width="3" paint-order="stroke">${escapeXml(zone.id)}</text>`);
+    }
+  }
+
+  const ordered = [...features].sort((a, b) => {
+    if (highlight) return (a.properties.id === highlight ? 1 : 0) - (b.properties.id === highlight ? 1 : 0);
+    return levelStyles[a.properties.level].rank - levelStyles[b.properties.level].rank;
+  });
+  for (const f of ordered) {
+    const d = path(f);
+    if (!d) continue;
+    const style = levelStyles[f.properties.level];
+    const title = `<title>${escapeXml(`${f.properties.name}: ${f.properties.levelLabel}, level ${style.rank} of 4`)}</title>`;
+    const area = isArea(f.geometry);
+    if (highlight && f.properties.id !== highlight) {
+      parts.push(`<path d="${d}" fill="${area ? '#c9d3d8' : 'none'}" stroke="#8c9aa3" stroke-width="2.5" stroke-linecap="round">${title}</path>`);
+      continue;
+    }
+    const isTarget = highlight !== null;
+    const w = isTarget ? 8 : style.width;
+    const dash = !isTarget && style.dash ? ` stroke-dasharray="${style.dash}"` : '';
+    if (area) {
+      parts.push(`<path d="${d}" fill="url(#${options.idPrefix}-pat-${style.rank})" stroke="${style.stroke}" stroke-width="1.5">${title}</path>`);
+    } else {
+      parts.push(`<path d="${d}" fill="none" stroke="#fff" stroke-width="${w + 3}" stroke-linecap="round" stroke-linejoin="round"/>`);
+      parts.push(`<path d="${d}" fill="none" stroke="${isTarget ? '#1f2a33' : style.stroke}" stroke-width="${w}" stroke-linecap="round" stroke-linejoin="round"${dash}>${title}</path>`);
+    }
+  }
+
+  const badges = options.badges ?? (!highlight && features.length < 80);
+  if (badges || highlight) {
+    for (const f of ordered) {
+      if (highlight && f.properties.id !== highlight) continue;
+      const c = path.centroid(f);
+      if (!Number.isFinite(c[0])) continue;
+      const style = levelStyles[f.properties.level];
+      const [x, y] = [c[0].toFixed(1), c[1].toFixed(1)];
+      if (highlight) {
+        const [[x0, y0], [x1, y1]] = path.bounds(f);
+        const ring = Math.min(Math.max(Math.hypot(x1 - x0, y1 - y0) / 2 + 10, 16), 120);
+        parts.push(`<circle cx="${x}" cy="${y}" r="${ring.toFixed(1)}" fill="none" stroke="#1f2a33" stroke-width="2" stroke-dasharray="4 3"/>`);
+      } else {
+        const dark = style.rank >= 3;
+        parts.push(`<g class="badge"><circle cx="${x}" cy="${y}" r="9" fill="${style.fill}" stroke="#1f2a33" stroke-width="1.2"/><text x="${x}" y="${y}" dy="0.35em" text-anchor="middle" font-size="11" font-weight="700" fill="${dark ? '#fff' : '#1f2a33'}">${style.rank}</text></g>`);
+      }
+    }
+  }
+
+  // Scale bar, bottom left: distance of 100 px at mid-height, rounded to a nice length.
+  const y = height / 2;
+  const a = projection.invert?.([width / 2 - 50, y]);
+  const b = projection.invert?.([width / 2 + 50, y]);
+  if (a && b) {
+    const kmPer100 = geoDistance(a, b) * 6371.0088;
+    const km = [...niceKm].reverse().find((k) => (k / kmPer100) * 100 <= 140) ?? niceKm[0]!;
+    const px = (km / kmPer100) * 100;
+    const by = height - 12;
+    parts.push(`<g class="scale"><rect x="8" y="${by - 16}" width="${(px + 16).toFixed(1)}" height="22" fill="#fff" fill-opacity="0.85"/><path d="M16 ${by - 4}V${by}H${(16 + px).toFixed(1)}V${by - 4}" fill="none" stroke="#1f2a33" stroke-width="1.5"/><text x="${(16 + px / 2).toFixed(1)}" y="${by - 6}" text-anchor="middle" font-size="10" fill="#1f2a33">${km} km</text></g>`);
+  }
+  parts.push('</svg>');
+  return parts.join('');
+}

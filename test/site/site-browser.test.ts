@@ -1,0 +1,300 @@
+/**
+ * Real-browser checks of the built site: Debian's chromium driven by playwright-core against
+ * the static output served on 127.0.0.1 by a small server in this file.
+ *
+ * The site is built once in beforeAll from the model folder in WRACKLINE_TEST_MODEL (default:
+ * the invented fixture model in test/fixtures/model), or taken as is from WRACKLINE_TEST_SITE
+ * when that names an already built site folder. Screenshots go to test-artifacts/screenshots/.
+ *
+ * External references for the checks: axe-core's WCAG 2.1 A/AA rule set (Deque, axe-core 4.x,
+ * tags wcag2a, wcag2aa, wcag21a, wcag21aa); RFC 4287 (Atom) for the feed's required elements;
+ * ISO 216 A4 paper for the print check (the PDF page count comes from chromium's printer).
+ */
+import { execFileSync } from 'node:child_process';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, statSync } from 'node:fs';
+import { createServer, type Server } from 'node:http';
+import { createRequire } from 'node:module';
+import { tmpdir } from 'node:os';
+import { extname, join, normalize, resolve, sep } from 'node:path';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { chromium, type BrowserContext, type Page } from 'playwright-core';
+
+const root = resolve(import.meta.dirname, '..', '..');
+const require = createRequire(import.meta.url);
+const chromiumPath = '/usr/bin/chromium';
+const shots = join(root, 'test-artifacts', 'screenshots');
+const haveBrowser = existsSync(chromiumPath);
+
+let siteDir = '';
+let ownBuild = '';
+let server: Server | null = null;
+let origin = '';
+let context: BrowserContext | null = null;
+let profileDir = '';
+const consoleProblems: string[] = [];
+
+const types: Record<string, string> = {
+  '.html': 'text/html; charset=utf-8', '.css': 'text/css; charset=utf-8', '.js': 'text/javascript; charset=utf-8',
+  '.json': 'application/json; charset=utf-8', '.csv': 'text/csv; charset=utf-8', '.xml': 'application/atom+xml; charset=utf-8',
+  '.svg': 'image/svg+xml', '.png': 'image/png', '.wasm': 'application/wasm', '.pf_meta': 'application/octet-stream',
+  '.pf_index': 'application/octet-stream', '.pf_fragment': 'application/octet-stream', '.pagefind': 'application/octet-stream',
+};
+
+/** Serves `dir` read-only: folders answer with their index.html, unknown paths with 404.html. */
+function serve(dir: string): Promise<{ server: Server; origin: string }> {
+  const base = resolve(dir);
+  const srv = createServer((request, response) => {
+    const path = decodeURIComponent(new URL(request.url ?? '/', 'http://127.0.0.1').pathname);
+    let file = normalize(join(base, path));
+    if (file !== base && !file.startsWith(base + sep)) {
+      response.writeHead(400).end('bad path');
+      return;
+    }
+    if (existsSync(file) && statSync(file).isDirectory()) {
+      if (!path.endsWith('/')) {
+        response.writeHead(301, { Location: `${path}/` }).end();
+        return;
+      }
+      file = join(file, 'index.html');
+    }
+    if (!existsSync(file)) {
+      const notFound = join(base, '404.html');
+      response.writeHead(404, { 'Content-Type': types['.html']! }).end(existsSync(notFound) ? readFileSync(notFound) : 'not found');
+      return;
+    }
+    response.writeHead(200, { 'Content-Type': types[extname(file)] ?? 'application/octet-stream' }).end(readFileSync(file));
+  });
+  return new Promise((done) => srv.listen(0, '127.0.0.1', () => {
+    const address = srv.address();
+    done({ server: srv, origin: `http://127.0.0.1:${typeof address === 'object' && address ? address.port : 0}` });
+  }));
+}
+
+function buildSite(): string {
+  const given = process.env['WRACKLINE_TEST_SITE'];
+  if (given) return resolve(given);
+  const model = resolve(process.env['WRACKLINE_TEST_MODEL'] ?? join(root, 'test', 'fixtures', 'model'));
+  ownBuild = mkdtempSync(join(tmpdir(), 'wrackline-site-test-'));
+  const astro = join(root, 'node_modules', 'astro', 'astro.js');
+  const env = { ...process.env, WRACKLINE_MODEL: model, ASTRO_TELEMETRY_DISABLED: '1', TZ: 'UTC' };
+  const command = existsSync('/usr/bin/flock') ? ['/usr/bin/flock', '/tmp/astro.lock', process.execPath] : [process.execPath];
+  execFileSync(command[0]!, [...command.slice(1), astro, 'build', '--outDir', ownBuild], { cwd: root, env, stdio: 'pipe' });
+  // The search index, as the publish step makes it: `npx pagefind --site <outDir>`.
+  // pagefind's package "exports" hide its package.json from require.resolve: read it from disk
+  const pagefindDir = join(root, 'node_modules', 'pagefind');
+  const pagefind = join(pagefindDir, (JSON.parse(readFileSync(join(pagefindDir, 'package.json'), 'utf8')) as { bin: string }).bin);
+  execFileSync(process.execPath, [pagefind, '--site', ownBuild], { cwd: root, stdio: 'pipe' });
+  return ownBuild;
+}
+
+function htmlPages(dir: string, prefix = ''): string[] {
+  const out: string[] = [];
+  for (const name of readdirSync(join(dir, prefix)).sort()) {
+    const rel = prefix ? `${prefix}/${name}` : name;
+    if (statSync(join(dir, rel)).isDirectory()) {
+      if (name !== 'pagefind') out.push(...htmlPages(dir, rel));
+    } else if (name.endsWith('.html')) out.push(rel);
+  }
+  return out;
+}
+
+async function openPage(url: string): Promise<{ page: Page; status: number }> {
+  const page = await context!.newPage();
+  page.on('console', (message) => {
+    if (message.type() === 'error' || message.type() === 'warning') consoleProblems.push(`${url}: console ${message.type()}: ${message.text()}`);
+  });
+  page.on('pageerror', (error) => consoleProblems.push(`${url}: page error: ${error.message}`));
+  page.on('requestfailed', (request) => consoleProblems.push(`${url}: request failed: ${request.url()}`));
+  const response = await page.goto(origin + url, { waitUntil: 'load' });
+  return { page, status: response?.status() ?? 0 };
+}
+
+describe.skipIf(!haveBrowser)('published site in a real browser', () => {
+  const pages: { url: string; status: number; links: string[] }[] = [];
+  let firstBulletin = '';
+
+  beforeAll(async () => {
+    siteDir = buildSite();
+    ({ server, origin } = await serve(siteDir));
+    profileDir = mkdtempSync(join(tmpdir(), 'wrackline-chromium-'));
+    context = await chromium.launchPersistentContext(profileDir, {
+      executablePath: chromiumPath,
+      headless: true,
+      args: ['--no-sandbox', '--disable-gpu', '--disable-background-networking', '--disable-component-update', '--disable-sync', '--no-first-run'],
+      viewport: { width: 1280, height: 800 },
+    });
+    mkdirSync(shots, { recursive: true });
+
+    // Crawl every internal link from the overview, breadth first.
+    const queue = ['/'];
+    const seen = new Set(queue);
+    while (queue.length > 0) {
+      const url = queue.shift()!;
+      const isHtml = url.endsWith('/');
+      if (!isHtml) {
+        const response = await fetch(origin + url);
+        pages.push({ url, status: response.status, links: [] });
+        continue;
+      }
+      const { page, status } = await openPage(url);
+      const links = await page.$$eval('a[href]', (anchors) => anchors.map((a) => a.getAttribute('href') ?? ''));
+      await page.close();
+      pages.push({ url, status, links });
+      for (const href of links) {
+        const target = new URL(href, origin + url);
+        if (target.origin !== origin) continue;
+        const path = target.pathname;
+        if (!seen.has(path)) {
+          seen.add(path);
+          queue.push(path);
+        }
+      }
+    }
+    firstBulletin = pages.find((p) => /^\/segments\/[^/]+\/$/.test(p.url))?.url ?? '';
+  });
+
+  afterAll(async () => {
+    await context?.close();
+    await new Promise((done) => (server ? server.close(done) : done(undefined)));
+    if (profileDir) rmSync(profileDir, { recursive: true, force: true });
+    if (ownBuild) rmSync(ownBuild, { recursive: true, force: true });
+  });
+
+  it('reaches every built page from the overview, with no broken internal link', () => {
+    const broken = pages.filter((p) => p.status !== 200).map((p) => `${p.url} → ${p.status}`);
+    expect(broken).toEqual([]);
+    const reached = new Set(pages.map((p) => p.url));
+    const built = htmlPages(siteDir).filter((f) => f !== '404.html').map((f) => `/${f.replace(/index\.html$/, '')}`);
+    expect(built.filter((u) => !reached.has(u))).toEqual([]);
+    expect(firstBulletin).not.toBe('');
+  });
+
+  it('logs no console error or warning on any page', () => {
+    expect(consoleProblems).toEqual([]);
+  });
+
+  it('passes axe-core WCAG 2.1 A and AA with zero violations on the key pages', async () => {
+    const axeSource = readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8');
+    const extra = pages.map((p) => p.url).filter((u) => /^\/seasons\/[^/]+\/$/.test(u) || u.startsWith('/embed/')).slice(0, 2);
+    const targets = ['/', firstBulletin, '/seasons/', '/methods/', '/validation/', '/search/', ...extra];
+    const results: Record<string, string[]> = {};
+    for (const url of targets) {
+      const { page } = await openPage(url);
+      // evaluate runs over the DevTools protocol, so the page's CSP (no inline script) stays in force
+      await page.evaluate(axeSource);
+      const violations = await page.evaluate(async () => {
+        const axe = (globalThis as unknown as { axe: { run: (ctx: unknown, opts: unknown) => Promise<{ violations: { id: string; nodes: { target: string[] }[] }[] }> } }).axe;
+        const result = await axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] } });
+        return result.violations.map((v) => `${v.id}: ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
+      });
+      results[url] = violations;
+      await page.close();
+    }
+    expect(results).toEqual(Object.fromEntries(targets.map((t) => [t, []])));
+  });
+
+  it('has no horizontal overflow at 390×844 and 1280×800, and saves screenshots', async () => {
+    const htmlUrls = pages.filter((p) => p.url.endsWith('/')).map((p) => p.url);
+    const overflow: string[] = [];
+    const named: Record<string, string> = { '/': 'overview', [firstBulletin]: 'bulletin', '/seasons/': 'archive', '/methods/': 'methods', '/validation/': 'validation', '/search/': 'search' };
+    const embed = htmlUrls.find((u) => u.startsWith('/embed/'));
+    if (embed) named[embed] = 'embed';
+    const archived = htmlUrls.find((u) => /^\/seasons\/[^/]+\/[^/]+\/$/.test(u) && !u.includes(pages.find((p) => p.url === firstBulletin)?.url ?? '§'));
+    if (archived) named[archived] = 'bulletin-permalink';
+    for (const [width, height] of [[390, 844], [1280, 800]] as const) {
+      const page = await context!.newPage();
+      await page.setViewportSize({ width, height });
+      for (const url of htmlUrls.slice(0, 400)) {
+        await page.goto(origin + url, { waitUntil: 'load' });
+        const [scroll, client] = await page.evaluate(() => [document.documentElement.scrollWidth, document.documentElement.clientWidth]);
+        if (scroll! > client!) overflow.push(`${url} at ${width}px: ${scroll} > ${client}`);
+        const name = named[url];
+        if (name) await page.screenshot({ path: join(shots, `${name}-${width}.png`), fullPage: true });
+      }
+      await page.close();
+    }
+    expect(overflow).toEqual([]);
+  });
+
+  it('keeps each bulletin page (HTML + CSS, inline SVG included) within 150 KB', () => {
+    const css = htmlPages(siteDir).length > 0 ? statSync(join(siteDir, 'wrackline.css')).size : 0;
+    const sizes = htmlPages(siteDir)
+      .filter((f) => /^(segments|seasons\/[^/]+)\/[^/]+\/index\.html$/.test(f))
+      .map((f) => ({ f, bytes: statSync(join(siteDir, f)).size + css }));
+    expect(sizes.length).toBeGreaterThan(0);
+    const largest = sizes.reduce((a, b) => (b.bytes > a.bytes ? b : a));
+    console.log(`site: ${htmlPages(siteDir).length} HTML pages; largest bulletin ${largest.f} = ${(largest.bytes / 1024).toFixed(1)} KB with CSS`);
+    expect(sizes.filter((s) => s.bytes > 150 * 1024)).toEqual([]);
+  });
+
+  it('reads with JavaScript off: the bulletin text, map and charts are all in the HTML', async () => {
+    const page = await context!.newPage();
+    const session = await context!.newCDPSession(page);
+    await session.send('Emulation.setScriptExecutionDisabled', { value: true });
+    await page.goto(origin + firstBulletin);
+    await expect(page.locator('h1').innerText()).resolves.not.toBe('');
+    expect(await page.locator('svg.map').count()).toBe(1);
+    expect(await page.locator('.chart-figure svg').count()).toBeGreaterThan(0);
+    expect(await page.locator('.invented').count()).toBe(1);
+    await page.close();
+  });
+
+  it('prints a bulletin on at most two A4 pages', async () => {
+    const page = await context!.newPage();
+    await page.goto(origin + firstBulletin);
+    await page.emulateMedia({ media: 'print' });
+    const pdf = await page.pdf({ format: 'A4', printBackground: false, preferCSSPageSize: true });
+    const pageCount = (pdf.toString('latin1').match(/\/Type\s*\/Page[^s]/g) ?? []).length;
+    await page.screenshot({ path: join(shots, 'bulletin-print-preview.png'), fullPage: true });
+    await page.close();
+    expect(pageCount).toBeGreaterThan(0);
+    expect(pageCount).toBeLessThanOrEqual(2);
+  });
+
+  it('serves an Atom feed with the elements RFC 4287 requires', async () => {
+    const page = await context!.newPage();
+    await page.goto(`${origin}/`);
+    const xml = await (await fetch(`${origin}/feed.xml`)).text();
+    const summary = await page.evaluate((text) => {
+      const doc = new DOMParser().parseFromString(text, 'application/xml');
+      const ns = 'http://www.w3.org/2005/Atom';
+      const feed = doc.documentElement;
+      const entries = [...doc.getElementsByTagNameNS(ns, 'entry')];
+      return {
+        wellFormed: doc.getElementsByTagName('parsererror').length === 0,
+        root: `${feed.namespaceURI} ${feed.localName}`,
+        feedHas: ['id', 'title', 'updated', 'author'].every((n) => feed.getElementsByTagNameNS(ns, n).length > 0),
+        entries: entries.length,
+        entriesComplete: entries.every((e) => ['id', 'title', 'updated', 'link'].every((n) => e.getElementsByTagNameNS(ns, n).length > 0)),
+      };
+    }, xml);
+    await page.close();
+    expect(summary).toMatchObject({ wellFormed: true, root: 'http://www.w3.org/2005/Atom feed', feedHas: true, entriesComplete: true });
+    const bulletins = htmlPages(siteDir).filter((f) => /^seasons\/[^/]+\/[^/]+\/index\.html$/.test(f)).length;
+    expect(summary.entries).toBe(bulletins);
+  });
+
+  it('finds a segment through the optional search box, and lists every segment without it', async () => {
+    const { page } = await openPage('/search/');
+    const listed = await page.locator('.place-list a').count();
+    expect(listed).toBeGreaterThan(0);
+    const name = (await page.locator('.place-list a').first().innerText()).split(' ')[0]!;
+    await page.locator('#search-box:not([hidden])').waitFor({ timeout: 10_000 });
+    await page.fill('#search-input', name);
+    await page.locator('#search-results a').first().waitFor({ timeout: 10_000 });
+    expect(await page.locator('#search-results a').first().getAttribute('href')).toMatch(/^\/segments\/[^/]+\/$/);
+    await page.close();
+    expect(consoleProblems).toEqual([]);
+  });
+
+  it('links input-supplied addresses only when they are http(s), and shows input text literally', async () => {
+    for (const p of pages.filter((x) => x.url.endsWith('/'))) {
+      expect(p.links.filter((h) => /^\s*(javascript|data|vbscript):/i.test(h))).toEqual([]);
+    }
+    const { page } = await openPage(firstBulletin);
+    const jsonLd = await page.locator('script[type="application/ld+json"]').textContent();
+    expect(() => JSON.parse(jsonLd ?? '')).not.toThrow();
+    expect(JSON.parse(jsonLd ?? '{}')['@type']).toBe('Dataset');
+    await page.close();
+  });
+});
