@@ -157,13 +157,14 @@ export async function makeScaleScenario(dir: string, options: ScaleOptions = {})
   for (const source of sources) source.share = share;
   const setup: DriftSetup = {
     coastX,
+    landRange: [-coastLengthKm, 0],
     gyres,
     coastalCurrentKmPerDay: 9,
     coastalWidthKm: 7,
     wind: { winter: [3.2, -1.0], spring: [1.0, 1.5], summer: [-1.6, 0.6], autumn: [2.4, -1.6] },
     gyreSeasonFactor: { winter: 0.8, spring: 1.1, summer: 1.4, autumn: 1.0 },
     diffusionKm2PerDay: 0.8,
-    bounds: { xMin: -95, xMax: 20, yMin: -coastLengthKm - 5, yMax: 5 },
+    bounds: { xMin: -120, xMax: 80, yMin: -coastLengthKm - 80, yMax: 80 },
     offshoreBox: { xMin: -88, xMax: -6, yMin: -coastLengthKm, yMax: 0 },
     sources,
     particlesPerSeason: 2000,

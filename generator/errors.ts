@@ -4,6 +4,11 @@
  * was expected, and a `hint` saying how to fix the input. Messages are not sentences: no final
  * period.
  *
+ * Severity: a problem that makes a whole input unusable or untrustworthy (unreadable file, wrong
+ * header, wrong unit, invalid settings, bad segment) is an `error` and stops a build; a single
+ * record left out (bad cell, unknown segment, duplicate id, date out of range) is a `warning`
+ * with `excluded: true`, listed in the report; a table where no record survives is an error.
+ *
  * Two error classes exist:
  * - `ScenarioError`: the scenario folder or its datapackage.json cannot be read at all; the only
  *   thing `loadScenario` throws.
@@ -82,8 +87,8 @@ export const ResourceFileMissing = {
 
 export const SettingsUnreadable = {
   name: 'SettingsUnreadable',
-  title: 'Settings file is not valid JSON',
-  message: (file: string, reason: string) => `${file}: not valid JSON (${reason})`,
+  title: 'Settings file cannot be parsed',
+  message: (file: string, reason: string) => `${file}: not valid ${/\.ya?ml$/i.test(file) ? 'YAML' : 'JSON'} (${reason})`,
   hint: 'Open the file in an editor with the published JSON Schema (schema/scenario.schema.json) to see the mistake',
 } satisfies ErrorData;
 
@@ -93,6 +98,13 @@ export const SettingsInvalid = {
   message: (file: string, jsonPath: string, value: string, expected: string) =>
     `${file}, at ${jsonPath}: ${value} is not allowed; expected ${expected}`,
   hint: 'See schema/scenario.schema.json for every setting and its allowed values',
+} satisfies ErrorData;
+
+export const SettingUnknown = {
+  name: 'SettingUnknown',
+  title: 'Unknown setting',
+  message: (file: string, jsonPath: string) => `${file}, at ${jsonPath}: this setting is not known and was ignored; expected one of the settings in schema/scenario.schema.json`,
+  hint: 'Check the spelling (names are case-sensitive); an editor using schema/scenario.schema.json completes them',
 } satisfies ErrorData;
 
 // ---------------------------------------------------------------------------------------------
@@ -111,6 +123,13 @@ export const NoDataRows = {
   title: 'Table has no data rows',
   message: (file: string) => `${file} row 2: the table has a header but no data rows; expected at least one record`,
   hint: 'Export the table again, or remove the resource from datapackage.json if there is nothing to report',
+} satisfies ErrorData;
+
+export const NoUsableRows = {
+  name: 'NoUsableRows',
+  title: 'No record could be used',
+  message: (file: string, read: number) => `${file} row 2: none of the ${read} records could be used; every one was left out (see the entries above)`,
+  hint: 'A whole file failing the same check usually means a wrong dialect, unit or date format in datapackage.json',
 } satisfies ErrorData;
 
 export const ByteOrderMark = {

@@ -46,7 +46,7 @@ export function coastX(y: number): number {
 }
 
 export const COAST_NORTH_Y = 56;
-export const COAST_SOUTH_Y = -52;
+export const COAST_SOUTH_Y = -65;
 
 /** The island: a wobbly ring around its centre, listed anticlockwise in the local plane. */
 export const ISLAND = { centreX: -27, centreY: 2, radiusKm: 3.2 };

@@ -8,7 +8,8 @@
  * Integration: forward Euler with a quarter-day step and a Gaussian random walk of variance
  * 2·K·Δt per axis (common practice for Lagrangian particle tracking). Positions are written once a
  * day at 00:00 UTC; a particle that crosses the shore is placed on the shore line, marked
- * "ashore", and stops.
+ * "ashore", and stops. Beyond the two ends of the mainland there is open sea; a particle leaving
+ * the model area is no longer written.
  */
 import { createSeededRandom, type SeededRandom } from '../../generator/random/seeded-random.ts';
 import type { DemoSeason, SeasonName } from './seasons.ts';
@@ -32,6 +33,8 @@ export interface ParticleSource {
 
 export interface DriftSetup {
   coastX: (y: number) => number;
+  /** Northing range [south, north] of the mainland; beyond its ends there is open sea. */
+  landRange: [number, number];
   /** Island test and snap, when the coast has an island. */
   island?: { contains: (x: number, y: number) => boolean; shorePoint: (x: number, y: number) => [number, number] };
   gyres: Gyre[];
@@ -77,22 +80,36 @@ function velocity(setup: DriftSetup, season: SeasonName, x: number, y: number): 
     v += (shape * (gyre.swirlKmPerDay * dx - inflow * dy)) / r;
   }
   const offshoreDistance = setup.coastX(y) - x;
-  if (offshoreDistance > 0) v -= setup.coastalCurrentKmPerDay * Math.exp(-offshoreDistance / setup.coastalWidthKm);
+  if (offshoreDistance > 0) {
+    // The coastal current weakens beyond the ends of the land (e-folding over 15 km).
+    const [south, north] = setup.landRange;
+    const beyond = y < south ? south - y : y > north ? y - north : 0;
+    v -= setup.coastalCurrentKmPerDay * Math.exp(-offshoreDistance / setup.coastalWidthKm - beyond / 15);
+  }
   const [windU, windV] = setup.wind[season];
   return [u + windU, v + windV];
 }
 
 function releasePoint(setup: DriftSetup, random: SeededRandom): [number, number] {
   let pick = random.uniform();
+  const atSea = (x: number, y: number) => x < setup.coastX(y) - 0.05 && !setup.island?.contains(x, y);
   for (const source of setup.sources) {
-    if (pick < source.share) return [source.x + random.normal(0, source.spreadKm), source.y + random.normal(0, source.spreadKm)];
+    if (pick < source.share) {
+      // Spread around the source, redrawn until the point is on water (the source itself is).
+      for (let attempt = 0; attempt < 50; attempt++) {
+        const x = source.x + random.normal(0, source.spreadKm);
+        const y = source.y + random.normal(0, source.spreadKm);
+        if (atSea(x, y)) return [x, y];
+      }
+      return [source.x, source.y];
+    }
     pick -= source.share;
   }
   const box = setup.offshoreBox;
   for (;;) {
     const x = random.between(box.xMin, box.xMax);
     const y = random.between(box.yMin, box.yMax);
-    if (x < setup.coastX(y) - 1 && !setup.island?.contains(x, y)) return [x, y];
+    if (x < setup.coastX(y) - 1 && atSea(x, y)) return [x, y];
   }
 }
 
@@ -120,13 +137,17 @@ export function runSeason(setup: DriftSetup, season: DemoSeason, firstParticle: 
     write(releaseDay, false);
     days: for (let day = releaseDay + 1; day <= lastDay; day++) {
       for (let step = 0; step < STEPS_PER_DAY; step++) {
+        const previousY = y;
         const [u, v] = velocity(setup, season.name, x, y);
         x += u * dt + random.normal(0, sd);
         y += v * dt + random.normal(0, sd);
         const b = setup.bounds;
         if (x < b.xMin || x > b.xMax || y < b.yMin || y > b.yMax) break days; // left the model area
+        const [south, north] = setup.landRange;
         const shoreX = setup.coastX(y);
-        if (x >= shoreX) {
+        if (x >= shoreX && y >= south && y <= north) {
+          // Came round the end of the land rather than across the shore: leaves the model area.
+          if (previousY < south || previousY > north) break days;
           x = shoreX - 0.05;
           write(day, true);
           break days;

@@ -11,7 +11,7 @@ import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { gzipSync } from 'node:zlib';
 import { writeNetcdf3 } from '../../generator/drift/netcdf3-writer.ts';
-import { coastX, ISLAND, islandPoint, onIsland, SEGMENT_PLANS, segmentsFeatureCollection, segmentLonLatLine, toLonLat, segmentLocalLine, localLength } from './coast.ts';
+import { coastX, COAST_NORTH_Y, COAST_SOUTH_Y, ISLAND, islandPoint, onIsland, SEGMENT_PLANS, segmentsFeatureCollection, segmentLonLatLine, toLonLat, segmentLocalLine, localLength } from './coast.ts';
 import { runSeason, type DriftSetup, type PositionRow } from './drift.ts';
 import { makeTables, toCsv, TABLE_HEADERS, SEGMENT_RECIPES, BAD_ROWS } from './monitoring.ts';
 import { makeDatapackage, makeSettings } from './package-files.ts';
@@ -27,6 +27,7 @@ export const NETCDF_PARTICLES = 150;
 
 export const DEMO_DRIFT_SETUP: DriftSetup = {
   coastX,
+  landRange: [COAST_SOUTH_Y, COAST_NORTH_Y],
   island: {
     contains: onIsland,
     shorePoint: (x, y) => {
@@ -46,7 +47,7 @@ export const DEMO_DRIFT_SETUP: DriftSetup = {
   wind: { winter: [3.2, -1.0], spring: [1.0, 1.5], summer: [-1.6, 0.6], autumn: [2.4, -1.6] },
   gyreSeasonFactor: { winter: 0.8, spring: 1.1, summer: 1.4, autumn: 1.0 },
   diffusionKm2PerDay: 0.8,
-  bounds: { xMin: -95, xMax: 20, yMin: -70, yMax: 62 },
+  bounds: { xMin: -120, xMax: 80, yMin: -140, yMax: 130 },
   offshoreBox: { xMin: -88, xMax: -6, yMin: -66, yMax: 58 },
   sources: [
     { name: 'Aldwen river mouth', x: coastX(-5) - 0.8, y: -5, share: 0.25, spreadKm: 0.4 },

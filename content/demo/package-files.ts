@@ -130,7 +130,7 @@ export const DEMO_RISK_RULES = [
     measure: 'assessment-median',
     op: '>=',
     value: 20,
-    text: 'The median beach litter, {value} items per 100 m, is at or above the European threshold value of {threshold} items per 100 m.',
+    text: 'The median beach litter over the last four seasons, {value} items per 100 m, is at or above {threshold}, the threshold value used in the European Union (a yardstick, not a legal limit).',
     source: 'Van Loon et al. 2020, JRC: EU threshold value for macro litter on coastlines (median vs 20 items/100 m)',
   },
   {
@@ -140,7 +140,7 @@ export const DEMO_RISK_RULES = [
     measure: 'assessment-median',
     op: '>=',
     value: 100,
-    text: 'The median beach litter, {value} items per 100 m, is at least five times the threshold value ({threshold} items per 100 m or more).',
+    text: 'The median beach litter over the last four seasons, {value} items per 100 m, is at or above {threshold}, five times that threshold value.',
     source: 'Demo setting: five times the threshold value of Van Loon et al. 2020',
   },
   {
@@ -150,7 +150,7 @@ export const DEMO_RISK_RULES = [
     measure: 'assessment-median',
     op: '>=',
     value: 233,
-    text: 'The median beach litter, {value} items per 100 m, is at or above the 2015–2016 north-east Atlantic baseline mean of {threshold} items per 100 m.',
+    text: 'The median beach litter over the last four seasons, {value} items per 100 m, is at or above {threshold}, the average found on north-east Atlantic beaches in 2015 and 2016.',
     source: 'Van Loon et al. 2020, JRC: baseline mean, north-east Atlantic',
   },
   {
@@ -158,9 +158,9 @@ export const DEMO_RISK_RULES = [
     level: 'noticeable',
     indicator: 'beach-litter',
     measure: 'clean-coast-index',
-    op: '>=',
+    op: '>',
     value: 5,
-    text: 'The Clean Coast Index, {value}, is in the "moderate" class or worse ({threshold} or more).',
+    text: 'The Clean Coast Index, {value}, is above {threshold}: the beach is no longer "clean" on that scale.',
     source: 'Alkalay, Pasternak & Zask 2007, Ocean Coast. Manage. 50:352–362 (classes)',
   },
   {
@@ -168,9 +168,9 @@ export const DEMO_RISK_RULES = [
     level: 'marked',
     indicator: 'beach-litter',
     measure: 'clean-coast-index',
-    op: '>=',
+    op: '>',
     value: 10,
-    text: 'The Clean Coast Index, {value}, is in the "dirty" class or worse ({threshold} or more).',
+    text: 'The Clean Coast Index, {value}, is above {threshold}: the beach counts as "dirty" on that scale.',
     source: 'Alkalay, Pasternak & Zask 2007, Ocean Coast. Manage. 50:352–362 (classes)',
   },
   {
@@ -180,7 +180,7 @@ export const DEMO_RISK_RULES = [
     measure: 'clean-coast-index',
     op: '>',
     value: 20,
-    text: 'The Clean Coast Index, {value}, is in the "extremely dirty" class (above {threshold}).',
+    text: 'The Clean Coast Index, {value}, is above {threshold}: the beach counts as "extremely dirty" on that scale.',
     source: 'Alkalay, Pasternak & Zask 2007, Ocean Coast. Manage. 50:352–362 (classes)',
   },
   {
@@ -190,7 +190,7 @@ export const DEMO_RISK_RULES = [
     measure: 'region-percentile',
     op: '>=',
     value: 75,
-    text: 'Modelled drift arrivals this season are in the top quarter of the region\'s segments (percentile {value}, at or above {threshold}).',
+    text: 'In the drift model, more modelled particles per km reached this place than {value}% of places on this coast (this level starts at {threshold}%). It shows where floating litter tends to go, not how much there is.',
     source: 'Demo setting',
   },
   {
@@ -200,7 +200,7 @@ export const DEMO_RISK_RULES = [
     measure: 'region-percentile',
     op: '>=',
     value: 90,
-    text: 'Modelled drift arrivals this season are in the top tenth of the region\'s segments (percentile {value}, at or above {threshold}).',
+    text: 'In the drift model, more modelled particles per km reached this place than {value}% of places on this coast (this level starts at {threshold}%). It shows where floating litter tends to go, not how much there is.',
     source: 'Demo setting',
   },
   {
@@ -210,7 +210,7 @@ export const DEMO_RISK_RULES = [
     measure: 'assessment-median',
     op: '>=',
     value: 1,
-    text: 'The median shellfish level, {value} particles per g, is at or above {threshold} particle per g, higher than most published studies report. There is no health-based limit.',
+    text: 'The median level in shellfish over the last four seasons, {value} particles per gram, is at or above {threshold}, more than most published studies find. This is not a safety limit: none exists.',
     source: 'Danopoulos et al. 2020, Environ. Health Perspect. 128(12):126002 (most studies below 1 particle/g)',
   },
   {
@@ -220,7 +220,7 @@ export const DEMO_RISK_RULES = [
     measure: 'probability-up',
     op: '>',
     value: 0.9,
-    text: 'A rise in beach litter is very likely or highly likely (probability {value}, above {threshold}).',
+    text: 'Beach litter is going up, and the chance of a rise is {value}.',
     source: 'Hirsch, Archfield & De Cicco 2015, Environ. Model. Softw. (likelihood of an upward trend)',
   },
   {
@@ -230,7 +230,7 @@ export const DEMO_RISK_RULES = [
     measure: 'probability-up',
     op: '>',
     value: 0.9,
-    text: 'A rise in microplastics in the water is very likely or highly likely (probability {value}, above {threshold}).',
+    text: 'Plastic in the sea water is going up, and the chance of a rise is {value}.',
     source: 'Hirsch, Archfield & De Cicco 2015, Environ. Model. Softw. (likelihood of an upward trend)',
   },
 ];

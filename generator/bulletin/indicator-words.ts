@@ -8,7 +8,7 @@ export const indicatorSubjects: { readonly [K in IndicatorId]: string } = {
   'beach-litter': 'Beach litter',
   'water-microplastics': 'Plastic in the sea water',
   'shellfish-tissue': 'Plastic in shellfish',
-  'wildlife-reports': 'The count of animals harmed by litter',
+  'wildlife-reports': 'The number of animals harmed by litter',
   'drift-arrivals': 'Modelled litter coming ashore',
 };
 

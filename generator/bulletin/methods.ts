@@ -20,4 +20,15 @@ export const likelihoodMethodSentence =
   'How sure we are of a rise or fall is the bootstrap chance of that direction, put into the words of Hirsch, Archfield and De Cicco (2015): highly unlikely, very unlikely, unlikely, about as likely as not, likely, very likely, highly likely.';
 
 export const roundingMethodSentence =
-  'A yearly rate of change and its range are rounded to the place of the first digit of the range width; other numbers are shown to two significant figures.';
+  'A yearly rate of change and its 95% confidence interval are rounded to the place of the first digit of the interval width; other numbers are shown to two significant figures.';
+
+/**
+ * How the bulletins word a confidence interval, kept apart from the likelihood words (one scheme,
+ * Hirsch et al. 2015, for the chance of a direction; the interval gets its statistical name).
+ */
+export const intervalMethodSentence =
+  'The range around a yearly rate is its 95% confidence interval (from Sen\'s slope, or the Seasonal Kendall slope where seasons differ), written as amounts such as "2 fewer to 7 more"; we keep the words likely and unlikely for the chance of a rise or fall alone.';
+
+/** Why a level and a trend can point different ways. */
+export const levelAndTrendMethodSentence =
+  'The level uses the median of the last four seasons, while a trend uses every year on record, so a level can go down while a long-term trend is still going up.';

@@ -72,16 +72,8 @@ export interface RoundedRate {
   text: { slope: string; lower: string | null; upper: string | null };
 }
 
-/**
- * Round a rate and its likely range by the width rule above. Without a range (or a zero-width
- * range) the rate is rounded to two significant figures.
- */
-export function roundRate(slope: number, lower: number | null, upper: number | null): RoundedRate {
-  let decimals: number;
-  const width = lower !== null && upper !== null ? upper - lower : null;
-  const widthPlace = width !== null ? leadingDigitPlace(width) : null;
-  if (widthPlace !== null) decimals = -widthPlace;
-  else decimals = decimalsForSignificant(slope, 2);
+/** Round a rate and its range to a fixed number of decimals (negative: tens, hundreds…). */
+export function roundRateAt(slope: number, lower: number | null, upper: number | null, decimals: number): RoundedRate {
   const shown = Math.max(0, decimals);
   const r = (x: number): number => roundToDecimals(x, decimals);
   const roundedSlope = r(slope);
@@ -98,4 +90,25 @@ export function roundRate(slope: number, lower: number | null, upper: number | n
       upper: roundedUpper === null ? null : formatNumber(roundedUpper, shown),
     },
   };
+}
+
+/**
+ * Round a rate and its likely range by the width rule above. Without a range (or a zero-width
+ * range) the rate is rounded to two significant figures.
+ */
+export function roundRate(slope: number, lower: number | null, upper: number | null): RoundedRate {
+  const width = lower !== null && upper !== null ? upper - lower : null;
+  const widthPlace = width !== null ? leadingDigitPlace(width) : null;
+  const decimals = widthPlace !== null ? -widthPlace : decimalsForSignificant(slope, 2);
+  return roundRateAt(slope, lower, upper, decimals);
+}
+
+/**
+ * Two significant figures for a sentence, without trailing zeros after the decimal point: the same
+ * rounded number as formatSignificant, written the way people say it (0.080 → "0.08",
+ * 3.0 → "3", 0.10 → "0.1"; 44 and 1,200 are unchanged).
+ */
+export function formatPlain(value: number, significant = 2): string {
+  const text = formatSignificant(value, significant);
+  return text.includes('.') ? text.replace(/\.?0+$/u, '') : text;
 }

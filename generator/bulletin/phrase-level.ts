@@ -1,13 +1,35 @@
 /**
- * Sentences about a segment's level: the headline, the level now and last season, why, and what
- * changed since last season. Pure: level results and names in, sentences out.
+ * Sentences about a segment's level: the headline, the level now and last season, why, why it
+ * changed, and what changed since last season. Pure: level results and names in, sentences out.
+ *
+ * The headline answers a reader's first two questions in one sentence: is plastic here going up
+ * or down (only the directions that pass the false-discovery check are named), and how bad is it
+ * now (the level, with its rank in words).
  */
 import type { Direction, LevelResult } from '../model/types.ts';
 import { levelWords } from '../risk/levels.ts';
-import { lowerFirst } from './indicator-words.ts';
+import { lowerFirst, upperFirst } from './indicator-words.ts';
+import { unitAfter } from './phrase-trend.ts';
 
-export function headline(segmentName: string, level: LevelResult, seasonLabel: string): string {
-  return `${segmentName}: plastic pollution is ${levelWords(level.id)} in ${lowerFirst(seasonLabel)}.`;
+export interface MovingMeasure {
+  subject: string;
+  direction: Direction;
+}
+
+/**
+ * "Beach litter is going up at Brenna Sands, where plastic pollution is Noticeable (level 2 of 4)
+ * in autumn 2026."
+ */
+export function headline(segmentName: string, level: LevelResult, seasonLabel: string, moving?: readonly MovingMeasure[]): string {
+  const season = lowerFirst(seasonLabel);
+  const where = `plastic pollution is ${levelWords(level.id)} in ${season}`;
+  if (moving === undefined) return `${segmentName}: ${where}.`;
+  if (moving.length === 0) return `No samples here yet show a rise or fall in plastic at ${segmentName}, where ${where}.`;
+  const trend = movingClause(moving);
+  if (trend) return `${upperFirst(trend)} at ${segmentName}, where ${where}.`;
+  const known = moving.some((m) => m.direction === 'no-clear-direction');
+  if (known) return `No clear rise or fall in plastic at ${segmentName}, where ${where}.`;
+  return `Too soon to tell if plastic is rising or falling at ${segmentName}, where ${where}.`;
 }
 
 export function levelNowSentence(level: LevelResult): string {
@@ -18,10 +40,25 @@ export function levelLastSeasonSentence(previous: LevelResult | null): string {
   return previous ? `Last season it was ${levelWords(previous.id)}.` : 'We have no level for last season.';
 }
 
+/** The level now and last season in one sentence (the summary's first sentence). */
+export function levelSummarySentence(level: LevelResult, previous: LevelResult | null): string {
+  const now = `The level this season is ${levelWords(level.id)}`;
+  if (!previous) return `${now}. We have no level for last season.`;
+  if (previous.rank === level.rank) return `${now}, the same as last season.`;
+  return `${now}, ${level.rank > previous.rank ? 'up' : 'down'} from ${levelWords(previous.id)} last season.`;
+}
+
+/** Lower-case the first letter of a rule text, unless it starts an acronym or a name ("EU", "Clean Coast Index"). */
+function ruleClause(text: string): string {
+  if (/^[A-Z]{2}/u.test(text)) return text;
+  if (/^The Clean Coast Index/u.test(text)) return `the${text.slice(3)}`;
+  return lowerFirst(text);
+}
+
 export function whySentence(level: LevelResult): string {
   const top = level.hits[0];
-  if (!top) return 'No rule for a higher level matched, so the level is the lowest.';
-  return `Why this level: ${top.text}`;
+  if (!top) return 'No rule for a higher level applies here, so the level is the lowest.';
+  return `Why this level: ${ruleClause(top.text)}`;
 }
 
 export function levelChangeSentence(level: LevelResult, previous: LevelResult | null): string | null {
@@ -31,6 +68,29 @@ export function levelChangeSentence(level: LevelResult, previous: LevelResult | 
   return `The level stayed at ${levelWords(level.id)}.`;
 }
 
+/**
+ * "The level went down from Marked (level 3 of 4) to Noticeable (level 2 of 4) because the median
+ * beach litter over the last four seasons fell to 92 items per 100 m of beach, below 100."
+ * `reason` is a clause naming the rule that started or stopped applying (see risk/explain-change.ts);
+ * without one the plain level-change sentence is returned.
+ */
+export function levelChangeWithReason(level: LevelResult, previous: LevelResult | null, reason: string | null): string | null {
+  const plain = levelChangeSentence(level, previous);
+  if (!plain || !previous || previous.rank === level.rank || !reason) return plain;
+  return `${plain.slice(0, -1)} because ${reason}.`;
+}
+
+/**
+ * Said when the level moved one way while a measure's long-term trend goes the other way, so a
+ * reader told both sees why they can differ.
+ */
+export function levelAndTrendSentence(level: LevelResult, previous: LevelResult | null, moving: readonly MovingMeasure[]): string | null {
+  if (!previous || previous.rank === level.rank) return null;
+  const against = level.rank < previous.rank ? 'rising' : 'falling';
+  if (!moving.some((m) => m.direction === against)) return null;
+  return 'The level looks at the last four seasons; the trend looks at all the years, so the two can differ.';
+}
+
 export const directionPhrases: { readonly [K in Direction]: string } = {
   rising: 'going up',
   falling: 'going down',
@@ -38,10 +98,40 @@ export const directionPhrases: { readonly [K in Direction]: string } = {
   'too-little-data': 'too little data',
 };
 
-/** "Beach litter: last season no clear direction; now going up." Null when nothing changed. */
+function pastDirection(subject: string, direction: Direction): string {
+  const lower = lowerFirst(subject);
+  switch (direction) {
+    case 'rising':
+      return `${lower} was going up`;
+    case 'falling':
+      return `${lower} was going down`;
+    case 'no-clear-direction':
+      return `we could not tell if ${lower} was going up or down`;
+    case 'too-little-data':
+      return `there was too little data to tell if ${lower} was changing`;
+  }
+}
+
+function presentDirection(direction: Direction): string {
+  switch (direction) {
+    case 'rising':
+      return 'it is going up';
+    case 'falling':
+      return 'it is going down';
+    case 'no-clear-direction':
+      return 'we cannot tell if it is going up or down';
+    case 'too-little-data':
+      return 'there is too little data to tell';
+  }
+}
+
+/**
+ * "Last season we could not tell if beach litter was going up or down; now it is going up."
+ * Null when nothing changed.
+ */
 export function directionChangeSentence(subject: string, now: Direction, before: Direction | null): string | null {
   if (before === null || before === now) return null;
-  return `${subject}: last season ${directionPhrases[before]}; now ${directionPhrases[now]}.`;
+  return `Last season ${pastDirection(subject, before)}; now ${presentDirection(now)}.`;
 }
 
 /** "Beach litter this season: 44 items per 100 m of beach, against 30 last season." */
@@ -52,19 +142,48 @@ export function seasonValueSentence(
   before: string | null,
 ): string | null {
   if (now === null) return null;
-  if (before === null) return `${subject} this season: ${now} ${unit}.`;
-  return `${subject} this season: ${now} ${unit}, against ${before} last season.`;
+  if (before === null) return `${subject} this season: ${now} ${unitAfter(now, unit)}.`;
+  return `${subject} this season: ${now} ${unitAfter(now, unit)}, against ${before} last season.`;
 }
 
-/** The main trend sentence of the summary, from the indicators that are going up or down. */
-export function mainTrendSentence(moving: { subject: string; direction: Direction }[]): string {
+/**
+ * For counts summed per season (animals reported): whole numbers, singular and plural, and "no"
+ * for zero. `what` is the plural noun phrase, "animals harmed by litter".
+ * "No animals harmed by litter were reported this season or last season."
+ * "1 animal harmed by litter was reported this season, against 3 last season."
+ */
+export function seasonCountSentence(what: string, now: number | null, before: number | null): string | null {
+  if (now === null) return null;
+  const singular = what.replace(/^(\S+?)s(?=\s|$)/u, '$1');
+  const count = (n: number): string => (n === 0 ? 'none' : String(n));
+  if (now === 0) {
+    if (before === 0) return `No ${what} were reported this season or last season.`;
+    if (before === null) return `No ${what} were reported this season.`;
+    return `No ${what} were reported this season, against ${count(before)} last season.`;
+  }
+  const subject = now === 1 ? `1 ${singular} was` : `${now} ${what} were`;
+  if (before === null) return `${subject} reported this season.`;
+  if (before === now) return `${subject} reported this season, the same as last season.`;
+  return `${subject} reported this season, against ${count(before)} last season.`;
+}
+
+function movingClause(moving: readonly MovingMeasure[], lowerAll = false): string | null {
   const up = moving.filter((m) => m.direction === 'rising').map((m) => m.subject);
   const down = moving.filter((m) => m.direction === 'falling').map((m) => m.subject);
   const parts: string[] = [];
-  if (up.length > 0) parts.push(`${listSubjects(up)} ${up.length === 1 ? 'is' : 'are'} going up`);
-  if (down.length > 0) parts.push(`${listSubjects(down, up.length > 0)} ${down.length === 1 ? 'is' : 'are'} going down`);
-  if (parts.length === 0) return 'No measure here is clearly going up or down.';
-  return `${parts.join(', and ')}.`;
+  if (up.length > 0) parts.push(`${listSubjects(up, lowerAll)} ${up.length === 1 ? 'is' : 'are'} going up`);
+  if (down.length > 0) parts.push(`${listSubjects(down, lowerAll || up.length > 0)} ${down.length === 1 ? 'is' : 'are'} going down`);
+  return parts.length === 0 ? null : parts.join(', and ');
+}
+
+/** The main trend sentence of the summary, from the indicators that are going up or down. */
+export function mainTrendSentence(moving: readonly MovingMeasure[]): string {
+  const clause = movingClause(moving);
+  if (clause) return `${clause}.`;
+  if (moving.length > 0 && moving.every((m) => m.direction === 'too-little-data')) {
+    return 'There are too few samples here yet to tell if any measure is going up or down.';
+  }
+  return 'No measure here is clearly going up or down.';
 }
 
 function listSubjects(subjects: readonly string[], lowerAll = false): string {

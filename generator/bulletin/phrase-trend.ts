@@ -4,18 +4,30 @@
  * Rules the wording keeps:
  * - A rise or fall is claimed only when the direction is "rising" or "falling", which the model
  *   sets only when the Benjamini–Hochberg q-value across the region's segments is below the
- *   false-discovery rate. Otherwise the words say the direction is uncertain.
- * - How sure we are uses one scheme: the Hirsch, Archfield & De Cicco (2015) bands applied to the
- *   probability of the direction claimed (P(up) for a rise, 1 − P(up) for a fall); see likelihood.ts.
- * - Sen's slope and its range are rounded by the width rule of numbers.ts; a claimed rise or fall is
- *   never printed as a change of 0: one more digit is shown until it is not 0 (up to three more).
- * - Seasons that disagree: the van Belle & Hughes (1984) heterogeneity test at p < 1 − confidence.
+ *   false-discovery rate. Otherwise the words say the direction is uncertain. Claimed rates start
+ *   "That is about …"; uncertain ones start "Our best guess is …".
+ * - How sure we are of a direction uses one scheme only: the Hirsch, Archfield & De Cicco (2015)
+ *   bands applied to the probability of the direction claimed (P(up) for a rise, 1 − P(up) for a
+ *   fall); see likelihood.ts. Those seven words (highly unlikely … highly likely) are kept for that
+ *   probability alone.
+ * - The range around Sen's slope is called by its statistical name, "the 95% confidence interval",
+ *   and told as plain amounts in words ("runs from 2 fewer to 7 more"). It never borrows a
+ *   likelihood word ("likely between 3 and 8" would read as the Hirsch "likely", 66–90%, which a
+ *   95% interval is not), and signed numbers are never printed: negative amounts are "fewer".
+ * - Sen's slope and its interval are rounded by the width rule of numbers.ts; a claimed rise or fall
+ *   is never printed as a change of 0: one more digit is shown until it is not 0 (up to three more).
+ * - A unit after the number 1 is singular ("1 fewer item per 100 m").
+ * - "Too little data" names the reason in everyday words (how many samples there are and how many
+ *   the scenario's minimum-data rule needs, or that most samples were below what the lab can
+ *   measure).
+ * - Seasons that disagree: the van Belle & Hughes (1984) heterogeneity test at p < 1 − confidence,
+ *   told as which seasons went up and which went down.
  */
 import type { Direction } from '../model/types.ts';
 import type { TrendResult } from '../stats/types.ts';
-import { lowerFirst } from './indicator-words.ts';
+import { lowerFirst, upperFirst } from './indicator-words.ts';
 import { likelihoodWord } from './likelihood.ts';
-import { formatNumber, roundRate, roundToDecimals, type RoundedRate } from './numbers.ts';
+import { formatNumber, roundRate, roundRateAt, type RoundedRate } from './numbers.ts';
 
 export interface TrendPhraseInput {
   /** Singular subject, "Beach litter". */
@@ -32,8 +44,11 @@ export interface TrendPhraseInput {
   segmentsTested: number;
   /** Season name → label, "winter" → "Winter". */
   seasonLabels: { [name: string]: string };
-  /** Samples behind the trend and the years they span; null when there are none. */
-  samples: { count: number; firstYear: number; lastYear: number } | null;
+  /** Samples (or seasons, for counts summed per season) behind the trend and the years they span. */
+  samples: { count: number; firstYear: number; lastYear: number; noun?: 'samples' | 'seasons' } | null;
+  /** The scenario's minimum-data rule (settings.trend), used to explain "too little data". */
+  minValues?: number;
+  minYears?: number;
 }
 
 /** The rounded rate a sentence prints, or null when none is printed. Exported for tests. */
@@ -49,24 +64,6 @@ export function printedRate(input: TrendPhraseInput): RoundedRate | null {
   return rate;
 }
 
-function roundRateAt(slope: number, lower: number | null, upper: number | null, decimals: number): RoundedRate {
-  const r = (x: number): number => roundToDecimals(x, decimals);
-  const s = r(slope);
-  const lo = lower === null ? null : r(lower);
-  const hi = upper === null ? null : r(upper);
-  return {
-    slope: s,
-    lower: lo,
-    upper: hi,
-    decimals,
-    text: {
-      slope: formatNumber(s, decimals),
-      lower: lo === null ? null : formatNumber(lo, decimals),
-      upper: hi === null ? null : formatNumber(hi, decimals),
-    },
-  };
-}
-
 /** Slope and range: Seasonal Kendall when it ran, else Sen's slope. */
 export function slopeOf(trend: TrendResult | null): { slope: number | null; lower: number | null; upper: number | null } | null {
   if (!trend) return null;
@@ -77,9 +74,12 @@ export function slopeOf(trend: TrendResult | null): { slope: number | null; lowe
   return null;
 }
 
-/** "94 in 100" */
+/** "94 in 100"; never "100 in 100" or "0 in 100", which would claim certainty. */
 export function chanceWords(probability: number): string {
-  return `${formatNumber(Math.round(probability * 100), 0)} in 100`;
+  const rounded = Math.round(probability * 100);
+  if (rounded >= 100) return 'more than 99 in 100';
+  if (rounded <= 0) return 'less than 1 in 100';
+  return `${formatNumber(rounded, 0)} in 100`;
 }
 
 function percent(confidence: number): string {
@@ -89,6 +89,82 @@ function percent(confidence: number): string {
 function endSentence(text: string): string {
   const trimmed = text.trim();
   return /[.!?]$/.test(trimmed) ? trimmed : `${trimmed}.`;
+}
+
+/**
+ * A unit after a printed number: "1 item per 100 m", "2 items per 100 m". Only the first word of
+ * the unit changes, and only when the number printed is exactly "1".
+ */
+export function unitAfter(printed: string, unit: string): string {
+  if (printed !== '1') return unit;
+  return unit.replace(/^(\p{L}+?)s(?=[\s/]|$)/u, '$1');
+}
+
+/** "3 more", "2 fewer", "no change": a signed rounded amount in words (sizes are never signed). */
+export function amountWords(value: number, decimals: number): string {
+  if (value === 0) return 'no change';
+  return `${formatNumber(Math.abs(value), decimals)} ${value > 0 ? 'more' : 'fewer'}`;
+}
+
+/** The printed number of an amount, or null for "no change". */
+function amountNumber(value: number, decimals: number): string | null {
+  return value === 0 ? null : formatNumber(Math.abs(value), decimals);
+}
+
+/**
+ * A confidence interval in words, from its rounded ends: "2 to 10 more", "0.4 to 1.2 fewer",
+ * "2 fewer to 7 more", "no change to 0.5 more". Never with a likelihood word (see the header).
+ */
+export function intervalWords(lower: number, upper: number, decimals: number): string {
+  const size = (x: number): string => formatNumber(Math.abs(x), decimals);
+  if (lower > 0) return `${size(lower)} to ${size(upper)} more`;
+  if (upper < 0) return `${size(upper)} to ${size(lower)} fewer`;
+  if (lower === 0 && upper === 0) return 'no change';
+  return `${amountWords(lower, decimals)} to ${amountWords(upper, decimals)}`;
+}
+
+/** The number printed last in interval words (for singular/plural of the unit after it). */
+function lastIntervalNumber(lower: number, upper: number, decimals: number): string | null {
+  if (upper < 0) return amountNumber(lower, decimals);
+  return amountNumber(upper, decimals);
+}
+
+/**
+ * Plain words for a "too little data" reason, keyed by the rule that failed. The trend test reads
+ * one value per season (the median of its samples, or the season's total for counts), so the
+ * counts here are seasons.
+ */
+export function insufficientReason(input: TrendPhraseInput): string {
+  const trend = input.trend;
+  const rule = trend?.insufficient?.rule ?? '';
+  const counted = input.samples?.noun === 'seasons';
+  const have = trend ? trend.n : 0;
+  const seasonsHave = counted
+    ? `only ${formatNumber(have, 0)} ${have === 1 ? 'season has' : 'seasons have'} been counted so far`
+    : `only ${formatNumber(have, 0)} ${have === 1 ? 'season has' : 'seasons have'} samples so far`;
+  switch (rule) {
+    case 'few-values':
+    case 'min-values':
+    case 'n': {
+      const need = input.minValues;
+      return need !== undefined && have < need ? `${seasonsHave}, and we need at least ${formatNumber(need, 0)}` : seasonsHave;
+    }
+    case 'short-span':
+    case 'min-years':
+      return input.minYears !== undefined
+        ? `the ${counted ? 'counts' : 'samples'} so far cover less than ${formatNumber(input.minYears, 0)} years, and we need at least ${formatNumber(input.minYears, 0)}`
+        : `the ${counted ? 'counts' : 'samples'} so far cover too few years`;
+    case 'mostly-censored':
+      return trend && trend.nCensored > 0
+        ? `in ${formatNumber(trend.nCensored, 0)} of ${formatNumber(trend.n, 0)} seasons, the plastic was too little for the lab to measure`
+        : 'in most seasons, the plastic was too little for the lab to measure';
+    case 'no-change':
+      return 'every value so far is the same';
+    case 'few-seasons':
+      return 'no two seasons of the year have enough samples each';
+    default:
+      return lowerFirst(trend?.insufficient?.reason ?? 'there are not enough samples');
+  }
 }
 
 export function directionSentences(input: TrendPhraseInput): string[] {
@@ -110,9 +186,19 @@ export function directionSentences(input: TrendPhraseInput): string[] {
       const sentences = [`We cannot tell if ${lower} is going up or down.`];
       const p = input.trend?.seasonalKendall?.p ?? input.trend?.mannKendall?.p ?? null;
       const alone = p !== null && p < input.falseDiscoveryRate;
-      if (alone && input.segmentsTested > 1) {
+      const passed = input.qValue !== null && input.qValue < input.falseDiscoveryRate;
+      if (passed) {
+        // The test passed the false-discovery check, but the slope is zero or points the other way
+        // (see generator/model/direction.ts), so no direction is claimed.
+        const slope = slopeOf(input.trend)?.slope ?? null;
         sentences.push(
-          `On its own this place seems to change. But we test ${formatNumber(input.segmentsTested, 0)} places at once, and a change this size could be chance.`,
+          slope === 0
+            ? 'The values hint at a change, but our best estimate of the yearly change is zero, so we do not call it a rise or a fall.'
+            : 'The values hint at a change, but our estimates do not agree on its direction, so we do not call it a rise or a fall.',
+        );
+      } else if (alone && input.segmentsTested > 1) {
+        sentences.push(
+          `On its own this place seems to show a change. But we test ${formatNumber(input.segmentsTested, 0)} places at once, and a change this size could be chance.`,
         );
       } else {
         sentences.push('The change we see could be chance.');
@@ -121,8 +207,7 @@ export function directionSentences(input: TrendPhraseInput): string[] {
     }
     case 'too-little-data': {
       if (!input.trend || input.trend.n === 0) return [`There are no samples of ${lower} here yet, so we cannot say.`];
-      const reason = input.trend.insufficient?.reason ?? 'not enough values';
-      return [`Too little data to say if ${lower} is changing: ${endSentence(lowerFirst(reason))}`];
+      return [`Too little data to say if ${lower} is changing.`, endSentence(upperFirst(insufficientReason(input)))];
     }
   }
 }
@@ -134,31 +219,51 @@ export function rateSentences(input: TrendPhraseInput): string[] {
     if (input.trend?.sen?.notEstimable) return ['So we give no yearly rate of change.'];
     return [];
   }
-  const range =
-    rate.text.lower !== null && rate.text.upper !== null ? ` The ${percent(input.confidence)} range is ${rate.text.lower} to ${rate.text.upper}.` : '';
+  const ci = `The ${percent(input.confidence)} confidence interval`;
+  const d = rate.decimals;
+  const slopeNumber = amountNumber(rate.slope, d);
+  const slopeUnit = unitAfter(slopeNumber ?? '', input.unit);
+  const hasInterval = rate.lower !== null && rate.upper !== null;
   if (input.direction === 'rising' || input.direction === 'falling') {
-    const size = formatNumber(Math.abs(rate.slope), rate.decimals);
-    const more = input.direction === 'rising' ? 'more' : 'fewer';
-    let claimedRange = range;
-    if (input.direction === 'falling' && rate.lower !== null && rate.upper !== null) {
-      // A fall is told as "fewer", so its range is told as sizes of the fall: −10 to −2 → 2 to 10.
-      claimedRange = ` The ${percent(input.confidence)} range is ${formatNumber(-rate.upper, rate.decimals)} to ${formatNumber(-rate.lower, rate.decimals)} ${more}.`;
-    }
-    return [`That is about ${size} ${more} ${input.unit} each year.${claimedRange}`];
+    const sentences = [`That is about ${amountWords(rate.slope, d)} ${slopeUnit} each year.`];
+    if (rate.lower !== null && rate.upper !== null) sentences.push(`${ci} runs from ${intervalWords(rate.lower, rate.upper, d)}.`);
+    return sentences;
   }
-  const signed = rate.slope > 0 ? `+${rate.text.slope}` : rate.text.slope;
-  const includesZero = rate.lower !== null && rate.upper !== null && rate.lower <= 0 && rate.upper >= 0;
-  const tail = includesZero ? ' That range takes in no change at all.' : '';
-  return [`Our best guess is a change of ${signed} ${input.unit} a year.${range}${tail}`];
+  if (rate.lower !== null && rate.upper !== null && rate.slope === 0 && rate.lower === 0 && rate.upper === 0) {
+    return [
+      input.samples?.noun === 'seasons'
+        ? 'Most seasons had the same count, so we cannot give a yearly rate of change.'
+        : 'Most values are the same, so we cannot give a yearly rate of change.',
+    ];
+  }
+  if (rate.slope === 0) {
+    if (rate.lower === null || rate.upper === null) return ['Our best guess is close to no change.'];
+    const last = lastIntervalNumber(rate.lower, rate.upper, d);
+    return [
+      'Our best guess is close to no change.',
+      `${ci} runs from ${intervalWords(rate.lower, rate.upper, d)} ${unitAfter(last ?? '', input.unit)} each year.`,
+    ];
+  }
+  const sentences = [`Our best guess is about ${amountWords(rate.slope, d)} ${slopeUnit} each year.`];
+  if (hasInterval && rate.lower !== null && rate.upper !== null) {
+    const spansZero = rate.lower <= 0 && rate.upper >= 0;
+    sentences.push(
+      spansZero
+        ? `But ${lowerFirst(ci)} runs from ${intervalWords(rate.lower, rate.upper, d)}, so there may be no change at all.`
+        : `${ci} runs from ${intervalWords(rate.lower, rate.upper, d)}.`,
+    );
+  }
+  return sentences;
 }
 
 export function censoredSentences(input: TrendPhraseInput): string[] {
   const trend = input.trend;
   if (!trend || trend.nCensored === 0) return [];
-  const sentences = [
-    `${formatNumber(trend.nCensored, 0)} of ${formatNumber(trend.n, 0)} values were too low for the lab to measure.`,
+  // Already said in the reason when most values are too low to measure.
+  if (input.direction === 'too-little-data' && trend.insufficient?.rule === 'mostly-censored') return [];
+  return [
+    `In ${formatNumber(trend.nCensored, 0)} of ${formatNumber(trend.n, 0)} seasons, the plastic was too little for the lab to measure.`,
   ];
-  return sentences;
 }
 
 export function disagreementSentences(input: TrendPhraseInput): string[] {
@@ -177,7 +282,8 @@ export function samplesSentence(input: TrendPhraseInput): string[] {
   const s = input.samples;
   if (!s || s.count === 0) return [];
   const span = s.firstYear === s.lastYear ? `in ${s.firstYear}` : `from ${s.firstYear} to ${s.lastYear}`;
-  return [`This rests on ${formatNumber(s.count, 0)} ${s.count === 1 ? 'sample' : 'samples'} ${span}.`];
+  const noun = s.noun === 'seasons' ? (s.count === 1 ? 'season' : 'seasons') : s.count === 1 ? 'sample' : 'samples';
+  return [`This rests on ${formatNumber(s.count, 0)} ${noun} ${span}.`];
 }
 
 /** Whether `seasonsDisagree` holds for a trend (same test as disagreementSentences). */
@@ -200,4 +306,13 @@ export function phraseTrend(input: TrendPhraseInput): string[] {
     ...disagreementSentences(input),
     ...samplesSentence(input),
   ];
+}
+
+/**
+ * For counts summed per season (wildlife reports) when every season counted 0: say so instead of
+ * "too little data". `what` is the plural noun phrase, e.g. "animals harmed by litter".
+ */
+export function noneReportedSentences(what: string, firstYear: number, lastYear: number): string[] {
+  const span = firstYear === lastYear ? `in ${firstYear}` : `from ${firstYear} to ${lastYear}`;
+  return [`No ${what} were reported here ${span}, so there is no trend to tell.`];
 }

@@ -3,7 +3,8 @@
  * visitors, and reporters. Pure: numbers and sentences in, sections out.
  */
 import type { Contact, SeasonRef, ShellfishUse } from '../model/types.ts';
-import { formatNumber, formatSignificant } from './numbers.ts';
+import { formatNumber, formatPlain } from './numbers.ts';
+import { unitAfter } from './phrase-trend.ts';
 
 export interface GrowersInput {
   shellfish: ShellfishUse;
@@ -23,10 +24,10 @@ export function growersSection(input: GrowersInput): { title: string; sentences:
   const sentences: string[] = [];
   const tissue = input.tissue;
   if (tissue && tissue.seasonValue !== null) {
-    sentences.push(`Shellfish samples this season held a median of ${formatSignificant(tissue.seasonValue)} ${tissue.unit}.`);
+    sentences.push(`Shellfish samples this season held a median of ${formatPlain(tissue.seasonValue)} ${unitAfter(formatPlain(tissue.seasonValue), tissue.unit)}.`);
   } else if (tissue && tissue.assessmentValue !== null) {
     sentences.push(
-      `No shellfish were tested this season. Over the last four seasons the median was ${formatSignificant(tissue.assessmentValue)} ${tissue.unit}.`,
+      `No shellfish were tested this season. Over the last four seasons the median was ${formatPlain(tissue.assessmentValue)} ${unitAfter(formatPlain(tissue.assessmentValue), tissue.unit)}.`,
     );
   } else {
     sentences.push('No shellfish from here have been tested for plastic yet.');
@@ -34,7 +35,7 @@ export function growersSection(input: GrowersInput): { title: string; sentences:
   if (tissue) sentences.push(...tissue.trendSentences);
   if (input.nearestZone) {
     sentences.push(
-      `The nearest spot offshore where the drift model shows litter gathering is ${zoneName(input.nearestZone.id)}, about ${formatSignificant(input.nearestZone.distanceKm)} km away.`,
+      `The nearest spot offshore where the drift model shows litter gathering is ${zoneName(input.nearestZone.id)}, about ${formatPlain(input.nearestZone.distanceKm)} km away.`,
     );
   } else if (input.driftAvailable) {
     sentences.push('The drift model shows no spot offshore near here where litter gathers.');
@@ -53,26 +54,42 @@ export interface VisitorsInput {
   drift: { arrivalsPerKm: number } | null;
 }
 
+/**
+ * The comparison with the threshold value used in the European Union for coastline macro litter
+ * (20 items per 100 m; Van Loon et al. 2020). It is a benchmark, not a legal limit, and applies to
+ * EU coasts: the words say so. Compared on the printed (rounded) value, so the words agree with
+ * the number the reader sees.
+ */
+export function thresholdSentence(seasonValue: number, threshold: number): string {
+  const shown = Number(formatPlain(seasonValue).replace(/,/g, ''));
+  const benchmark = `the threshold value used in the European Union (${formatPlain(threshold)} items per 100 m)`;
+  const where = shown > threshold ? `above ${benchmark}` : shown === threshold ? `the same as ${benchmark}` : `below ${benchmark}`;
+  return `That is ${where}. It is a yardstick for judging beaches, not a legal limit.`;
+}
+
+/**
+ * Modelled arrivals are particles of a drift model, not counted litter: the sentence says so and
+ * says what they are good for.
+ */
+export function driftSentences(arrivalsPerKm: number): string[] {
+  const amount =
+    arrivalsPerKm === 0
+      ? 'no modelled particles reached this stretch this season'
+      : `about ${formatPlain(arrivalsPerKm)} modelled ${formatPlain(arrivalsPerKm) === '1' ? 'particle' : 'particles'} per km of shore reached this stretch this season`;
+  return [`In the drift model, ${amount}.`, 'This shows where floating litter tends to go, not how much there is.'];
+}
+
 export function visitorsSection(input: VisitorsInput): { title: string; sentences: string[] } {
   const sentences: string[] = [];
   const litter = input.litter;
   if (litter && litter.seasonValue !== null) {
-    sentences.push(`Beach surveys this season found a median of ${formatSignificant(litter.seasonValue)} ${litter.unit}.`);
-    if (litter.threshold) {
-      const limit = formatSignificant(litter.threshold.value);
-      sentences.push(
-        litter.seasonValue >= litter.threshold.value
-          ? `That is at or above the EU limit of ${limit}.`
-          : `That is below the EU limit of ${limit}.`,
-      );
-    }
+    sentences.push(`Beach surveys this season found a median of ${formatPlain(litter.seasonValue)} ${unitAfter(formatPlain(litter.seasonValue), litter.unit)}.`);
+    if (litter.threshold) sentences.push(thresholdSentence(litter.seasonValue, litter.threshold.value));
   } else {
     sentences.push('There was no beach survey here this season.');
   }
   if (litter) sentences.push(...litter.trendSentences);
-  if (input.drift) {
-    sentences.push(`The drift model brought about ${formatSignificant(input.drift.arrivalsPerKm)} bits of litter ashore per km this season.`);
-  }
+  if (input.drift) sentences.push(...driftSentences(input.drift.arrivalsPerKm));
   sentences.push('If you pick up litter, follow the safety steps below.');
   return { title: 'For visitors', sentences };
 }
@@ -100,9 +117,11 @@ export function reportersSection(input: ReportersInput): {
     keyNumbers: input.keyNumbers,
     citation: citation(input),
     links: [
-      { label: 'Data behind this bulletin', href: `${input.permalink}data/` },
-      { label: 'How we work it out', href: '/methods/' },
-      { label: 'All bulletins for this season', href: `/seasons/${input.season.id}/` },
+      { label: 'Observations (CSV)', href: `${input.permalink}observations.csv` },
+      { label: 'Trend results (CSV)', href: `${input.permalink}results.csv` },
+      { label: 'This bulletin as data (JSON)', href: `${input.permalink}bulletin.json` },
+      { label: 'How the numbers are worked out', href: '/methods/' },
+      { label: 'All places this season', href: `/seasons/${input.season.id}/` },
     ],
   };
 }

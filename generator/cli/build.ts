@@ -51,6 +51,11 @@ export function formatReport(report: ValidationReport, limit = 20): string {
     const where = [item.file, item.row === null ? null : `row ${item.row}`, item.column === null ? null : `column ${item.column}`]
       .filter((part) => part !== null)
       .join(', ');
+    // Reader messages usually start with their own place ("file row 3, column x: …"); keep them whole.
+    if (item.message.startsWith(item.file)) {
+      lines.push(`  - ${item.message} (expected ${item.expected})`);
+      continue;
+    }
     const value = item.value === null ? '' : ` value ${JSON.stringify(item.value)};`;
     lines.push(`  - ${where}:${value} ${item.message} (expected ${item.expected})`);
   }

@@ -245,7 +245,7 @@ export function decodeTrajectories(dataset: NetcdfDataset, file: string, log: Is
     const row = k + 1;
     const reject = (column: string, value: string, expected: string): void => {
       log.add(NetcdfValueInvalid, NetcdfValueInvalid.message(file, row, trajectory, observation, column, value, expected), {
-        file, row, column, value, expected, severity: 'error', excluded: true,
+        file, row, column, value, expected, severity: 'warning', excluded: true,
       });
       counts.excluded++;
     };

@@ -11,6 +11,7 @@
 import type { SeasonDefinition } from '../scenario/settings.ts';
 import type { Segment } from '../scenario/types.ts';
 import { seasonOfTime, seasonRange } from '../read/season-calendar.ts';
+import { ParticleTable } from './particle-table.ts';
 import { SegmentIndex } from './segment-index.ts';
 
 interface SeasonTally {
@@ -18,7 +19,7 @@ interface SeasonTally {
   /** Distinct arriving particles per segment. */
   arrivals: Int32Array;
   /** particle → slot in the last-position arrays. */
-  slots: Map<number, number>;
+  slots: ParticleTable;
   lastTime: number[];
   lastLon: number[];
   lastLat: number[];
@@ -46,29 +47,39 @@ export class DriftTally {
   outsideSeasons = 0;
 
   constructor(readonly segments: readonly Segment[], seasons: readonly SeasonDefinition[], arrivalDistanceKm: number) {
-    this.index = new SegmentIndex(segments);
+    this.index = new SegmentIndex(segments, arrivalDistanceKm);
     this.seasons = seasons;
     this.arrivalKm = arrivalDistanceKm;
   }
 
+  private lastDay = Number.NaN;
+  private lastSeason: string | null = null;
+
   private seasonOf(timeMs: number): string | null {
     const day = Math.floor(timeMs / dayMs);
+    if (day === this.lastDay) return this.lastSeason;
     let season = this.dayCache.get(day);
     if (season === undefined) {
       season = seasonOfTime(day * dayMs, this.seasons)?.id ?? null;
       if (this.dayCache.size > 100_000) this.dayCache.clear();
       this.dayCache.set(day, season);
     }
+    this.lastDay = day;
+    this.lastSeason = season;
     return season;
   }
 
+  private lastTally: SeasonTally | null = null;
+
   private tallyFor(season: string): SeasonTally {
+    if (this.lastTally !== null && this.lastTally.id === season) return this.lastTally;
     let tally = this.tallies.get(season);
     if (!tally) {
-      tally = { id: season, arrivals: new Int32Array(this.segments.length), slots: new Map(), lastTime: [], lastLon: [], lastLat: [], lastAshore: [] };
+      tally = { id: season, arrivals: new Int32Array(this.segments.length), slots: new ParticleTable(), lastTime: [], lastLon: [], lastLat: [], lastAshore: [] };
       this.tallies.set(season, tally);
       this.arrived.set(season, new Set());
     }
+    this.lastTally = tally;
     return tally;
   }
 
@@ -91,7 +102,7 @@ export class DriftTally {
       }
     }
     const slot = tally.slots.get(particle);
-    if (slot === undefined) {
+    if (Number.isNaN(slot)) {
       tally.slots.set(particle, tally.lastTime.length);
       tally.lastTime.push(timeMs);
       tally.lastLon.push(lon);

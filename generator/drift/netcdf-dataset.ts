@@ -62,6 +62,15 @@ export function openNetcdf3(bytes: Uint8Array, file: string): NetcdfDataset {
     if (end > needed) needed = end;
   }
   if (needed > bytes.length) throw unreadable(file, `the file has ${bytes.length} bytes but its header describes ${needed}`);
+  // Each variable's shape must fit the bytes its header reserves (a damaged header can claim anything).
+  const typeBytes: { [type: string]: number } = { byte: 1, char: 1, short: 2, int: 4, float: 4, double: 8 };
+  for (const variable of header.variables ?? []) {
+    const perSlab = variable.dimensions.reduce((n, id, i) => (variable.record && i === 0 ? n : n * (dims[id]?.size ?? 0)), 1);
+    const bytesPerValue = typeBytes[variable.type];
+    if (bytesPerValue === undefined || perSlab * bytesPerValue > variable.size || variable.dimensions.some((id) => dims[id] === undefined)) {
+      throw unreadable(file, `the header of variable ${variable.name} is inconsistent (type ${variable.type}, ${perSlab} values in ${variable.size} bytes)`);
+    }
+  }
   const attributes: { [name: string]: AttributeValue } = {};
   for (const a of header.globalAttributes ?? []) attributes[a.name] = a.value as AttributeValue;
   const dimensions: { [name: string]: number } = {};

@@ -28,6 +28,7 @@ import {
   ValueWrongType,
 } from '../errors.ts';
 import type { IssueLog } from '../read/issue-log.ts';
+import { ParticleTable } from './particle-table.ts';
 
 export const positionStatuses = ['drifting', 'ashore'] as const;
 
@@ -47,11 +48,80 @@ export interface PositionsCsvOptions {
   log: IssueLog;
   onProgress?: (bytesRead: number, bytesTotal: number) => void;
   /** Receives each good position; returns false when the position was not used (counted as excluded). */
-  onPosition: (position: Position) => boolean;
+  onPosition: (particle: number, timeMs: number, lon: number, lat: number, ashore: boolean) => boolean;
 }
 
 const dateTimePattern = /^(\d{4})-(\d{2})-(\d{2})(?:[T ](\d{2}):(\d{2})(?::(\d{2})(\.\d+)?)?)?(Z|[+-]\d{2}:?\d{2})?$/;
 const numberPattern = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
+
+/** A whole number ≥ 0 written with digits only, or −1. */
+export function wholeNumber(text: string): number {
+  if (text.length === 0 || text.length > 15) return -1;
+  let value = 0;
+  for (let i = 0; i < text.length; i++) {
+    const c = text.charCodeAt(i) - 48;
+    if (c < 0 || c > 9) return -1;
+    value = value * 10 + c;
+  }
+  return value;
+}
+
+/** A decimal number (optional sign, digits, point, exponent), or NaN for anything else. */
+export function plainNumber(text: string): number {
+  const n = text.length;
+  if (n === 0) return Number.NaN;
+  let digits = 0;
+  for (let i = 0; i < n; i++) {
+    const c = text.charCodeAt(i);
+    if (c >= 48 && c <= 57) digits++;
+    else if (c !== 46 && c !== 45 && c !== 43 && c !== 101 && c !== 69) return Number.NaN; // . - + e E
+  }
+  if (digits === 0 || !numberPattern.test(text)) return Number.NaN;
+  return Number(text);
+}
+
+const powersOfTen = Array.from({ length: 23 }, (_, k) => 10 ** k);
+
+/**
+ * Reads a decimal number written as [sign] digits [. digits] [e [sign] digits] from text[start, end),
+ * or NaN when the text is anything else. With at most 15 significant digits and no exponent the
+ * value is mantissa / 10^k, which IEEE division rounds exactly as Number() would (both operands are
+ * exact doubles; Clinger 1990, "How to read floating point numbers accurately", fast path); other
+ * forms go through Number().
+ */
+export function scanDecimal(text: string, start: number, end: number): number {
+  let i = start;
+  let negative = false;
+  const first = text.charCodeAt(i);
+  if (first === 45 || first === 43) {
+    negative = first === 45;
+    i++;
+  }
+  let mantissa = 0;
+  let digits = 0;
+  let fraction = 0;
+  let seenPoint = false;
+  for (; i < end; i++) {
+    const c = text.charCodeAt(i);
+    if (c >= 48 && c <= 57) {
+      mantissa = mantissa * 10 + (c - 48);
+      digits++;
+      if (seenPoint) fraction++;
+    } else if (c === 46 && !seenPoint) {
+      seenPoint = true;
+    } else if (c === 101 || c === 69) {
+      if (digits === 0) return Number.NaN;
+      const value = plainNumber(text.slice(start, end));
+      return value;
+    } else {
+      return Number.NaN;
+    }
+  }
+  if (digits === 0) return Number.NaN;
+  if (digits > 15 || fraction > 22) return Number(text.slice(start, end));
+  const value = fraction === 0 ? mantissa : mantissa / (powersOfTen[fraction] ?? 1);
+  return negative ? -value : value;
+}
 
 /** Milliseconds since 1970 of an ISO 8601 date or date-time (UTC when no offset), or NaN. */
 export function parseDateTime(text: string): number {
@@ -110,10 +180,10 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
   let rest = '';
   let sawBom = false;
   const timeCache = new Map<string, number>();
-  const lastTime = new Map<number, number>();
+  const lastTime = new ParticleTable();
 
   const reject = (line: number, column: string | null, value: string | null, entry: Parameters<IssueLog['add']>[0], message: string, expected: string): void => {
-    log.add(entry, message, { file, row: line, column, value, expected, severity: 'error', excluded: true });
+    log.add(entry, message, { file, row: line, column, value, expected, severity: 'warning', excluded: true });
     counts.excluded++;
   };
 
@@ -148,14 +218,13 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
     const timeText = cells[col.time] ?? '';
     const lonText = cells[col.lon] ?? '';
     const latText = cells[col.lat] ?? '';
-    for (const [name, text] of [['particle', particleText], ['time', timeText], ['lon', lonText], ['lat', latText]] as const) {
-      if (text === '') {
-        reject(line, name, text, ValueMissing, ValueMissing.message(file, line, name), 'a value');
-        return;
-      }
+    if (particleText === '' || timeText === '' || lonText === '' || latText === '') {
+      const name = particleText === '' ? 'particle' : timeText === '' ? 'time' : lonText === '' ? 'lon' : 'lat';
+      reject(line, name, '', ValueMissing, ValueMissing.message(file, line, name), 'a value');
+      return;
     }
-    const particle = Number(particleText);
-    if (!/^\d+$/.test(particleText) || !Number.isSafeInteger(particle)) {
+    const particle = wholeNumber(particleText);
+    if (particle < 0) {
       reject(line, 'particle', particleText, ValueWrongType, ValueWrongType.message(file, line, 'particle', particleText, 'a whole number ≥ 0'), 'a whole number ≥ 0');
       return;
     }
@@ -169,18 +238,15 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
       reject(line, 'time', timeText, ValueWrongType, ValueWrongType.message(file, line, 'time', timeText, 'an ISO 8601 date-time such as 2026-09-01T00:00:00Z'), 'an ISO 8601 date-time');
       return;
     }
-    for (const [name, text, limit] of [['lon', lonText, 180], ['lat', latText, 90]] as const) {
-      const value = Number(text);
-      if (!numberPattern.test(text)) {
-        const entry = /^[+-]?(nan|inf|infinity)$/i.test(text) ? ValueNotFinite : ValueWrongType;
-        const message = entry === ValueNotFinite ? ValueNotFinite.message(file, line, name, text) : ValueWrongType.message(file, line, name, text, `a number −${limit}..${limit}`);
-        reject(line, name, text, entry, message, `a number −${limit}..${limit}`);
-        return;
-      }
-      if (value < -limit || value > limit) {
-        reject(line, name, text, ValueWrongType, ValueWrongType.message(file, line, name, text, `a number −${limit}..${limit}`), `a number −${limit}..${limit}`);
-        return;
-      }
+    const lon = plainNumber(lonText);
+    if (!(lon >= -180 && lon <= 180)) {
+      rejectCoordinate(line, 'lon', lonText, 180);
+      return;
+    }
+    const lat = plainNumber(latText);
+    if (!(lat >= -90 && lat <= 90)) {
+      rejectCoordinate(line, 'lat', latText, 90);
+      return;
     }
     let ashore = false;
     if (col.status >= 0) {
@@ -198,8 +264,14 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
       return;
     }
     lastTime.set(particle, timeMs);
-    if (options.onPosition({ particle, timeMs, lon: Number(lonText), lat: Number(latText), ashore })) counts.kept++;
+    if (options.onPosition(particle, timeMs, lon, lat, ashore)) counts.kept++;
     else counts.excluded++;
+  };
+
+  const rejectCoordinate = (line: number, name: string, text: string, limit: number): void => {
+    const expected = `a number −${limit}..${limit}`;
+    if (/^[+-]?(nan|inf|infinity)$/i.test(text.trim())) reject(line, name, text, ValueNotFinite, ValueNotFinite.message(file, line, name, text), expected);
+    else reject(line, name, text, ValueWrongType, ValueWrongType.message(file, line, name, text, expected), expected);
   };
 
   const split = (text: string): string[] => {
@@ -212,12 +284,83 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
     }
   };
 
-  let pending: { text: string; line: number } | null = null;
-  const takeLine = (text: string): void => {
+  // Fast path for plain lines (no quotes): fields located by index and numbers read straight from
+  // the text, so no per-line arrays or strings are made. Any line it cannot take whole goes to
+  // the checking path above, which reports exactly what is wrong.
+  const fieldStart = new Int32Array(64);
+  const fieldEnd = new Int32Array(64);
+  const delimiterCode = delimiter.charCodeAt(0);
+  let previousTimeText = '';
+  let previousTimeMs = Number.NaN;
+
+  const fastRow = (text: string, start: number, end: number): boolean => {
+    let n = 0;
+    let fieldFrom = start;
+    for (let i = start; i < end; i++) {
+      const c = text.charCodeAt(i);
+      if (c === delimiterCode) {
+        if (n >= 63) return false;
+        fieldStart[n] = fieldFrom;
+        fieldEnd[n] = i;
+        n++;
+        fieldFrom = i + 1;
+      } else if (c === 34) return false; // a quote: let csv-parse read the line
+    }
+    fieldStart[n] = fieldFrom;
+    fieldEnd[n] = end;
+    n++;
+    if (n !== width) return false;
+    const ps = fieldStart[col.particle] ?? 0;
+    const pe = fieldEnd[col.particle] ?? 0;
+    if (pe - ps < 1 || pe - ps > 15) return false;
+    let particle = 0;
+    for (let i = ps; i < pe; i++) {
+      const d = text.charCodeAt(i) - 48;
+      if (d < 0 || d > 9) return false;
+      particle = particle * 10 + d;
+    }
+    const ts = fieldStart[col.time] ?? 0;
+    const te = fieldEnd[col.time] ?? 0;
+    let timeMs: number;
+    if (te - ts === previousTimeText.length && text.startsWith(previousTimeText, ts)) {
+      timeMs = previousTimeMs;
+    } else {
+      const timeText = text.slice(ts, te);
+      let cached = timeCache.get(timeText);
+      if (cached === undefined) {
+        cached = parseDateTime(timeText);
+        if (timeCache.size > 50_000) timeCache.clear();
+        timeCache.set(timeText, cached);
+      }
+      timeMs = cached;
+      previousTimeText = timeText;
+      previousTimeMs = timeMs;
+    }
+    if (Number.isNaN(timeMs)) return false;
+    const lon = scanDecimal(text, fieldStart[col.lon] ?? 0, fieldEnd[col.lon] ?? 0);
+    if (!(lon >= -180 && lon <= 180)) return false;
+    const lat = scanDecimal(text, fieldStart[col.lat] ?? 0, fieldEnd[col.lat] ?? 0);
+    if (!(lat >= -90 && lat <= 90)) return false;
+    let ashore = false;
+    if (col.status >= 0) {
+      const ss = fieldStart[col.status] ?? 0;
+      const length = (fieldEnd[col.status] ?? 0) - ss;
+      if (length === 6 && text.startsWith('ashore', ss)) ashore = true;
+      else if (length !== 0 && !(length === 8 && text.startsWith('drifting', ss))) return false;
+    }
+    if (lastTime.get(particle) === timeMs) return false;
+    lastTime.set(particle, timeMs);
+    counts.read++;
+    if (options.onPosition(particle, timeMs, lon, lat, ashore)) counts.kept++;
+    else counts.excluded++;
+    return true;
+  };
+
+  const takeLine = (text: string, start: number, end: number): void => {
     lineNo++;
-    const clean = text.endsWith('\r') ? text.slice(0, -1) : text;
+    if (end > start && text.charCodeAt(end - 1) === 13) end--;
     if (header === null) {
-      let first = clean;
+      let first = text.slice(start, end);
       if (first.charCodeAt(0) === 0xfeff) {
         first = first.slice(1);
         sawBom = true;
@@ -226,9 +369,9 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
       handleHeader(split(first));
       return;
     }
-    if (clean === '') return;
-    if (pending) handleRow(split(pending.text), pending.line, false, true);
-    pending = { text: clean, line: lineNo };
+    if (end === start) return;
+    if (usable && fastRow(text, start, end)) return;
+    handleRow(split(text.slice(start, end)), lineNo, false, true);
   };
 
   try {
@@ -237,7 +380,7 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
       let start = 0;
       let nl = text.indexOf('\n', start);
       while (nl !== -1) {
-        takeLine(text.slice(start, nl));
+        takeLine(text, start, nl);
         start = nl + 1;
         nl = text.indexOf('\n', start);
       }
@@ -245,27 +388,22 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
     }
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
-    if (pending) handleRow(split((pending as { text: string }).text), (pending as { line: number }).line, false, true);
-    pending = null;
     log.add(CsvUnreadable, CsvUnreadable.message(file, lineNo + 1, reason), {
       file, row: lineNo + 1, column: null, value: null, expected: 'a complete, readable (gzip) CSV file', severity: 'error', excluded: true,
     });
     return;
   }
-  const endsWithNewline = rest === '' || rest === '\r';
-  if (!endsWithNewline) {
-    // The last line has no line end: it is held back and checked as the final row.
+  if (rest !== '' && rest !== '\r') {
+    // The last line has no line end: checked as the final row, so a cut-off line is reported.
     lineNo++;
+    const last = rest.replace(/\r$/, '');
     if (header === null) {
-      const first = rest.replace(/^\ufeff/, '');
-      if (first.trim() !== '') handleHeader(split(first.replace(/\r$/, '')));
+      const first = last.replace(/^\ufeff/, '');
+      if (first !== last) sawBom = true;
+      if (first.trim() !== '') handleHeader(split(first));
     } else {
-      if (pending) handleRow(split((pending as { text: string }).text), (pending as { line: number }).line, false, true);
-      pending = null;
-      handleRow(split(rest.replace(/\r$/, '')), lineNo, true, false);
+      handleRow(split(last), lineNo, true, false);
     }
-  } else if (pending) {
-    handleRow(split((pending as { text: string }).text), (pending as { line: number }).line, true, true);
   }
   if (header === null) {
     log.add(FileEmpty, FileEmpty.message(file), { file, row: 1, column: null, value: null, expected: 'a header row and data rows', severity: 'error', excluded: true });

@@ -7,7 +7,10 @@
  */
 import Flatbush from 'flatbush';
 import type { Segment } from '../scenario/types.ts';
-import { degreesForKm, pointToArcKm } from './geodesy.ts';
+import { degreesForKm, earthRadiusKm, pointToArcKm } from './geodesy.ts';
+
+/** Kilometres per degree of latitude on the sphere of radius 6371.0088 km (2πR/360). */
+const kmPerDegreeLat = (2 * Math.PI * earthRadiusKm) / 360;
 
 export interface NearestSegment {
   /** Index into the segments array given to the constructor. */
@@ -38,11 +41,20 @@ export class SegmentIndex {
   private readonly edgeCoordinates: Float64Array;
   private readonly bounds: [number, number, number, number];
   readonly edgeCount: number;
+  /** Edges of segment s are firstEdge[s] .. firstEdge[s + 1] − 1. */
+  private readonly firstEdge: Int32Array;
+  /**
+   * Coarse occupancy grid (a bitmap of cells near any edge) so that points far from every segment
+   * are turned away without an R-tree search; built for one search distance.
+   */
+  private grid: { west: number; south: number; cell: number; columns: number; rows: number; bits: Uint8Array; km: number } | null = null;
 
-  constructor(segments: readonly Segment[]) {
+  constructor(segments: readonly Segment[], prefilterKm?: number) {
     const owners: number[] = [];
     const coordinates: number[] = [];
+    const starts: number[] = [];
     segments.forEach((segment, s) => {
+      starts.push(owners.length);
       for (const line of linesOf(segment.geometry)) {
         for (let i = 0; i + 1 < line.length; i++) {
           const a = line[i];
@@ -54,6 +66,8 @@ export class SegmentIndex {
       }
     });
     this.edgeCount = owners.length;
+    // Edges were added segment by segment: each segment owns one contiguous run of edges.
+    this.firstEdge = Int32Array.from([...starts, owners.length]);
     this.edgeSegment = Int32Array.from(owners);
     this.edgeCoordinates = Float64Array.from(coordinates);
     let west = Infinity;
@@ -83,32 +97,101 @@ export class SegmentIndex {
       this.index = index;
     }
     this.bounds = [west, south, east, north];
+    if (prefilterKm !== undefined && prefilterKm > 0 && this.edgeCount > 0) this.buildGrid(prefilterKm);
   }
+
+  private buildGrid(km: number): void {
+    const reach = degreesForKm(km, Math.max(Math.abs(this.bounds[1]), Math.abs(this.bounds[3])) + degreesForKm(km, 0).dLat);
+    const west = this.bounds[0] - reach.dLon;
+    const south = this.bounds[1] - reach.dLat;
+    const width = this.bounds[2] + reach.dLon - west;
+    const height = this.bounds[3] + reach.dLat - south;
+    // Cells about the size of the search box, at most ~16 million cells.
+    let cell = Math.max(reach.dLat, 1e-4);
+    while ((width / cell) * (height / cell) > 16e6) cell *= 2;
+    const columns = Math.max(1, Math.ceil(width / cell));
+    const rows = Math.max(1, Math.ceil(height / cell));
+    const bits = new Uint8Array(columns * rows);
+    const c = this.edgeCoordinates;
+    for (let e = 0; e < this.edgeCount; e++) {
+      const x1 = Math.min(c[4 * e] ?? 0, c[4 * e + 2] ?? 0) - reach.dLon;
+      const x2 = Math.max(c[4 * e] ?? 0, c[4 * e + 2] ?? 0) + reach.dLon;
+      const y1 = Math.min(c[4 * e + 1] ?? 0, c[4 * e + 3] ?? 0) - reach.dLat;
+      const y2 = Math.max(c[4 * e + 1] ?? 0, c[4 * e + 3] ?? 0) + reach.dLat;
+      const i1 = Math.max(0, Math.floor((x1 - west) / cell));
+      const i2 = Math.min(columns - 1, Math.floor((x2 - west) / cell));
+      const j1 = Math.max(0, Math.floor((y1 - south) / cell));
+      const j2 = Math.min(rows - 1, Math.floor((y2 - south) / cell));
+      for (let j = j1; j <= j2; j++) for (let i = i1; i <= i2; i++) bits[j * columns + i] = 1;
+    }
+    this.grid = { west, south, cell, columns, rows, bits, km };
+  }
+
+  /** The nearest segment within `maxKm` of the point, or null when none is that close. */
+  // State of the running query, read by one filter function made once (no closure per query).
+  private queryLon = 0;
+  private queryLat = 0;
+  private queryMaxKm = 0;
+  private queryKmPerDegreeLon = 0;
+  private bestSegment = -1;
+  private bestKm = Infinity;
+  private readonly visitEdge = (e: number): boolean => {
+    const c = this.edgeCoordinates;
+    const lon = this.queryLon;
+    const lat = this.queryLat;
+    const x1 = c[4 * e] ?? 0;
+    const y1 = c[4 * e + 1] ?? 0;
+    const x2 = c[4 * e + 2] ?? 0;
+    const y2 = c[4 * e + 3] ?? 0;
+    // Local flat-Earth estimate first (within a few per cent over a few km); the exact
+    // great-circle distance only for edges that may be within reach.
+    const ax = (x1 - lon) * this.queryKmPerDegreeLon;
+    const ay = (y1 - lat) * kmPerDegreeLat;
+    const dx = (x2 - lon) * this.queryKmPerDegreeLon - ax;
+    const dy = (y2 - lat) * kmPerDegreeLat - ay;
+    const length2 = dx * dx + dy * dy;
+    const t = length2 > 0 ? Math.max(0, Math.min(1, -(ax * dx + ay * dy) / length2)) : 0;
+    const px = ax + t * dx;
+    const py = ay + t * dy;
+    const planarKm = Math.sqrt(px * px + py * py);
+    if (planarKm > this.queryMaxKm * 1.05 + 0.05 || planarKm > this.bestKm * 1.05 + 0.05) return false;
+    const km = pointToArcKm(lon, lat, x1, y1, x2, y2);
+    if (km <= this.queryMaxKm && km < this.bestKm) {
+      this.bestKm = km;
+      this.bestSegment = this.edgeSegment[e] ?? -1;
+    }
+    return false;
+  };
 
   /** The nearest segment within `maxKm` of the point, or null when none is that close. */
   nearestWithin(lon: number, lat: number, maxKm: number): NearestSegment | null {
     if (!this.index) return null;
-    const { dLat, dLon } = degreesForKm(maxKm, Math.abs(lat) + degreesForKm(maxKm, 0).dLat);
+    const grid = this.grid;
+    if (grid !== null && maxKm <= grid.km) {
+      const i = Math.floor((lon - grid.west) / grid.cell);
+      const j = Math.floor((lat - grid.south) / grid.cell);
+      if (i < 0 || j < 0 || i >= grid.columns || j >= grid.rows || grid.bits[j * grid.columns + i] === 0) return null;
+    }
+    const dLat = maxKm / kmPerDegreeLat;
+    const cos = Math.cos((Math.min(89.9, Math.abs(lat) + dLat) * Math.PI) / 180);
+    const dLon = Math.min(360, dLat / Math.max(cos, 1e-6));
     if (lon + dLon < this.bounds[0] || lon - dLon > this.bounds[2] || lat + dLat < this.bounds[1] || lat - dLat > this.bounds[3]) return null;
-    let best = -1;
-    let bestKm = Infinity;
-    const coordinates = this.edgeCoordinates;
-    this.index.search(lon - dLon, lat - dLat, lon + dLon, lat + dLat, (e) => {
-      const km = pointToArcKm(lon, lat, coordinates[4 * e] ?? 0, coordinates[4 * e + 1] ?? 0, coordinates[4 * e + 2] ?? 0, coordinates[4 * e + 3] ?? 0);
-      if (km <= maxKm && km < bestKm) {
-        bestKm = km;
-        best = this.edgeSegment[e] ?? -1;
-      }
-      return false;
-    });
-    return best < 0 ? null : { segment: best, distanceKm: bestKm };
+    this.queryLon = lon;
+    this.queryLat = lat;
+    this.queryMaxKm = maxKm;
+    this.queryKmPerDegreeLon = kmPerDegreeLat * Math.cos((lat * Math.PI) / 180);
+    this.bestSegment = -1;
+    this.bestKm = Infinity;
+    this.index.search(lon - dLon, lat - dLat, lon + dLon, lat + dLat, this.visitEdge);
+    return this.bestSegment < 0 ? null : { segment: this.bestSegment, distanceKm: this.bestKm };
   }
+
 
   /** Distance from a point to one segment's line (all its edges), in km. */
   distanceToSegmentKm(lon: number, lat: number, segment: number): number {
     let best = Infinity;
-    for (let e = 0; e < this.edgeCount; e++) {
-      if (this.edgeSegment[e] !== segment) continue;
+    const end = this.firstEdge[segment + 1] ?? 0;
+    for (let e = this.firstEdge[segment] ?? 0; e < end; e++) {
       const c = this.edgeCoordinates;
       const km = pointToArcKm(lon, lat, c[4 * e] ?? 0, c[4 * e + 1] ?? 0, c[4 * e + 2] ?? 0, c[4 * e + 3] ?? 0);
       if (km < best) best = km;

@@ -18,7 +18,7 @@ export const shellfishTissue = {
     { name: 'segment_id', type: 'string', required: true },
     { name: 'date', type: 'date', required: true },
     { name: 'species', type: 'string', required: true },
-    { name: 'particles_per_g_ww', type: 'number', required: true, unit: 'particles/g', minimum: 0, censorable: true },
+    { name: 'particles_per_g_ww', type: 'number', required: true, unit: 'particles/g ww', unitAlternatives: ['particles/g'], minimum: 0, censorable: true },
   ],
   aggregation: 'per-sample',
   threshold: null,

@@ -14,6 +14,8 @@ export interface ColumnRequirement {
   required: boolean;
   /** The unit the table schema must declare for this column (custom `unit` field property). */
   unit?: string;
+  /** Other spellings accepted for the same unit (e.g. "particles/g" for particles per g wet weight). */
+  unitAlternatives?: readonly string[];
   /** Smallest allowed value (inclusive). */
   minimum?: number;
   /** Values must be strictly greater than this. */

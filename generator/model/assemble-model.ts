@@ -48,6 +48,7 @@ export function assembleModel(scenario: LoadedScenario, engine: TrendEngine, opt
     options.onProgress?.('evaluate', i + 1, wanted.length);
   });
 
+  const publishedSeasons = new Set(publications.map((p) => p.season));
   const regions: RegionSummary[] = [];
   const bulletins: Bulletin[] = [];
   const segments = [...scenario.segments].sort(byId);
@@ -57,7 +58,7 @@ export function assembleModel(scenario: LoadedScenario, engine: TrendEngine, opt
     const beforeId = previousSeasonId(publication.season, settings.seasons);
     const before = beforeId ? (evaluations.get(beforeId) ?? null) : null;
     regions.push(composeRegion(scenario, now, before, publication.date));
-    for (const segment of segments) bulletins.push(composeBulletin(scenario, segment, now, before, publication.date));
+    for (const segment of segments) bulletins.push(composeBulletin(scenario, segment, now, before, publication.date, { rules, publishedSeasons }));
   }
 
   const last = publications[publications.length - 1];

@@ -5,19 +5,22 @@
 import { debrisCautions, shellfishCautions } from '../bulletin/cautions.ts';
 import { indicatorSubjects } from '../bulletin/indicator-words.ts';
 import { likelihoodWord } from '../bulletin/likelihood.ts';
-import { formatSignificant } from '../bulletin/numbers.ts';
+import { formatNumber, formatPlain } from '../bulletin/numbers.ts';
 import {
   directionChangeSentence,
   directionPhrases,
   headline,
-  levelChangeSentence,
-  levelLastSeasonSentence,
-  levelNowSentence,
+  levelAndTrendSentence,
+  levelChangeWithReason,
+  levelSummarySentence,
   mainTrendSentence,
+  seasonCountSentence,
   seasonValueSentence,
   whySentence,
 } from '../bulletin/phrase-level.ts';
-import { directionSentences, phraseTrend, printedRate, seasonsDisagree, type TrendPhraseInput } from '../bulletin/phrase-trend.ts';
+import { directionSentences, noneReportedSentences, phraseTrend, printedRate, rateSentences, seasonsDisagree, unitAfter, type TrendPhraseInput } from '../bulletin/phrase-trend.ts';
+import { explainLevelChange } from '../risk/explain-change.ts';
+import type { RiskRule } from '../scenario/settings.ts';
 import { growersSection, reportersSection, visitorsSection } from '../bulletin/sections.ts';
 import { getIndicator } from '../indicators/index.ts';
 import { levelWords } from '../risk/levels.ts';
@@ -44,8 +47,27 @@ export function trendPhraseInput(evaluation: IndicatorEvaluation, scenario: Load
     confidence: scenario.settings.trend.confidence,
     segmentsTested: evaluation.segmentsTested,
     seasonLabels,
-    samples: evaluation.yearSpan ? { count: evaluation.sampleCount, firstYear: evaluation.yearSpan.first, lastYear: evaluation.yearSpan.last } : null,
+    samples: evaluation.yearSpan
+      ? {
+          count: evaluation.sampleCount,
+          firstYear: evaluation.yearSpan.first,
+          lastYear: evaluation.yearSpan.last,
+          noun: definition.aggregation === 'season-total' ? 'seasons' : 'samples',
+        }
+      : null,
+    minValues: scenario.settings.trend.minValues,
+    minYears: scenario.settings.trend.minYears,
   };
+}
+
+/**
+ * The trend told again in a reader's section, kept short so the page does not repeat itself: the
+ * direction in one sentence, plus (for growers) the yearly rate when a rise or fall is claimed.
+ */
+function sectionTrendSentences(input: TrendPhraseInput, withRate: boolean): string[] {
+  const first = directionSentences(input).slice(0, 1);
+  if (!withRate || (input.direction !== 'rising' && input.direction !== 'falling')) return first;
+  return [...first, ...rateSentences(input).slice(0, 1)];
 }
 
 function chartDescription(evaluation: IndicatorEvaluation, segmentName: string, confidence: number): string {
@@ -57,6 +79,11 @@ function chartDescription(evaluation: IndicatorEvaluation, segmentName: string, 
     : '';
   const band = evaluation.trend?.band ? ` The line is the trend, with its ${Math.round(confidence * 100)}% band.` : '';
   return `${definition.label} at ${segmentName}, ${definition.unitShort}: ${evaluation.sampleCount} values${span}. Direction: ${directionPhrases[evaluation.direction]}.${band}`;
+}
+
+/** A count of animals where every season so far counted 0. */
+function noneEverReported(evaluation: IndicatorEvaluation): boolean {
+  return evaluation.indicator === 'wildlife-reports' && evaluation.yearSpan !== null && evaluation.values.every((v) => v.value === 0);
 }
 
 function indicatorBulletin(evaluation: IndicatorEvaluation, scenario: LoadedScenario, segment: Segment): IndicatorBulletin {
@@ -77,17 +104,29 @@ function indicatorBulletin(evaluation: IndicatorEvaluation, scenario: LoadedScen
     probabilityUp: evaluation.probabilityUp,
     likelihoodWords: evaluation.direction === 'rising' || evaluation.direction === 'falling' ? likelihoodWord(claimed) : null,
     threshold: definition.threshold ? { ...definition.threshold } : null,
-    sentences: phraseTrend(input),
+    sentences:
+      noneEverReported(evaluation) && evaluation.yearSpan
+        ? noneReportedSentences('animals harmed by litter', evaluation.yearSpan.first, evaluation.yearSpan.last)
+        : phraseTrend(input),
     chartDescription: chartDescription(evaluation, segment.name, scenario.settings.trend.confidence),
     seasonsDisagree: seasonsDisagree(evaluation.trend, scenario.settings.trend.confidence),
   };
 }
 
+/** Counts of animals reported are printed as whole numbers, in words for 0 and 1. */
+function isCount(indicator: IndicatorBulletin['indicator']): boolean {
+  return indicator === 'wildlife-reports';
+}
+
 function keyNumbers(bulletin: Pick<Bulletin, 'level' | 'indicators' | 'drift'>, confidence: number): { label: string; value: string }[] {
   const rows: { label: string; value: string }[] = [{ label: 'Level', value: levelWords(bulletin.level.id) }];
   for (const ind of bulletin.indicators) {
-    if (ind.seasonValue !== null) rows.push({ label: `${ind.label}, this season`, value: `${formatSignificant(ind.seasonValue)} ${ind.unitShort}` });
-    let trendText: string = directionPhrases[ind.direction];
+    if (ind.seasonValue !== null) {
+      const value = isCount(ind.indicator) ? formatNumber(ind.seasonValue, 0) : formatPlain(ind.seasonValue);
+      rows.push({ label: `${ind.label}, this season`, value: `${value} ${unitAfter(value, ind.unitShort)}` });
+    }
+    const noneReported = ind.indicator === 'wildlife-reports' && ind.observations.length > 0 && ind.observations.every((o) => o.value === 0);
+    let trendText: string = noneReported ? 'none reported' : directionPhrases[ind.direction];
     const rate = printedRate({
       subject: ind.label,
       unit: ind.unit,
@@ -101,13 +140,16 @@ function keyNumbers(bulletin: Pick<Bulletin, 'level' | 'indicators' | 'drift'>, 
       seasonLabels: {},
       samples: null,
     });
-    if (rate && ind.direction !== 'too-little-data') {
-      const range = rate.text.lower !== null && rate.text.upper !== null ? ` (${Math.round(confidence * 100)}% range ${rate.text.lower} to ${rate.text.upper})` : '';
-      trendText += `; ${rate.slope > 0 ? '+' : ''}${rate.text.slope} ${ind.unitShort} a year${range}`;
+    const allZero = rate !== null && rate.slope === 0 && rate.lower === 0 && rate.upper === 0;
+    if (rate && ind.direction !== 'too-little-data' && !allZero) {
+      const range = rate.text.lower !== null && rate.text.upper !== null ? ` (${Math.round(confidence * 100)}% confidence interval ${rate.text.lower} to ${rate.text.upper})` : '';
+      trendText += `; ${rate.slope > 0 ? '+' : ''}${rate.text.slope} ${unitAfter(rate.text.slope.replace('\u2212', ''), ind.unitShort)} a year${range}`;
     }
     rows.push({ label: `${ind.label}, trend`, value: trendText });
   }
-  if (bulletin.drift) rows.push({ label: 'Modelled arrivals per km, this season', value: formatSignificant(bulletin.drift.arrivalsPerKm) });
+  if (bulletin.drift && !bulletin.indicators.some((i) => i.indicator === 'drift-arrivals')) {
+    rows.push({ label: 'Modelled particles arriving per km of shore, this season', value: formatPlain(bulletin.drift.arrivalsPerKm) });
+  }
   return rows;
 }
 
@@ -117,6 +159,7 @@ export function composeBulletin(
   now: SeasonEvaluation,
   previous: SeasonEvaluation | null,
   published: string,
+  context: { rules: readonly RiskRule[]; publishedSeasons: ReadonlySet<string> } = { rules: [], publishedSeasons: new Set() },
 ): Bulletin {
   const settings = scenario.settings;
   const evaluation = now.segments.get(segment.id);
@@ -125,21 +168,40 @@ export function composeBulletin(
   const indicators = evaluation.indicators.map((e) => indicatorBulletin(e, scenario, segment));
   const permalink = permalinkOf(now.season.id, segment.id);
 
-  const moving = evaluation.indicators.map((e) => ({ subject: indicatorSubjects[e.indicator], direction: e.direction }));
-  const summary = [levelNowSentence(evaluation.level), levelLastSeasonSentence(before?.level ?? null), whySentence(evaluation.level), mainTrendSentence(moving)];
+  // Counts with nothing ever reported have no trend to tell; they are left out of the headline and
+  // the summary's trend sentence (their own section says "none reported").
+  const moving = evaluation.indicators
+    .filter((e) => !noneEverReported(e))
+    .map((e) => ({ subject: indicatorSubjects[e.indicator], direction: e.direction }));
+  const previousLevel = before?.level ?? null;
+  const summary = [levelSummarySentence(evaluation.level, previousLevel), whySentence(evaluation.level), mainTrendSentence(moving)];
 
   const changes: string[] = [];
-  const levelChange = levelChangeSentence(evaluation.level, before?.level ?? null);
+  const reason = explainLevelChange(evaluation.level, previousLevel, context.rules, evaluation.levelInputs);
+  // An unchanged level is said once, in the summary; a change is said here with its reason.
+  const levelChange =
+    previousLevel && previousLevel.rank !== evaluation.level.rank
+      ? levelChangeWithReason(evaluation.level, previousLevel, reason?.clause ?? null)
+      : null;
   if (levelChange) changes.push(levelChange);
+  const levelAndTrend = levelAndTrendSentence(evaluation.level, previousLevel, moving);
+  if (levelAndTrend) changes.push(levelAndTrend);
   for (const e of evaluation.indicators) {
     const old = before?.indicators.find((b) => b.indicator === e.indicator) ?? null;
     const subject = indicatorSubjects[e.indicator];
-    const valueSentence = seasonValueSentence(
-      subject,
-      getIndicator(e.indicator).unit,
-      e.seasonValue === null ? null : formatSignificant(e.seasonValue),
-      old?.seasonValue === null || old?.seasonValue === undefined ? null : formatSignificant(old.seasonValue),
-    );
+    const oldValue = old?.seasonValue === null || old?.seasonValue === undefined ? null : old.seasonValue;
+    const valueSentence = isCount(e.indicator)
+      ? seasonCountSentence(
+          'animals harmed by litter',
+          e.seasonValue === null ? null : Math.round(e.seasonValue),
+          oldValue === null ? null : Math.round(oldValue),
+        )
+      : seasonValueSentence(
+          subject,
+          getIndicator(e.indicator).unit,
+          e.seasonValue === null ? null : formatPlain(e.seasonValue),
+          oldValue === null ? null : formatPlain(oldValue),
+        );
     if (valueSentence) changes.push(valueSentence);
     const directionChange = directionChangeSentence(subject, e.direction, old ? old.direction : null);
     if (directionChange) changes.push(directionChange);
@@ -170,6 +232,7 @@ export function composeBulletin(
     invented: settings.invented,
     season: now.season,
     previousSeason: previous?.season ?? null,
+    previousSeasonPublished: previous ? context.publishedSeasons.has(previous.season.id) : false,
     published,
     correction,
     segment: {
@@ -183,8 +246,8 @@ export function composeBulletin(
       bbox: segment.bbox,
     },
     level: evaluation.level,
-    previousLevel: before?.level ?? null,
-    headline: headline(segment.name, evaluation.level, now.season.label),
+    previousLevel,
+    headline: headline(segment.name, evaluation.level, now.season.label, moving),
     summary,
     changes,
     indicators,
@@ -197,7 +260,7 @@ export function composeBulletin(
               seasonValue: tissue.seasonValue,
               assessmentValue: tissue.assessmentValue,
               unit: getIndicator('shellfish-tissue').unit,
-              trendSentences: directionSentences(trendPhraseInput(tissue, scenario)),
+              trendSentences: sectionTrendSentences(trendPhraseInput(tissue, scenario), true),
             }
           : null,
         nearestZone: evaluation.drift?.nearestZone ?? null,
@@ -209,7 +272,7 @@ export function composeBulletin(
               seasonValue: litter.seasonValue,
               unit: getIndicator('beach-litter').unit,
               threshold: getIndicator('beach-litter').threshold,
-              trendSentences: directionSentences(trendPhraseInput(litter, scenario)),
+              trendSentences: sectionTrendSentences(trendPhraseInput(litter, scenario), false),
             }
           : null,
         drift: evaluation.drift,

@@ -3,6 +3,7 @@
  * Kendall trend per indicator (Helsel & Frans 2006: the Seasonal Kendall test with sites in place
  * of seasons), the accumulation zones, and a short summary.
  */
+import { debrisCautions, shellfishCautions } from '../bulletin/cautions.ts';
 import { indicatorSubjects, lowerFirst } from '../bulletin/indicator-words.ts';
 import { formatNumber, formatSignificant } from '../bulletin/numbers.ts';
 import { getIndicator } from '../indicators/index.ts';
@@ -65,8 +66,11 @@ export function composeRegion(scenario: LoadedScenario, now: SeasonEvaluation, p
   const down = rows.filter((r) => r.previousLevel && r.level.rank < r.previousLevel.rank).length;
   const summary = [`Levels of the ${formatNumber(rows.length, 0)} places this season: ${counts.join(', ')}.`];
   if (previous) {
+    const places = (n: number): string => (n === 0 ? 'no place' : `${formatNumber(n, 0)} ${n === 1 ? 'place' : 'places'}`);
     summary.push(
-      `Since last season, ${formatNumber(up, 0)} ${up === 1 ? 'place' : 'places'} went up a level and ${formatNumber(down, 0)} went down.`,
+      up === 0 && down === 0
+        ? 'Since last season, no place went up or down a level.'
+        : `Since last season, ${places(up)} went up a level and ${places(down)} went down.`,
     );
   }
   for (const trend of regionalTrends) summary.push(trend.sentence);
@@ -83,6 +87,14 @@ export function composeRegion(scenario: LoadedScenario, now: SeasonEvaluation, p
     segments: rows,
     regionalTrends,
     zones: now.zones,
+    cautions: {
+      shellfish:
+        rows.some((r) => r.shellfish !== 'none') || regionalTrends.some((t) => t.indicator === 'shellfish-tissue')
+          ? shellfishCautions(settings.authorities)
+          : [],
+      debris: debrisCautions(settings.authorities),
+    },
+    authorities: settings.authorities.map((a) => ({ ...a })),
     headline: `${settings.region.name}, ${lowerFirst(now.season.label)}: the highest level is ${highestLabel} (level ${highest} of 4), at ${formatNumber(atHighest, 0)} of ${formatNumber(rows.length, 0)} places.`,
     summary,
   };

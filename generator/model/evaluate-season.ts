@@ -54,6 +54,8 @@ export interface SegmentEvaluation {
   indicators: IndicatorEvaluation[];
   drift: DriftBulletin | null;
   level: LevelResult;
+  /** The measures the level was assessed on (to explain a level change). */
+  levelInputs: LevelInputs;
 }
 
 export interface SeasonEvaluation {
@@ -210,6 +212,9 @@ export function evaluateSeason(scenario: LoadedScenario, seasonId: string, rules
             });
       if (values.length === 0) continue;
       const trend = runTrend(engine, values, settings, derivedSeed(settings.trend.seed, segment.id, indicator, seasonId));
+      // Modelled arrivals are listed as an indicator only once their series can carry a trend; until
+      // then the season's figures live in the drift part of the bulletin alone.
+      if (indicator === 'drift-arrivals' && (!trend || trend.insufficient)) continue;
       const inSeason = records.filter((r) => r.season === seasonId);
       const inAssessment = records.filter((r) => assessment.has(r.season));
       const seasonValue =
@@ -240,13 +245,14 @@ export function evaluateSeason(scenario: LoadedScenario, seasonId: string, rules
           pValue: trendPValue(trend),
           qValue: null,
           direction: 'too-little-data',
-          probabilityUp: trend?.probabilityUp ?? null,
+          // A chance of a rise means nothing where the data cannot carry a trend.
+          probabilityUp: trend && !trend.insufficient ? (trend.probabilityUp ?? null) : null,
           seasonValue,
           assessmentValue,
           cleanCoastIndex: cci,
           regionPercentile: null,
           segmentsTested: 0,
-          sampleCount: records.length > 0 ? records.length : values.length,
+          sampleCount: definition.aggregation === 'season-total' || records.length === 0 ? values.length : records.length,
           yearSpan: years.length > 0 ? { first: Math.min(...years), last: Math.max(...years) } : null,
         },
       });
@@ -319,7 +325,7 @@ export function evaluateSeason(scenario: LoadedScenario, seasonId: string, rules
         direction: 'too-little-data',
       };
     }
-    out.set(segment.id, { segmentId: segment.id, indicators, drift, level: assessLevel(rules, inputs) });
+    out.set(segment.id, { segmentId: segment.id, indicators, drift, level: assessLevel(rules, inputs), levelInputs: inputs });
   }
   return { season, segments: out, regional, zones };
 }

@@ -116,7 +116,12 @@ export function seasonValues(
   return values.sort((a, b) => a.t - b.t);
 }
 
-/** The series points handed to the trend engine. */
+/** The series points handed to the trend engine; the cycle is the season's year (winter 2026 = 2026). */
 export function toSeriesPoints(values: readonly SeasonValue[]): SeriesPoint[] {
-  return values.map((v) => ({ t: v.t, value: v.value, censored: v.censored, season: v.seasonName }));
+  return values.map((v) => {
+    const year = parseSeasonId(v.season)?.year;
+    return year === undefined
+      ? { t: v.t, value: v.value, censored: v.censored, season: v.seasonName }
+      : { t: v.t, value: v.value, censored: v.censored, season: v.seasonName, cycle: year };
+  });
 }

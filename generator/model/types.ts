@@ -126,6 +126,11 @@ export interface Bulletin {
   invented: boolean;                // demo data: every page says so
   season: SeasonRef;
   previousSeason: SeasonRef | null;
+  /**
+   * Whether the previous season (the calendar season before) has a bulletin of its own. It may
+   * not (e.g. 2026-spring before the first published season): then link no bulletin for it.
+   */
+  previousSeasonPublished?: boolean;
   published: string;                // ISO date from the scenario, never the clock
   correction: { date: string; reason: string } | null;
   segment: SegmentInfo;
@@ -183,6 +188,10 @@ export interface RegionSummary {
   zones: AccumulationZone[];
   headline: string;
   summary: string[];
+  /** Cautions for the region page (it mentions shellfish whenever any segment has shellfish data). */
+  cautions?: { shellfish: Caution[]; debris: Caution[] };
+  /** The authorities named in the scenario, with their contacts. */
+  authorities?: Contact[];
 }
 
 export interface ValidationIssue {

@@ -25,10 +25,10 @@ export interface ProgressStream {
 }
 
 export interface Progress {
-  /** Starts a phase; ends the running one first. */
-  start(phase: string, total?: number): void;
-  /** Reports how far the running phase is. */
-  update(done: number, total?: number): void;
+  /** Starts a phase; ends the running one first. `unit` follows the counts ("pages"). */
+  start(phase: string, total?: number, unit?: string): void;
+  /** Reports how far the running phase is; `detail` names the part in hand (e.g. a file). */
+  update(done: number, total?: number, detail?: string): void;
   /** Ends the running phase. */
   end(): void;
   /** Timings of every ended phase, in order. */
@@ -69,9 +69,10 @@ export function formatCount(count: number): string {
   return Math.round(count).toLocaleString('en-GB');
 }
 
-function countText(done: number | null, total: number | null): string {
+function countText(done: number | null, total: number | null, unit = ''): string {
   if (done === null) return '';
-  return total === null ? formatCount(done) : `${formatCount(done)} of ${formatCount(total)}`;
+  const counts = total === null || total === done ? formatCount(done) : `${formatCount(done)} of ${formatCount(total)}`;
+  return unit ? `${counts} ${unit}` : counts;
 }
 
 export function createProgress(options: ProgressOptions = {}): Progress {
@@ -81,7 +82,7 @@ export function createProgress(options: ProgressOptions = {}): Progress {
   const live = !quiet && stream.isTTY === true;
   const redrawEveryMs = options.redrawEveryMs ?? 100;
   const ended: PhaseTiming[] = [];
-  let running: { phase: string; startedAt: number; done: number | null; total: number | null; drawnAt: number } | null =
+  let running: { phase: string; startedAt: number; done: number | null; total: number | null; detail: string; unit: string; drawnAt: number } | null =
     null;
 
   const line = (phase: string, detail: string): string => `  ${phase.padEnd(12)} ${detail}`;
@@ -93,7 +94,8 @@ export function createProgress(options: ProgressOptions = {}): Progress {
     running.drawnAt = now;
     const elapsed = formatDuration(now - running.startedAt);
     const counts = countText(running.done, running.total);
-    stream.write(`\r\x1b[2K${line(running.phase, `${counts}${counts ? '  ' : ''}${elapsed}`)}`);
+    const detail = running.detail ? `${running.detail}: ` : '';
+    stream.write(`\r\x1b[2K${line(running.phase, `${detail}${counts}${counts ? '  ' : ''}${elapsed}`)}`);
   }
 
   function end(): void {
@@ -101,7 +103,7 @@ export function createProgress(options: ProgressOptions = {}): Progress {
     const milliseconds = performance.now() - running.startedAt;
     ended.push({ phase: running.phase, milliseconds, done: running.done, total: running.total });
     if (!quiet) {
-      const counts = countText(running.done, running.total);
+      const counts = countText(running.done, running.total, running.unit);
       const text = line(running.phase, `${counts}${counts ? ' in ' : ''}${formatDuration(milliseconds)}`);
       stream.write(live ? `\r\x1b[2K${text}\n` : `${text}\n`);
     }
@@ -109,14 +111,15 @@ export function createProgress(options: ProgressOptions = {}): Progress {
   }
 
   return {
-    start(phase, total) {
+    start(phase, total, unit) {
       end();
-      running = { phase, startedAt: performance.now(), done: null, total: total ?? null, drawnAt: -Infinity };
+      running = { phase, startedAt: performance.now(), done: null, total: total ?? null, detail: '', unit: unit ?? '', drawnAt: -Infinity };
       draw(true);
     },
-    update(done, total) {
+    update(done, total, detail) {
       if (running === null) return;
       running.done = done;
+      if (detail !== undefined) running.detail = detail;
       if (total !== undefined) running.total = total;
       draw(false);
     },

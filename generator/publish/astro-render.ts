@@ -8,7 +8,7 @@
  * date on a page may depend on the machine's zone), and writes to `--outDir`.
  */
 import { spawn } from 'node:child_process';
-import { existsSync } from 'node:fs';
+import { existsSync, readFileSync } from 'node:fs';
 import { createRequire } from 'node:module';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -16,11 +16,17 @@ import { fileURLToPath } from 'node:url';
 /** The folder holding this package's package.json (two levels above generator/publish/). */
 export const packageRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
 
-/** Absolute path of a package's command-line script, read from its package.json "bin". */
+/**
+ * Absolute path of a package's command-line script, read from its package.json "bin". The
+ * package.json is found through Node's own search path for `packageName` (it may not be an
+ * exported subpath of the package).
+ */
 export function resolvePackageBin(packageName: string, binName: string, fromDir: string = packageRoot): string {
   const require = createRequire(path.join(fromDir, 'package.json'));
-  const manifestPath = require.resolve(`${packageName}/package.json`);
-  const manifest = require(manifestPath) as { bin?: string | { [name: string]: string } };
+  const candidates = (require.resolve.paths(packageName) ?? []).map((folder) => path.join(folder, packageName, 'package.json'));
+  const manifestPath = candidates.find((candidate) => existsSync(candidate));
+  if (!manifestPath) throw new Error(`package ${packageName} is not installed (looked from ${fromDir})`);
+  const manifest = JSON.parse(readFileSync(manifestPath, 'utf8')) as { bin?: string | { [name: string]: string } };
   const relative = typeof manifest.bin === 'string' ? manifest.bin : manifest.bin?.[binName];
   if (!relative) throw new Error(`package ${packageName} has no command ${binName}`);
   return path.join(path.dirname(manifestPath), relative);

@@ -87,12 +87,13 @@ async function prepareModel(
   | { kind: 'ready'; session: PublishSession; modelDir: string; corrections: Correction[]; report: ValidationReport }
 > {
   const { progress, steps } = options;
-  progress.start('reading');
-  const scenario = await steps.load(options.scenario, (_phase, done, total) => progress.update(done, total));
+  progress.start('reading', undefined, 'records');
+  const scenario = await steps.load(options.scenario, (phase, done, total) => progress.update(done, total, phase));
+  progress.update(scenario.records.length, scenario.records.length, '');
   progress.end();
   if (!scenario.report.ok) return { kind: 'invalid', report: scenario.report };
 
-  progress.start('statistics', scenario.segments.length);
+  progress.start('statistics', undefined, 'bulletins');
   const set = await steps.model(scenario, {
     cacheDir: options.cache,
     onProgress: (done, total) => progress.update(done, total),
@@ -120,17 +121,19 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
   const { session, modelDir } = prepared;
   try {
     const siteDir = await session.workFolder('site');
-    progress.start('pages');
+    progress.start('pages', undefined, 'pages');
     const rendered = await steps.render({ modelDir, outDir: siteDir, onPage: (done) => progress.update(done) });
     progress.end();
     if (options.afterRender) await options.afterRender(siteDir);
 
-    progress.start('checks');
     let files = await listFiles(siteDir);
     if (await wantsSearchIndex(siteDir, files)) {
+      progress.start('search index');
       await steps.index(siteDir);
       files = await listFiles(siteDir);
     }
+    progress.start('checks', undefined, 'files');
+    progress.update(files.length);
     const problems = await siteProblems(siteDir, files);
     if (problems.length > 0) {
       const shown = problems.slice(0, 12).map((problem) => `  - ${problem.page}: ${problem.problem}`);

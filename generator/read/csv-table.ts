@@ -246,7 +246,7 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
       const truncated = isLast && cells.length < headerLength && lastByte.last !== 10 && lastByte.last !== 13;
       const entry = truncated ? RowTruncated : RowWrongLength;
       log.add(entry, entry.message(file, line, cells.length, headerLength), {
-        file, row: line, column: null, value: cells.join(dialect.delimiter), expected: `${headerLength} cells`, severity: 'error', excluded: true,
+        file, row: line, column: null, value: cells.join(dialect.delimiter), expected: `${headerLength} cells`, severity: 'warning', excluded: true,
       });
       counts.excluded++;
       return;
@@ -259,7 +259,7 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
       const result = parseCell(raw, rule, options.missingValues, dialect.decimalChar, file, line);
       if (!result.ok) {
         bad = true;
-        log.add(result.problem.entry, result.problem.message, { file, row: line, column: rule.name, value: raw, expected: result.problem.expected, severity: 'error', excluded: true });
+        log.add(result.problem.entry, result.problem.message, { file, row: line, column: rule.name, value: raw, expected: result.problem.expected, severity: 'warning', excluded: true });
         continue;
       }
       row.values[rule.name] = result.value;
@@ -281,7 +281,7 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
         const column = options.primaryKey.join('+');
         const value = options.primaryKey.map((k) => String(row.values[k] ?? '')).join('+');
         log.add(DuplicateKey, DuplicateKey.message(file, line, column, value, first), {
-          file, row: line, column, value, expected: 'a unique id', severity: 'error', excluded: true,
+          file, row: line, column, value, expected: 'a unique id', severity: 'warning', excluded: true,
         });
         counts.excluded++;
         return;

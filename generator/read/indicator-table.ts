@@ -106,7 +106,7 @@ export function checkSchema(resource: ResourceEntry, schema: TableSchema, defini
         log.add(UnitMismatch, `${file} row 1, column ${column.name}: no unit is declared; expected "${column.unit}"; values were read as ${column.unit}`, {
           file, row: 1, column: column.name, value: null, expected: column.unit, severity: 'warning', excluded: false,
         });
-      } else if (!sameUnit(field.unit, column.unit)) {
+      } else if (![column.unit, ...(column.unitAlternatives ?? [])].some((unit) => sameUnit(field.unit ?? '', unit))) {
         log.add(UnitMismatch, UnitMismatch.message(file, column.name, field.unit, column.unit), {
           file, row: 1, column: column.name, value: field.unit, expected: column.unit, severity: 'error', excluded: true,
         });
@@ -122,7 +122,8 @@ export interface IndicatorTableInput {
   absolutePath: string;
   definition: IndicatorDefinition;
   settings: ScenarioSettings;
-  period: ScenarioPeriod;
+  /** Null when the settings could not be read: dates are then only checked for form. */
+  period: ScenarioPeriod | null;
   segmentIds: ReadonlySet<string>;
   segmentsFile: string;
   log: IssueLog;
@@ -168,20 +169,22 @@ export async function readIndicatorTable(input: IndicatorTableInput): Promise<Sc
         const value = row.values[column];
         if (typeof value === 'string' && !input.segmentIds.has(value)) {
           log.add(UnknownSegment, UnknownSegment.message(file, line, column, value, input.segmentsFile), {
-            file, row: line, column, value, expected: `a segment id from ${input.segmentsFile}`, severity: 'error', excluded: true,
+            file, row: line, column, value, expected: `a segment id from ${input.segmentsFile}`, severity: 'warning', excluded: true,
           });
           keep = false;
         }
       }
       const date = String(row.values[dateColumn] ?? '').slice(0, 10);
-      if (period.start !== null && date < period.start) {
+      if (period === null) {
+        // no period to compare with
+      } else if (period.start !== null && date < period.start) {
         log.add(DateBeforeScenario, DateBeforeScenario.message(file, line, dateColumn, date, period.start), {
-          file, row: line, column: dateColumn, value: date, expected: `${period.start} or later`, severity: 'error', excluded: true,
+          file, row: line, column: dateColumn, value: date, expected: `${period.start} or later`, severity: 'warning', excluded: true,
         });
         keep = false;
       } else if (date > period.published) {
         log.add(DateInFuture, DateInFuture.message(file, line, dateColumn, date, period.published), {
-          file, row: line, column: dateColumn, value: date, expected: `${period.published} or earlier`, severity: 'error', excluded: true,
+          file, row: line, column: dateColumn, value: date, expected: `${period.published} or earlier`, severity: 'warning', excluded: true,
         });
         keep = false;
       } else if (date > period.end) {
@@ -193,7 +196,7 @@ export async function readIndicatorTable(input: IndicatorTableInput): Promise<Sc
       const season = seasonOfDate(date, settings.seasons);
       if (!season) {
         log.add(DateNotInSeason, DateNotInSeason.message(file, line, dateColumn, date), {
-          file, row: line, column: dateColumn, value: date, expected: 'a date in a month covered by the seasons of scenario.json', severity: 'error', excluded: true,
+          file, row: line, column: dateColumn, value: date, expected: 'a date in a month covered by the seasons of scenario.json', severity: 'warning', excluded: true,
         });
         keep = false;
       }

@@ -327,7 +327,8 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
       kind: kind as SegmentKind,
       shellfish: shellfish as ShellfishUse,
       place,
-      lengthKm: geoLength(shape) * earthRadiusKm,
+      // d3-geo streams a polygon ring without its closing edge, so rings are measured as lines.
+      lengthKm: geoLength(checked.rings ? { type: 'MultiLineString', coordinates: checked.lines } : shape) * earthRadiusKm,
       geometry: shape,
       bbox: [west, south, east, north],
     });

@@ -4,7 +4,9 @@
  * offending setting. Returns null when the settings cannot be used.
  */
 import { readFile } from 'node:fs/promises';
-import { SettingsInvalid, SettingsUnreadable } from '../errors.ts';
+import { parse as parseYaml } from 'yaml';
+import { z } from 'zod';
+import { SettingUnknown, SettingsInvalid, SettingsUnreadable } from '../errors.ts';
 import type { ScenarioSettings } from '../scenario/settings.ts';
 import { settingsSchema } from '../scenario/settings.ts';
 import type { IssueLog } from './issue-log.ts';
@@ -25,8 +27,44 @@ function showValue(value: unknown): string {
   return text.length > 60 ? `${text.slice(0, 57)}...` : text;
 }
 
+/** Strips optional/default/nullable/effects wrappers off a zod schema. */
+function unwrap(schema: z.ZodTypeAny): z.ZodTypeAny {
+  let current = schema;
+  for (;;) {
+    if (current instanceof z.ZodDefault) current = current._def.innerType as z.ZodTypeAny;
+    else if (current instanceof z.ZodOptional || current instanceof z.ZodNullable) current = current.unwrap() as z.ZodTypeAny;
+    else if (current instanceof z.ZodEffects) current = current.innerType() as z.ZodTypeAny;
+    else return current;
+  }
+}
+
+/**
+ * Keys the schema does not know (usually misspelled settings, which zod would drop silently),
+ * as JSON paths.
+ */
+export function unknownSettingKeys(json: unknown, schema: z.ZodTypeAny = settingsSchema, path: (string | number)[] = []): (string | number)[][] {
+  const inner = unwrap(schema);
+  if (inner instanceof z.ZodObject && json !== null && typeof json === 'object' && !Array.isArray(json)) {
+    const shape = inner.shape as { [key: string]: z.ZodTypeAny };
+    return Object.entries(json as { [key: string]: unknown }).flatMap(([key, value]) => {
+      const child = shape[key];
+      return child ? unknownSettingKeys(value, child, [...path, key]) : [[...path, key]];
+    });
+  }
+  if (inner instanceof z.ZodArray && Array.isArray(json)) {
+    return json.flatMap((value, i) => unknownSettingKeys(value, inner.element as z.ZodTypeAny, [...path, i]));
+  }
+  return [];
+}
+
 /** Validates parsed JSON; every zod issue becomes a report entry naming the JSON path. */
 export function validateSettings(json: unknown, file: string, log: IssueLog): ScenarioSettings | null {
+  for (const keyPath of unknownSettingKeys(json)) {
+    const jsonPath = `$${formatZodPath(keyPath)}`;
+    log.add(SettingUnknown, SettingUnknown.message(file, jsonPath), {
+      file, row: null, column: jsonPath, value: String(keyPath[keyPath.length - 1] ?? ''), expected: 'a setting described in schema/scenario.schema.json', severity: 'warning', excluded: false,
+    });
+  }
   const parsed = settingsSchema.safeParse(json);
   if (parsed.success) return parsed.data;
   for (const problem of parsed.error.issues) {
@@ -40,10 +78,16 @@ export function validateSettings(json: unknown, file: string, log: IssueLog): Sc
   return null;
 }
 
-export async function readSettings(absolutePath: string, file: string, log: IssueLog): Promise<ScenarioSettings | null> {
+/** Settings may be written as JSON (scenario.json) or YAML (scenario.yaml / .yml). */
+export function isYamlSettings(file: string, format: string | null = null): boolean {
+  return format === 'yaml' || format === 'yml' || /\.ya?ml$/i.test(file);
+}
+
+export async function readSettings(absolutePath: string, file: string, log: IssueLog, format: string | null = null): Promise<ScenarioSettings | null> {
   let json: unknown;
   try {
-    json = JSON.parse((await readFile(absolutePath, 'utf8')).replace(/^\ufeff/, ''));
+    const text = (await readFile(absolutePath, 'utf8')).replace(/^\ufeff/, '');
+    json = isYamlSettings(file, format) ? parseYaml(text) : JSON.parse(text);
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
     log.add(SettingsUnreadable, SettingsUnreadable.message(file, reason), {

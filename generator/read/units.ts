@@ -14,7 +14,7 @@ const words: [RegExp, string][] = [
 export function canonicalUnit(unit: string): string {
   let text = unit.trim().toLowerCase().replace(/[µμ]/g, 'u').replace(/³/g, '3').replace(/²/g, '2').replace(/\^/g, '');
   for (const [pattern, replacement] of words) text = text.replace(pattern, replacement);
-  return text.replace(/\s+/g, '').replace(/\bww\b|\(ww\)|wetweight/g, '');
+  return text.replace(/wet\s*weight/g, 'ww').replace(/[\s()]+/g, '');
 }
 
 export function sameUnit(a: string, b: string): boolean {

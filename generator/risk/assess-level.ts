@@ -18,6 +18,7 @@
 import type { Direction, IndicatorId, LevelId, LevelResult, RuleHit } from '../model/types.ts';
 import type { RiskRule } from '../scenario/settings.ts';
 import { formatNumber, formatSignificant } from '../bulletin/numbers.ts';
+import { chanceWords } from '../bulletin/phrase-trend.ts';
 import { levelDefinition, levelRank } from './levels.ts';
 
 export interface IndicatorMeasures {
@@ -30,7 +31,7 @@ export interface IndicatorMeasures {
 
 export type LevelInputs = Partial<Record<IndicatorId, IndicatorMeasures>>;
 
-function measureValue(rule: RiskRule, measures: IndicatorMeasures): number | null {
+export function measureValue(rule: RiskRule, measures: IndicatorMeasures): number | null {
   switch (rule.measure) {
     case 'assessment-median':
       return measures.assessmentMedian;
@@ -58,7 +59,7 @@ function compare(value: number, op: RiskRule['op'], threshold: number): boolean 
 
 /** Print a measure the way the rule texts show it. */
 export function formatMeasure(measure: RiskRule['measure'], value: number): string {
-  if (measure === 'probability-up') return `${formatNumber(Math.round(value * 100), 0)} in 100`;
+  if (measure === 'probability-up') return chanceWords(value);
   if (measure === 'region-percentile') return formatNumber(Math.round(value), 0);
   return formatSignificant(value, 2);
 }

@@ -6,7 +6,9 @@
  * Sources of the thresholds:
  * - 20 items per 100 m of beach: the EU coastline threshold value for macro litter under the Marine
  *   Strategy Framework Directive; compliance is judged on the median (Van Loon et al. 2020, JRC,
- *   "A European Threshold Value and Assessment Method for Macro Litter on Coastlines").
+ *   "A European Threshold Value and Assessment Method for Macro Litter on Coastlines"). It is a
+ *   benchmark for EU coasts (the 15th percentile of the 2015–2016 baseline), not a legal limit, so
+ *   the texts call it "the threshold value used in the European Union", never a limit.
  * - 150 items per 100 m: the mean abundance over all EU beaches in the 2015–2016 baseline of the
  *   same report.
  * - 400 items per 100 m: our own choice, twenty times the threshold value.
@@ -30,8 +32,8 @@ export const defaultRiskRules: readonly RiskRule[] = [
     measure: 'assessment-median',
     op: '>=',
     value: 20,
-    text: 'Beach litter in the last four seasons has a median of {value} items per 100 m. That is at or above the EU limit of {threshold}.',
-    source: 'Van Loon et al. 2020, EU threshold value for coastline macro litter',
+    text: 'Beach litter in the last four seasons has a median of {value} items per 100 m. That is at or above the threshold value used in the European Union ({threshold} items per 100 m), a yardstick and not a legal limit.',
+    source: 'Van Loon et al. 2020, threshold value for coastline macro litter used in the European Union (a benchmark, not a legal limit)',
   },
   {
     id: 'litter-at-eu-mean',
@@ -40,7 +42,7 @@ export const defaultRiskRules: readonly RiskRule[] = [
     measure: 'assessment-median',
     op: '>=',
     value: 150,
-    text: 'Beach litter in the last four seasons has a median of {value} items per 100 m. That is at or above {threshold}, the EU mean in 2015 and 2016.',
+    text: 'Beach litter in the last four seasons has a median of {value} items per 100 m. That is at or above {threshold}, the average over beaches in the European Union in 2015 and 2016.',
     source: 'Van Loon et al. 2020, EU baseline mean 2015–2016',
   },
   {
@@ -50,7 +52,7 @@ export const defaultRiskRules: readonly RiskRule[] = [
     measure: 'assessment-median',
     op: '>=',
     value: 400,
-    text: 'Beach litter in the last four seasons has a median of {value} items per 100 m. That is at or above {threshold}, twenty times the EU limit.',
+    text: 'Beach litter in the last four seasons has a median of {value} items per 100 m. That is at or above {threshold}, twenty times the threshold value used in the European Union.',
     source: 'Our own choice: twenty times the EU threshold value',
   },
   {
@@ -90,7 +92,7 @@ export const defaultRiskRules: readonly RiskRule[] = [
     measure: 'region-percentile',
     op: '>=',
     value: 75,
-    text: 'The drift model brings more litter per km here than to {value}% of the coast in the region.',
+    text: 'In the drift model, more modelled particles per km reach this place than {value}% of the places on this coast. This shows where floating litter tends to go, not how much there is.',
     source: 'Our own choice: top quarter of the region',
   },
   {
@@ -100,7 +102,7 @@ export const defaultRiskRules: readonly RiskRule[] = [
     measure: 'region-percentile',
     op: '>=',
     value: 90,
-    text: 'The drift model brings more litter per km here than to {value}% of the coast in the region.',
+    text: 'In the drift model, more modelled particles per km reach this place than {value}% of the places on this coast. This shows where floating litter tends to go, not how much there is.',
     source: 'Our own choice: top tenth of the region',
   },
   {
@@ -110,7 +112,7 @@ export const defaultRiskRules: readonly RiskRule[] = [
     measure: 'assessment-median',
     op: '>=',
     value: 1,
-    text: 'Shellfish here hold a median of {value} plastic bits per gram. Most studies find less than {threshold}.',
+    text: 'Shellfish here hold a median of {value} plastic particles per gram. Most studies find less than {threshold}. This is not a food safety limit: none exists.',
     source: 'Danopoulos et al. 2020: most studies report less than 1 particle per g',
   },
   {
@@ -120,7 +122,7 @@ export const defaultRiskRules: readonly RiskRule[] = [
     measure: 'region-percentile',
     op: '>=',
     value: 90,
-    text: 'The water here holds more plastic bits than at {value}% of the coast in the region.',
+    text: 'The water here holds more plastic particles than at {value}% of the places on this coast.',
     source: 'Our own choice: top tenth of the region',
   },
   {

@@ -30,7 +30,7 @@ export { censoredSlopeRule, type CensoredSlopeDecision } from './censored-slope-
 export { benjaminiHochberg, benjaminiHochbergDecision, type BenjaminiHochbergDecision } from './benjamini-hochberg.ts';
 
 // Uncertainty band
-export { trendBand, theilSenLine, type TrendBandOptions, type TrendBandResult } from './trend-band.ts';
+export { trendBand, theilSenLine, probabilityUpFromCounts, type TrendBandOptions, type TrendBandResult } from './trend-band.ts';
 
 // Minimum-data rules
 export { minimumDataShortfall, type MinimumDataOptions, type Shortfall } from './minimum-data.ts';

@@ -8,8 +8,8 @@
  * (y − b·t), counted only where significant: |ρ_s(k)| > z(1−α/2)/√n (Hamed & Rao 1998, §3; as in
  * R `modifiedmk::mmkh` and pyMannKendall). Lags are positions in time order, so the correction
  * assumes roughly even spacing. Autocorrelation estimate: Σ_{i=1}^{n−k}(R_i − R̄)(R_{i+k} − R̄) /
- * Σ(R_i − R̄)². For speed, lags beyond 2,000 are not used (common practice: Rao et al. 2003 use only
- * the first three). Reported beside the plain test, never instead of it.
+ * Σ(R_i − R̄)². For speed, lags beyond min(2,000, max(10, 5·10⁷/n)) are not used (common practice:
+ * Rao et al. 2003 use only the first three). Reported beside the plain test, never instead of it.
  *
  * Also the effective-sample-size factor of Yue & Wang (2004, Water Resour. Manage. 18(3):201–218):
  * n/n* = 1 + 2 Σ_k (1 − k/n) ρ_k.
@@ -61,7 +61,7 @@ export interface HamedRaoInput {
   slope: number;
   /** significance level of the lags; defaults to 0.05 */
   alpha?: number;
-  /** largest lag used; defaults to min(n − 1, 2000) */
+  /** largest lag used; defaults to min(n − 1, 2000, max(10, 5·10⁷/n)) */
   maxLag?: number;
 }
 
@@ -81,7 +81,7 @@ export function hamedRaoCorrection(t: Float64Array, y: Float64Array, input: Hame
   let denominator = 0;
   for (let i = 0; i < n; i++) denominator += ((ranks[i] as number) - mean) ** 2;
   const limit = n > 0 ? normalQuantile(1 - (input.alpha ?? 0.05) / 2) / Math.sqrt(n) : Infinity;
-  const maxLag = Math.min(n - 1, input.maxLag ?? 2000);
+  const maxLag = Math.min(n - 1, input.maxLag ?? Math.min(2000, Math.max(10, Math.floor(5e7 / Math.max(1, n)))));
   const significant: { lag: number; rho: number }[] = [];
   if (denominator > 0) {
     for (let lag = 1; lag <= maxLag; lag++) {

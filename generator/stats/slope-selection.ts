@@ -20,6 +20,9 @@
  * is decided exactly unless a slope lies within ~1e-12 relative of that margin. The counts are
  * cross-checked (the listed slopes must match the counted ones) and a mismatch throws.
  *
+ * Scope: slopes closer to each other than ~1e-12 of (value range)/(smallest time gap) may be taken
+ * as one value (the one returned is an actual slope of the data); measured data are far coarser.
+ *
  * Repeated slopes (ties in value give many zero slopes): when the sample window holds a
  * repeated value v, the ranks v occupies are counted exactly and the interval is split at v,
  * so a huge block of equal slopes is never listed.
@@ -34,6 +37,10 @@ export interface SlopeSelectionOptions {
   seed?: number;
   /** list all slopes directly while N′ is at most this; defaults to 2,000,000 */
   directLimit?: number;
+  /** list the candidate slopes once an interval holds at most this many; defaults to max(6n, 100,000) (small values exercise more rounds in tests) */
+  listLimit?: number;
+  /** slopes sampled per round; defaults to min(n, 1,000,000), at least 2,000 */
+  sampleSize?: number;
 }
 
 /** N′: the number of pairs with different times, for t sorted ascending. */
@@ -134,11 +141,11 @@ interface Prepared {
   n: number;
   t: Float64Array; // ordered by (t, y)
   y: Float64Array;
-  tc: Float64Array; // centred copies for the keys
+  tc: Float64Array; // centred, scaled copies for the keys
   yc: Float64Array;
   scaleY: number;
   scaleT: number;
-  minGap: number;
+  minGap: number; // smallest positive time gap, original units
   keys: Float64Array; // scratch
   orders: Map<number, { order: Uint32Array; inversions: number }>; // cache by threshold
 }
@@ -162,35 +169,56 @@ function prepare(t: ArrayLike<number>, y: ArrayLike<number>): Prepared {
     yMax = Math.max(yMax, ys[i] as number);
   }
   const yMid = n > 0 ? (yMin + yMax) / 2 : 0;
-  const tc = new Float64Array(n);
-  const yc = new Float64Array(n);
+  // Keys are computed on centred, scaled copies (u = (t − t_mid)/scaleT, v = (y − y_mid)/scaleY, both
+  // within [−1, 1]) so that tiny or huge units do not underflow or overflow; a slope s becomes
+  // s·scaleT/scaleY there.
   let scaleT = 0;
   let scaleY = 0;
   let minGap = Infinity;
   for (let i = 0; i < n; i++) {
-    tc[i] = (ts[i] as number) - tMid;
-    yc[i] = (ys[i] as number) - yMid;
-    scaleT = Math.max(scaleT, Math.abs(tc[i] as number));
-    scaleY = Math.max(scaleY, Math.abs(yc[i] as number));
+    scaleT = Math.max(scaleT, Math.abs((ts[i] as number) - tMid));
+    scaleY = Math.max(scaleY, Math.abs((ys[i] as number) - yMid));
     if (i > 0) {
       const gap = (ts[i] as number) - (ts[i - 1] as number);
       if (gap > 0) minGap = Math.min(minGap, gap);
     }
   }
+  if (!(scaleT > 0)) scaleT = 1;
+  if (!(scaleY > 0)) scaleY = 1;
+  const tc = new Float64Array(n);
+  const yc = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    tc[i] = ((ts[i] as number) - tMid) / scaleT;
+    yc[i] = ((ys[i] as number) - yMid) / scaleY;
+  }
   return { n, t: ts, y: ys, tc, yc, scaleT, scaleY, minGap, keys: new Float64Array(n), orders: new Map() };
 }
 
-/** Margin that moves an interval end off a slope value, far above key rounding error. */
+/** A slope in the scaled coordinates of the keys. */
+function scaledSlope(p: Prepared, s: number): number {
+  return (s * p.scaleT) / p.scaleY;
+}
+
+/**
+ * Margin that moves an interval end off a slope value, far above key rounding error: keys are
+ * within [−1, 1] + |s′|, so their rounding is ~1e-16·(1 + |s′|); across the smallest scaled gap g′
+ * a slope difference of 1e-13·(1 + |s′|)/g′ is always resolved.
+ */
 function margin(p: Prepared, s: number): number {
-  const m = (1e-13 * (p.scaleY + Math.abs(s) * p.scaleT)) / p.minGap;
-  return m > 0 ? m : 1e-300;
+  const gap = p.minGap / p.scaleT;
+  const scaled = (1e-13 * (1 + Math.abs(scaledSlope(p, s)))) / gap;
+  const m = (scaled * p.scaleY) / p.scaleT;
+  return m > 0 && Number.isFinite(m) ? m : Number.MIN_VALUE;
 }
 
 function fillKeys(p: Prepared, s: number): Float64Array {
   const { keys, tc, yc, n } = p;
   if (s === -Infinity) for (let i = 0; i < n; i++) keys[i] = tc[i] as number;
   else if (s === Infinity) for (let i = 0; i < n; i++) keys[i] = -(tc[i] as number);
-  else for (let i = 0; i < n; i++) keys[i] = (yc[i] as number) - s * (tc[i] as number);
+  else {
+    const scaled = scaledSlope(p, s);
+    for (let i = 0; i < n; i++) keys[i] = (yc[i] as number) - scaled * (tc[i] as number);
+  }
   return keys;
 }
 
@@ -241,10 +269,18 @@ function walkInterval(p: Prepared, lo: number, hi: number, rate: number, capacit
   const logKeep = rate < 1 ? Math.log(1 - rate) : 0;
   const gap = () => (rate >= 1 ? 0 : Math.floor(Math.log(1 - uniform()) / logKeep));
   let skip = gap();
+  // Each element carries its time and value, so listing a run reads memory in order.
   let srcVal = Uint32Array.from(seq);
-  let srcPos = Uint32Array.from(loOrder); // carry the point index itself
+  let srcT = new Float64Array(n);
+  let srcY = new Float64Array(n);
+  for (let r = 0; r < n; r++) {
+    const index = loOrder[r] as number;
+    srcT[r] = p.t[index] as number;
+    srcY[r] = p.y[index] as number;
+  }
   let dstVal = new Uint32Array(n);
-  let dstPos = new Uint32Array(n);
+  let dstT = new Float64Array(n);
+  let dstY = new Float64Array(n);
   for (let width = 1; width < n; width *= 2) {
     for (let start = 0; start < n; start += 2 * width) {
       const middle = Math.min(start + width, n);
@@ -254,7 +290,8 @@ function walkInterval(p: Prepared, lo: number, hi: number, rate: number, capacit
       let k = start;
       while (i < middle && j < end) {
         if ((srcVal[j] as number) < (srcVal[i] as number)) {
-          const b = srcPos[j] as number;
+          const tb = srcT[j] as number;
+          const yb = srcY[j] as number;
           const runLength = middle - i;
           while (skip < runLength) {
             if (count >= capacity) {
@@ -262,29 +299,34 @@ function walkInterval(p: Prepared, lo: number, hi: number, rate: number, capacit
               skip = Infinity; // a sample far above its expected size: keep what was drawn
               break;
             }
-            out[count++] = slopeOf(p, srcPos[i + skip] as number, b);
+            out[count++] = (yb - (srcY[i + skip] as number)) / (tb - (srcT[i + skip] as number));
             skip += 1 + gap();
           }
           skip -= runLength;
           dstVal[k] = srcVal[j] as number;
-          dstPos[k++] = b;
+          dstT[k] = tb;
+          dstY[k++] = yb;
           j++;
         } else {
           dstVal[k] = srcVal[i] as number;
-          dstPos[k++] = srcPos[i++] as number;
+          dstT[k] = srcT[i] as number;
+          dstY[k++] = srcY[i++] as number;
         }
       }
       while (i < middle) {
         dstVal[k] = srcVal[i] as number;
-        dstPos[k++] = srcPos[i++] as number;
+        dstT[k] = srcT[i] as number;
+        dstY[k++] = srcY[i++] as number;
       }
       while (j < end) {
         dstVal[k] = srcVal[j] as number;
-        dstPos[k++] = srcPos[j++] as number;
+        dstT[k] = srcT[j] as number;
+        dstY[k++] = srcY[j++] as number;
       }
     }
     [srcVal, dstVal] = [dstVal, srcVal];
-    [srcPos, dstPos] = [dstPos, srcPos];
+    [srcT, dstT] = [dstT, srcT];
+    [srcY, dstY] = [dstY, srcY];
   }
   if (rate >= 1 && count !== capacity) throw new Error('slope selection lost count of the interval (rounding); please report');
   return out.subarray(0, count);
@@ -352,14 +394,14 @@ export function selectPairwiseSlopes(t: ArrayLike<number>, y: ArrayLike<number>,
   const uniform = random.uniform;
   const found = new Map<number, number>();
   const wanted = [...new Set(ranks)].sort((a, b) => a - b);
-  const listLimit = Math.max(6 * p.n, 100_000);
-  const sampleSize = Math.max(2000, Math.min(p.n, 1_000_000));
+  const listLimit = options.listLimit ?? Math.max(6 * p.n, 100_000);
+  const sampleSize = options.sampleSize ?? Math.max(2000, Math.min(p.n, 1_000_000));
   // (the sample window keeps ±2.5 binomial standard deviations around each wanted rank)
 
   const solve = (lo: number, hi: number, below: number, inside: number, want: number[], depth: number): void => {
     if (want.length === 0) return;
     if (depth > 80) throw new Error('slope selection went too deep; please report');
-    if (inside <= listLimit) {
+    if (inside <= Math.max(listLimit, sampleSize)) {
       const slopes = walkInterval(p, lo, hi, 1, inside, uniform);
       const values = selectPositions(slopes, want.map((k) => k - below - 1));
       want.forEach((k, i) => found.set(k, values[i] as number));
@@ -375,8 +417,10 @@ export function selectPairwiseSlopes(t: ArrayLike<number>, y: ArrayLike<number>,
         sample[k++] = slopeOf(p, Math.min(a, b), Math.max(a, b));
       }
     } else {
-      const rate = sampleSize / inside;
-      sample = walkInterval(p, lo, hi, rate, Math.ceil(sampleSize + 8 * Math.sqrt(sampleSize) + 64), uniform);
+      sample =
+        sampleSize >= inside
+          ? walkInterval(p, lo, hi, 1, inside, uniform)
+          : walkInterval(p, lo, hi, sampleSize / inside, Math.ceil(sampleSize + 8 * Math.sqrt(sampleSize) + 64), uniform);
     }
     sample.sort();
     const K = sample.length;
@@ -384,7 +428,7 @@ export function selectPairwiseSlopes(t: ArrayLike<number>, y: ArrayLike<number>,
     const position = (k: number) => ((k - below) / inside) * K; // 1-based position in the sample
     const spread = (k: number) => {
       const q = (k - below) / inside;
-      return 2.5 * Math.sqrt(K * q * (1 - q)) + 2;
+      return Math.min(K / 4, 2.5 * Math.sqrt(K * q * (1 - q)) + 2);
     };
     // A repeated value at a wanted position: count its ranks exactly and split the interval there.
     for (const k of want) {
@@ -431,7 +475,18 @@ export function selectPairwiseSlopes(t: ArrayLike<number>, y: ArrayLike<number>,
       const lower = cluster.filter((r) => r <= cLo);
       const upper = cluster.filter((r) => r > cHi);
       if (inRange.length === cluster.length && cHi - cLo >= inside) {
-        // no progress (should not happen)
+        // The window spans the whole interval: chase the ranks one by one (each window is at
+        // most half the sample), or list a modest interval.
+        if (cluster.length > 1) {
+          for (const rank of cluster) solve(lo, hi, below, inside, [rank], depth + 1);
+          continue;
+        }
+        if (inside <= 64 * listLimit) {
+          const slopes = walkInterval(p, lo, hi, 1, inside, uniform);
+          const values = selectPositions(slopes, cluster.map((k) => k - below - 1));
+          cluster.forEach((k, i) => found.set(k, values[i] as number));
+          continue;
+        }
         throw new Error('slope selection made no progress; please report');
       }
       solve(newLo, newHi, cLo, cHi - cLo, inRange, depth + 1);

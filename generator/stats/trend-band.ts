@@ -15,16 +15,17 @@
  *    (Hirsch, Archfield & De Cicco 2015, "A bootstrap method for estimating uncertainty of water
  *    quality trends", Environ. Model. Softw. 73:148–166; as in the authors' EGRETci code).
  *
- * Deterministic: the same input, seed and resample count give the same band. Each resample costs
- * O(n²) for the N′ slopes (listed in one reused buffer and selected by quickselect, O(N′)); fine
- * for the tens to hundreds of values of a seasonal record.
+ * Deterministic: the same input, seed and resample count give the same band. Each refit finds
+ * the median slope exactly in one O(N′) pass without storing all N′ slopes (see medianSlope);
+ * refits multiply by stored inverse time gaps (up to 4 million pairs), which can differ from a
+ * division in the last bit.
  *
  * @example
  *   trendBand(t, y, { resamples: 500, seed: 7 }).probabilityUp; // e.g. 0.97 for a clear rise
  */
 import { createSeededRandom } from '../random/seeded-random.ts';
 import { checkConfidence } from './sens-slope.ts';
-import { quickselect } from './slope-selection.ts';
+import { countSlopePairs, quickselect } from './slope-selection.ts';
 import type { TrendBand } from './types.ts';
 
 export interface TrendBandOptions {
@@ -34,6 +35,18 @@ export interface TrendBandOptions {
   confidence?: number;
   /** block length; defaults to ⌈n^(1/3)⌉ */
   blockLength?: number;
+}
+
+/**
+ * Probability of an upward trend from bootstrap counts: (nPositive + 0.5)/(nBoot + 1)
+ * (Hirsch, Archfield & De Cicco 2015; EGRETci `wBT`).
+ * @throws when the counts are not whole numbers with 0 ≤ nPositive ≤ nBoot
+ */
+export function probabilityUpFromCounts(nPositive: number, nBoot: number): number {
+  if (!Number.isInteger(nPositive) || !Number.isInteger(nBoot) || nPositive < 0 || nPositive > nBoot) {
+    throw new Error(`probabilityUpFromCounts requires whole counts with 0 ≤ nPositive ≤ nBoot; got ${nPositive} of ${nBoot}`);
+  }
+  return (nPositive + 0.5) / (nBoot + 1);
 }
 
 /** Median of the first `count` numbers of `buffer` (reordered in place). */
@@ -46,19 +59,114 @@ function medianInPlace(buffer: Float64Array, count: number): number {
   return (lower + upper) / 2;
 }
 
-/** Theil–Sen slope and Conover intercept using a scratch buffer of at least N′ numbers. */
-export function theilSenLine(t: Float64Array, y: Float64Array, scratch: Float64Array, medianT: number): { slope: number; intercept: number } {
+/**
+ * Median pairwise slope by bracketing: a sorted sample of 1,024 random pairs gives a window around
+ * the median rank (±2.5 binomial standard deviations); one pass over all pairs counts the slopes
+ * below the window and keeps those inside it (about 8% of them), and the median is selected
+ * there. Falls back to listing every slope when the window misses (rare). Exact either way.
+ */
+function medianSlope(t: Float64Array, y: Float64Array, scratch: Float64Array, uniform: () => number, inverseGaps: Float64Array | null): number {
   const n = t.length;
+  const pairs = countSlopePairs(t);
+  const middle = (pairs + 1) / 2;
+  const lowRank = Math.floor(middle);
+  const highRank = Math.ceil(middle);
+  const sampleSize = 1024;
+  if (pairs > 4 * sampleSize) {
+    const sample = new Float64Array(sampleSize);
+    for (let k = 0; k < sampleSize; ) {
+      const a = Math.floor(uniform() * n);
+      const b = Math.floor(uniform() * n);
+      if (t[a] === t[b]) continue;
+      sample[k++] = ((y[b] as number) - (y[a] as number)) / ((t[b] as number) - (t[a] as number));
+    }
+    sample.sort();
+    const spread = 2.5 * Math.sqrt(sampleSize / 4) + 2;
+    const at = (middle / pairs) * sampleSize;
+    const lo = sample[Math.max(0, Math.floor(at - spread))] as number;
+    const hi = sample[Math.min(sampleSize - 1, Math.ceil(at + spread))] as number;
+    let below = 0;
+    let count = 0;
+    let overflow = false;
+    let pair = 0;
+    for (let i = 0; i < n && !overflow; i++) {
+      const ti = t[i] as number;
+      const yi = y[i] as number;
+      for (let j = i + 1; j < n; j++) {
+        let slope: number;
+        if (inverseGaps) {
+          if (t[j] === ti) continue;
+          slope = ((y[j] as number) - yi) * (inverseGaps[pair++] as number);
+        } else {
+          const dt = (t[j] as number) - ti;
+          if (dt === 0) continue;
+          slope = ((y[j] as number) - yi) / dt;
+        }
+        if (slope < lo) below++;
+        else if (slope <= hi) {
+          if (count === scratch.length) {
+            overflow = true;
+            break;
+          }
+          scratch[count++] = slope;
+        }
+      }
+    }
+    if (!overflow && below < lowRank && below + count >= highRank) {
+      const low = quickselect(scratch, lowRank - below - 1, 0, count);
+      if (highRank === lowRank) return low;
+      let next = Infinity;
+      for (let i = lowRank - below; i < count; i++) if ((scratch[i] as number) < next) next = scratch[i] as number;
+      return (low + next) / 2;
+    }
+  }
+  // list every slope (small series, or the window missed)
+  const all = pairs <= scratch.length ? scratch : new Float64Array(pairs);
   let count = 0;
   for (let i = 0; i < n; i++) {
     const ti = t[i] as number;
     const yi = y[i] as number;
     for (let j = i + 1; j < n; j++) {
-      const dt = (t[j] as number) - ti;
-      if (dt !== 0) scratch[count++] = ((y[j] as number) - yi) / dt;
+      if (inverseGaps) {
+        if (t[j] !== ti) {
+          all[count] = ((y[j] as number) - yi) * (inverseGaps[count] as number);
+          count++;
+        }
+      } else {
+        const dt = (t[j] as number) - ti;
+        if (dt !== 0) all[count++] = ((y[j] as number) - yi) / dt;
+      }
     }
   }
-  const slope = medianInPlace(scratch, count);
+  return medianInPlace(all, count);
+}
+
+/** 1/(t_j − t_i) for the pairs i < j with different times, in loop order (null when too many). */
+function inverseTimeGaps(t: Float64Array): Float64Array | null {
+  const pairs = countSlopePairs(t);
+  if (pairs > 4_000_000) return null;
+  const inverse = new Float64Array(pairs);
+  let k = 0;
+  for (let i = 0; i < t.length; i++) {
+    for (let j = i + 1; j < t.length; j++) {
+      const dt = (t[j] as number) - (t[i] as number);
+      if (dt !== 0) inverse[k++] = 1 / dt;
+    }
+  }
+  return inverse;
+}
+
+/** Theil–Sen slope and Conover intercept; `scratch` holds at least n numbers. */
+export function theilSenLine(
+  t: Float64Array,
+  y: Float64Array,
+  scratch: Float64Array,
+  medianT: number,
+  uniform: () => number,
+  inverseGaps: Float64Array | null = null,
+): { slope: number; intercept: number } {
+  const n = t.length;
+  const slope = medianSlope(t, y, scratch, uniform, inverseGaps);
   for (let i = 0; i < n; i++) scratch[i] = y[i] as number;
   const intercept = medianInPlace(scratch, n) - slope * medianT;
   return { slope, intercept };
@@ -90,17 +198,20 @@ export function trendBand(t: Float64Array, y: Float64Array, options: TrendBandOp
   checkConfidence(confidence);
   const n = t.length;
   if (n < 3 || t[0] === t[n - 1]) return null;
-  const scratch = new Float64Array(Math.max(n, (n * (n - 1)) / 2));
+  const pairCount = countSlopePairs(t);
+  const scratch = new Float64Array(Math.max(n, pairCount <= 4 * 1024 ? pairCount : Math.ceil(pairCount / 4)));
   const medianT = (() => {
     const sorted = Float64Array.from(t).sort();
     const mid = n >> 1;
     return n % 2 === 1 ? (sorted[mid] as number) : ((sorted[mid - 1] as number) + (sorted[mid] as number)) / 2;
   })();
-  const fit = theilSenLine(t, y, scratch, medianT);
+  const random = createSeededRandom(seed);
+  const fit = theilSenLine(t, y, scratch, medianT, random.uniform);
   const residuals = new Float64Array(n);
   for (let i = 0; i < n; i++) residuals[i] = (y[i] as number) - fit.intercept - fit.slope * (t[i] as number);
   const blockLength = Math.min(n, Math.max(1, options.blockLength ?? Math.ceil(Math.cbrt(n))));
-  const random = createSeededRandom(seed);
+  // refits multiply by stored 1/(t_j − t_i) instead of dividing (the first fit divides, as Sen's slope does)
+  const inverseGaps = inverseTimeGaps(t);
   const slopes = new Float64Array(resamples);
   const intercepts = new Float64Array(resamples);
   const resampled = new Float64Array(n);
@@ -113,7 +224,7 @@ export function trendBand(t: Float64Array, y: Float64Array, options: TrendBandOp
         resampled[filled] = fit.intercept + fit.slope * (t[filled] as number) + (residuals[start + k] as number);
       }
     }
-    const line = theilSenLine(t, resampled, scratch, medianT);
+    const line = theilSenLine(t, resampled, scratch, medianT, random.uniform, inverseGaps);
     slopes[r] = line.slope;
     intercepts[r] = line.intercept;
     if (line.slope > 0) nPositive++;
@@ -135,7 +246,7 @@ export function trendBand(t: Float64Array, y: Float64Array, options: TrendBandOp
   }
   return {
     band: { t: times, fit: fitted, lower, upper, resamples, blockLength, seed },
-    probabilityUp: (nPositive + 0.5) / (resamples + 1),
+    probabilityUp: probabilityUpFromCounts(nPositive, resamples),
     nPositive,
   };
 }

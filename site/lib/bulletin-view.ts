@@ -5,12 +5,25 @@
  */
 import type { Bulletin, Caution, IndicatorBulletin } from '../../generator/model/types.ts';
 import { renderIndicatorChart } from './chart.ts';
-import { renderMap } from './map.ts';
+import { prepareSegments, renderMap } from './map.ts';
+import type { PreparedSegments } from './map.ts';
 import type { LoadedModel } from './model.ts';
 import { bulletinsOf, regionOf } from './model.ts';
 
 export function chartFor(bulletin: Bulletin, indicator: IndicatorBulletin): string {
   return renderIndicatorChart(indicator, { cacheKey: `${bulletin.season.id}/${bulletin.segment.id}/${indicator.indicator}` });
+}
+
+const preparedCache = new Map<string, PreparedSegments>();
+/** The season's segments through TopoJSON once, shared by the region map and every locator. */
+export function preparedSegmentsOf(model: LoadedModel, seasonId: string): PreparedSegments {
+  let prepared = preparedCache.get(seasonId);
+  if (!prepared) {
+    const region = regionOf(model, seasonId);
+    prepared = prepareSegments(region.segments.map((s) => ({ id: s.id, name: s.name, level: s.level.id, levelLabel: s.level.label, geometry: s.geometry })));
+    preparedCache.set(seasonId, prepared);
+  }
+  return prepared;
 }
 
 const locatorCache = new Map<string, string>();
@@ -23,7 +36,7 @@ export function locatorFor(model: LoadedModel, bulletin: Bulletin): string {
     idPrefix: 'locator',
     title: `Where ${bulletin.segment.name} is`,
     description: `Locator map: ${bulletin.segment.name} drawn as a thick dark line inside a dashed ring, with neighbouring segments in grey.`,
-    segments: region.segments.map((s) => ({ id: s.id, name: s.name, level: s.level.id, levelLabel: s.level.label, geometry: s.geometry })),
+    segments: preparedSegmentsOf(model, bulletin.season.id),
     zones: region.zones,
     highlight: bulletin.segment.id,
     width: 420,

@@ -40,6 +40,11 @@ function tidyAria(svg: string): string {
   return svg.replace(/(<g\b[^>]*?) aria-label="[^"]*"/g, '$1').replace(/^<svg /, '<svg role="img" focusable="false" ');
 }
 
+/** The threshold's label, with its value appended unless the label already states it. */
+export function thresholdText(threshold: { value: number; label: string }): string {
+  return threshold.label.includes(String(threshold.value)) ? threshold.label : `${threshold.label} ${threshold.value}`;
+}
+
 export function seasonOfYear(seasonId: string): string {
   return seasonId.replace(/^\d{4}-/, '');
 }
@@ -80,10 +85,16 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
   if (indicator.threshold) {
     marks.push(Plot.ruleY([indicator.threshold.value], { stroke: thresholdColour, strokeWidth: 1.5, strokeDasharray: '6 4' }));
     if (!seasonal) {
-      marks.push(Plot.text([indicator.threshold.value], { y: (d: number) => d, frameAnchor: 'right', dy: -7, text: () => `${indicator.threshold!.label} ${indicator.threshold!.value}`, fill: thresholdColour, fontSize: 11, textAnchor: 'end' }));
+      marks.push(Plot.text([indicator.threshold.value], { y: (d: number) => d, frameAnchor: 'right', dy: -7, text: () => thresholdText(indicator.threshold!), fill: thresholdColour, fontSize: 11, textAnchor: 'end' }));
     }
   }
-  const facet = seasonal ? { fx: 'season' } : {};
+  // Seasons of the year as a 2 × 2 grid of panels (winter, spring / summer, autumn), each named inside its frame.
+  const seasonsPresent = seasonOrder.filter((s) => obs.some((o) => o.season === s));
+  const cell = (season: string) => { const i = seasonsPresent.indexOf(season); return { col: i % 2, row: Math.floor(i / 2) }; };
+  const facet = seasonal ? { fx: (d: { season: string }) => cell(d.season).col, fy: (d: { season: string }) => cell(d.season).row } : {};
+  if (seasonal) {
+    marks.push(Plot.text(seasonsPresent.map((season) => ({ season })), { ...facet, text: 'season', frameAnchor: 'top-left', dx: 5, dy: 5, fontWeight: 600, fill: ink }));
+  }
   marks.push(Plot.dot(obs.filter((o) => !o.censored), { x: 'date', y: 'value', r: 2.6, fill: ink, fillOpacity: 0.8, stroke: '#fff', strokeWidth: 0.6, title: 'title', ...facet }));
   marks.push(Plot.dot(obs.filter((o) => o.censored), { x: 'date', y: 'value', r: 4, symbol: 'triangle', rotate: 180, fill: '#fff', stroke: ink, strokeWidth: 1.3, title: 'title', ...facet }));
   if (seasonal) marks.push(Plot.frame({ stroke: '#c8d0d4' }));
@@ -92,14 +103,17 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
     document: document as unknown as Document,
     ariaLabel: `${indicator.label}: ${indicator.chartDescription}`,
     width,
-    height: seasonal ? 220 : 250,
+    height: seasonal ? 320 : 250,
     marginLeft: 44,
     marginRight: 16,
-    marginTop: seasonal ? 28 : 20,
+    marginTop: 20,
+    marginBottom: 30,
     style: { fontSize: '12px', fontFamily: 'inherit', color: ink, background: 'transparent', overflow: 'visible' },
-    x: { type: 'utc', label: null, ticks: seasonal ? 2 : 5, inset: 8 },
+    x: seasonal
+      ? { type: 'utc', label: null, ticks: 3, inset: 6 }
+      : { type: 'utc', label: null, ticks: 5, inset: 8 },
     y: { label: indicator.unitShort, grid: false, zero: true, nice: true },
-    ...(seasonal ? { fx: { domain: seasonOrder.filter((s) => obs.some((o) => o.season === s)), label: null, padding: 0.08 } } : {}),
+    ...(seasonal ? { fx: { axis: null, padding: 0.06 }, fy: { axis: null, padding: 0.1 } } : {}),
     marks,
   });
   const svg = tidyAria(roundSvgNumbers((plot as unknown as { outerHTML: string }).outerHTML));

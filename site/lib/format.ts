@@ -55,6 +55,12 @@ export function safeTel(phone: string | null | undefined): string | null {
   return /^\+?[0-9]{3,20}$/.test(digits) ? `tel:${digits}` : null;
 }
 
+/** JSON for a <script type="application/ld+json"> block: <, > and & become \u escapes, so the
+ * text can never close the element or open a comment, and the JSON value is unchanged. */
+export function jsonLdText(value: unknown): string {
+  return JSON.stringify(value).replace(/</g, '\\u003c').replace(/>/g, '\\u003e').replace(/&/g, '\\u0026');
+}
+
 export const directionWords: Record<Direction, string> = {
   rising: 'Rising',
   falling: 'Falling',

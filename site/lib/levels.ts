@@ -44,7 +44,15 @@ const piePaths: Record<number, string> = {
   3: 'M8 8V1.5A6.5 6.5 0 1 1 1.5 8Z',
   4: 'M8 1.5A6.5 6.5 0 1 1 7.99 1.5Z',
 };
+/** The four pie glyphs as SVG symbols, defined once per page (in the layout) and drawn with <use>. */
+export function levelGlyphSymbols(): string {
+  const symbols = levelOrder.map((id) => {
+    const s = levelStyles[id];
+    return `<symbol id="wl-lv-${s.rank}" viewBox="0 0 16 16"><circle cx="8" cy="8" r="6.5" fill="#fff" stroke="#1f2a33" stroke-width="1.2"/><path d="${piePaths[s.rank]}" fill="${s.fill}" stroke="#1f2a33" stroke-width="1.2"/></symbol>`;
+  });
+  return `<svg class="sprite" width="0" height="0" aria-hidden="true" focusable="false">${symbols.join('')}</svg>`;
+}
+
 export function levelGlyph(level: LevelId): string {
-  const s = levelStyles[level];
-  return `<svg class="lv-glyph" width="16" height="16" viewBox="0 0 16 16" aria-hidden="true" focusable="false"><circle cx="8" cy="8" r="6.5" fill="#fff" stroke="#1f2a33" stroke-width="1.2"/><path d="${piePaths[s.rank]}" fill="${s.fill}" stroke="#1f2a33" stroke-width="1.2"/></svg>`;
+  return `<svg class="lv-glyph" width="16" height="16" viewBox="0 0 16 16" aria-hidden="true" focusable="false"><use href="#wl-lv-${levelStyles[level].rank}"/></svg>`;
 }

@@ -22,11 +22,17 @@ export interface MapSegment {
   geometry: Geometry;
 }
 
+/** Segments after the TopoJSON round trip, with their lon/lat bounds; prepare once per season. */
+export interface PreparedSegments {
+  features: Feature<Geometry, Props>[];
+  bounds: [[number, number], [number, number]][];
+}
+
 export interface MapOptions {
   idPrefix: string;                 // makes <title>/<desc> ids unique on the page
   title: string;
   description: string;
-  segments: MapSegment[];
+  segments: PreparedSegments;
   zones?: AccumulationZone[];
   highlight?: string | null;        // segment id for a locator map
   width?: number;                   // defaults to 640
@@ -51,6 +57,11 @@ function rewindGeometry(geometry: Geometry): Geometry {
   return geometry;
 }
 
+export function prepareSegments(segments: MapSegment[]): PreparedSegments {
+  const features = viaTopology(segments);
+  return { features, bounds: features.map((f) => geoBounds(f)) };
+}
+
 function viaTopology(segments: MapSegment[]): Feature<Geometry, Props>[] {
   const collection: FeatureCollection<Geometry, Props> = {
     type: 'FeatureCollection',
@@ -65,13 +76,38 @@ function isArea(geometry: Geometry): boolean {
   return geometry.type === 'Polygon' || geometry.type === 'MultiPolygon';
 }
 
+const badgeRadius = 8;
+
+/**
+ * Numbered level badges beside the lines (so the line style stays visible), placed greedily,
+ * highest level first, with a thin leader to the segment's centre; a badge that would overlap
+ * another is left out (the table lists every segment and level).
+ */
+function placeBadges(items: { centre: [number, number]; level: LevelId }[], width: number): string[] {
+  const placed: [number, number][] = [];
+  const out: string[] = [];
+  const order = [...items].sort((a, b) => levelStyles[b.level].rank - levelStyles[a.level].rank);
+  const free = (x: number, y: number) => x > badgeRadius && x < width - badgeRadius && placed.every(([px, py]) => Math.hypot(px - x, py - y) >= 2 * badgeRadius + 2);
+  for (const { centre, level } of order) {
+    if (!Number.isFinite(centre[0]) || !Number.isFinite(centre[1])) continue;
+    const spot = [24, -24, 44, -44].map((dx) => [centre[0] + dx, centre[1]] as [number, number]).find(([x, y]) => free(x, y));
+    if (!spot) continue;
+    placed.push(spot);
+    const style = levelStyles[level];
+    const [x, y] = [spot[0].toFixed(1), spot[1].toFixed(1)];
+    const leader = `<path d="M${centre[0].toFixed(1)} ${centre[1].toFixed(1)}H${(spot[0] + (spot[0] > centre[0] ? -badgeRadius : badgeRadius)).toFixed(1)}" stroke="#1f2a33" stroke-width="0.8"/>`;
+    out.push(`<g class="badge">${leader}<circle cx="${x}" cy="${y}" r="${badgeRadius}" fill="${style.fill}" stroke="#1f2a33" stroke-width="1.2"/><text x="${x}" y="${y}" dy="0.35em" text-anchor="middle" font-size="10" font-weight="700" fill="${style.rank >= 3 ? '#fff' : '#1f2a33'}">${style.rank}</text></g>`);
+  }
+  return out;
+}
+
 const niceKm = [0.5, 1, 2, 5, 10, 20, 50, 100, 200, 500];
 
 export function renderMap(options: MapOptions): string {
   const width = options.width ?? 640;
   const pad = 16;
   const highlight = options.highlight ?? null;
-  let features = viaTopology(options.segments);
+  let features = options.segments.features;
   const zones = (options.zones ?? []).filter((z) => z.hull.length >= 4).map((z) => ({
     zone: z,
     feature: { type: 'Feature', properties: {}, geometry: rewindForD3({ type: 'Polygon', coordinates: [z.hull] }) } as Feature<Polygon>,
@@ -80,17 +116,18 @@ export function renderMap(options: MapOptions): string {
   // Frame: the whole region, or for a locator the highlighted segment with its surroundings.
   let frame: GeoPermissibleObjects = { type: 'FeatureCollection', features: [...features, ...zones.map((z) => z.feature)] } as FeatureCollection;
   if (highlight) {
-    const target = features.find((f) => f.properties.id === highlight);
+    const index = features.findIndex((f) => f.properties.id === highlight);
+    const target = features[index];
     if (target) {
-      const [[w, s], [e, n]] = geoBounds(target);
+      const [[w, s], [e, n]] = options.segments.bounds[index]!;
       const spanLon = Math.max(e - w, 0.08) * 1.6;
       const spanLat = Math.max(n - s, 0.05) * 1.6;
       const cx = (w + e) / 2;
       const cy = (s + n) / 2;
       const win = [cx - spanLon, cy - spanLat, cx + spanLon, cy + spanLat] as const;
       frame = { type: 'MultiPoint', coordinates: [[win[0], win[1]], [win[2], win[3]]] };
-      features = features.filter((f) => {
-        const [[fw, fs], [fe, fn]] = geoBounds(f);
+      features = features.filter((_, i) => {
+        const [[fw, fs], [fe, fn]] = options.segments.bounds[i]!;
         return fe >= win[0] && fw <= win[2] && fn >= win[1] && fs <= win[3];
       });
     }
@@ -142,28 +179,23 @@ export function renderMap(options: MapOptions): string {
     if (area) {
       parts.push(`<path d="${d}" fill="url(#${options.idPrefix}-pat-${style.rank})" stroke="${style.stroke}" stroke-width="1.5">${title}</path>`);
     } else {
-      parts.push(`<path d="${d}" fill="none" stroke="#fff" stroke-width="${w + 3}" stroke-linecap="round" stroke-linejoin="round"/>`);
+      // a white casing separates touching segments; left out on crowded maps to keep pages small
+      if (features.length <= 150 || isTarget) parts.push(`<path d="${d}" fill="none" stroke="#fff" stroke-width="${w + 3}" stroke-linecap="round" stroke-linejoin="round"/>`);
       parts.push(`<path d="${d}" fill="none" stroke="${isTarget ? '#1f2a33' : style.stroke}" stroke-width="${w}" stroke-linecap="round" stroke-linejoin="round"${dash}>${title}</path>`);
     }
   }
 
   const badges = options.badges ?? (!highlight && features.length < 80);
-  if (badges || highlight) {
-    for (const f of ordered) {
-      if (highlight && f.properties.id !== highlight) continue;
-      const c = path.centroid(f);
-      if (!Number.isFinite(c[0])) continue;
-      const style = levelStyles[f.properties.level];
-      const [x, y] = [c[0].toFixed(1), c[1].toFixed(1)];
-      if (highlight) {
-        const [[x0, y0], [x1, y1]] = path.bounds(f);
-        const ring = Math.min(Math.max(Math.hypot(x1 - x0, y1 - y0) / 2 + 10, 16), 120);
-        parts.push(`<circle cx="${x}" cy="${y}" r="${ring.toFixed(1)}" fill="none" stroke="#1f2a33" stroke-width="2" stroke-dasharray="4 3"/>`);
-      } else {
-        const dark = style.rank >= 3;
-        parts.push(`<g class="badge"><circle cx="${x}" cy="${y}" r="9" fill="${style.fill}" stroke="#1f2a33" stroke-width="1.2"/><text x="${x}" y="${y}" dy="0.35em" text-anchor="middle" font-size="11" font-weight="700" fill="${dark ? '#fff' : '#1f2a33'}">${style.rank}</text></g>`);
-      }
+  if (highlight) {
+    const target = ordered.find((f) => f.properties.id === highlight);
+    const c = target ? path.centroid(target) : null;
+    if (target && c && Number.isFinite(c[0])) {
+      const [[x0, y0], [x1, y1]] = path.bounds(target);
+      const ring = Math.min(Math.max(Math.hypot(x1 - x0, y1 - y0) / 2 + 10, 16), 120);
+      parts.push(`<circle cx="${c[0].toFixed(1)}" cy="${c[1].toFixed(1)}" r="${ring.toFixed(1)}" fill="none" stroke="#1f2a33" stroke-width="2" stroke-dasharray="4 3"/>`);
     }
+  } else if (badges) {
+    parts.push(...placeBadges(ordered.map((f) => ({ centre: path.centroid(f), level: f.properties.level })), width));
   }
 
   // Scale bar, bottom left: distance of 100 px at mid-height, rounded to a nice length.

@@ -4,7 +4,7 @@
  */
 import fc from 'fast-check';
 import { describe, expect, test } from 'vitest';
-import { phraseTrend, printedRate, type TrendPhraseInput } from '../../generator/bulletin/phrase-trend.ts';
+import { intervalWords, noneReportedSentences, phraseTrend, printedRate, rateSentences, unitAfter, type TrendPhraseInput } from '../../generator/bulletin/phrase-trend.ts';
 import type { Direction } from '../../generator/model/types.ts';
 import type { TrendResult } from '../../generator/stats/types.ts';
 
@@ -43,38 +43,82 @@ describe('trend sentences, one per template path', () => {
     expect(phraseTrend(input('rising', trendOf(6.2, 2.3, 10.1, 0.0004)))).toEqual([
       'Beach litter is going up.',
       'A rise is very likely: the chance is 94 in 100.',
-      'That is about 6 more items per 100 m of beach each year. The 95% range is 2 to 10.',
+      'That is about 6 more items per 100 m of beach each year.',
+      'The 95% confidence interval runs from 2 to 10 more.',
       'This rests on 24 samples from 2020 to 2026.',
     ]);
   });
 
-  test('falling: the chance is that of a fall, 1 − P(up), and the range is told as sizes of the fall', () => {
+  test('falling: the chance is that of a fall, 1 − P(up), and the interval is told as sizes of the fall', () => {
     expect(phraseTrend(input('falling', trendOf(-0.83, -1.24, -0.41, 0.001), { probabilityUp: 0.02 }))).toEqual([
       'Beach litter is going down.',
       'A fall is highly likely: the chance is 98 in 100.',
-      'That is about 0.8 fewer items per 100 m of beach each year. The 95% range is 0.4 to 1.2 fewer.',
+      'That is about 0.8 fewer items per 100 m of beach each year.',
+      'The 95% confidence interval runs from 0.4 to 1.2 fewer.',
       'This rests on 24 samples from 2020 to 2026.',
     ]);
   });
 
-  test('no clear direction: no rise or fall is claimed, and the range shows it could be no change', () => {
+  test('no clear direction: no rise or fall is claimed, and the interval shows it could be no change', () => {
     expect(phraseTrend(input('no-clear-direction', trendOf(2.6, -1.8, 7.2, 0.21), { qValue: 0.42, probabilityUp: 0.81 }))).toEqual([
       'We cannot tell if beach litter is going up or down.',
       'The change we see could be chance.',
-      'Our best guess is a change of +3 items per 100 m of beach a year. The 95% range is \u22122 to 7. That range takes in no change at all.',
+      'Our best guess is about 3 more items per 100 m of beach each year.',
+      'But the 95% confidence interval runs from 2 fewer to 7 more, so there may be no change at all.',
       'This rests on 24 samples from 2020 to 2026.',
+    ]);
+  });
+
+  test('a negative best guess is said as "fewer", with a singular unit after 1', () => {
+    expect(phraseTrend(input('no-clear-direction', trendOf(-1.2, -4.1, 1.9, 0.5), { qValue: 0.7 })).slice(2, 4)).toEqual([
+      'Our best guess is about 1 fewer item per 100 m of beach each year.',
+      'But the 95% confidence interval runs from 4 fewer to 2 more, so there may be no change at all.',
     ]);
   });
 
   test('no clear direction after the false-discovery check: p alone is below the rate, q is not', () => {
-    expect(phraseTrend(input('no-clear-direction', trendOf(4.1, 0.9, 7.6, 0.03), { qValue: 0.11 })).slice(0, 3)).toEqual([
+    expect(phraseTrend(input('no-clear-direction', trendOf(4.1, 0.9, 7.6, 0.03), { qValue: 0.11 })).slice(0, 4)).toEqual([
       'We cannot tell if beach litter is going up or down.',
-      'On its own this place seems to change. But we test 12 places at once, and a change this size could be chance.',
-      'Our best guess is a change of +4 items per 100 m of beach a year. The 95% range is 1 to 8.',
+      'On its own this place seems to show a change. But we test 12 places at once, and a change this size could be chance.',
+      'Our best guess is about 4 more items per 100 m of beach each year.',
+      'The 95% confidence interval runs from 1 to 8 more.',
     ]);
   });
 
-  test('too little data, with the reason', () => {
+  test('q below the rate but a slope of exactly 0 (many tied counts): no direction, said plainly', () => {
+    const trend = trendOf(0, 0, 0.23, 0.001);
+    expect(
+      phraseTrend(
+        input('no-clear-direction', trend, {
+          subject: 'The number of animals harmed by litter',
+          unit: 'animals reported per season',
+          qValue: 0.01,
+          samples: { count: 39, firstYear: 2017, lastYear: 2026, noun: 'seasons' },
+        }),
+      ),
+    ).toEqual([
+      'We cannot tell if the number of animals harmed by litter is going up or down.',
+      'The values hint at a change, but our best estimate of the yearly change is zero, so we do not call it a rise or a fall.',
+      'Our best guess is close to no change.',
+      'The 95% confidence interval runs from no change to 0.2 more animals reported per season each year.',
+      'This rests on 39 seasons from 2017 to 2026.',
+    ]);
+  });
+
+  test('counts that are the same in most seasons get no yearly rate', () => {
+    const sentences = phraseTrend(
+      input('no-clear-direction', trendOf(0, 0, 0, 0.6), {
+        subject: 'The number of animals harmed by litter',
+        unit: 'animals reported per season',
+        qValue: 0.9,
+        samples: { count: 40, firstYear: 2017, lastYear: 2026, noun: 'seasons' },
+      }),
+    );
+    expect(sentences[2]).toBe('Most seasons had the same count, so we cannot give a yearly rate of change.');
+    expect(sentences.join(' ')).not.toMatch(/0 to 0/);
+  });
+
+  test('too little data, with the reason in everyday words', () => {
     const trend: TrendResult = {
       n: 6,
       nCensored: 0,
@@ -82,10 +126,39 @@ describe('trend sentences, one per template path', () => {
       sen: null,
       insufficient: { rule: 'min-values', reason: 'only 6 seasons have samples, and we need at least 8' },
     };
-    expect(phraseTrend(input('too-little-data', trend, { samples: { count: 6, firstYear: 2025, lastYear: 2026 } }))).toEqual([
-      'Too little data to say if beach litter is changing: only 6 seasons have samples, and we need at least 8.',
+    expect(phraseTrend(input('too-little-data', trend, { minValues: 8, samples: { count: 6, firstYear: 2025, lastYear: 2026 } }))).toEqual([
+      'Too little data to say if beach litter is changing.',
+      'Only 6 seasons have samples so far, and we need at least 8.',
       'This rests on 6 samples from 2025 to 2026.',
     ]);
+  });
+
+  test('too little data because most values are below what the lab can measure: said once', () => {
+    const trend: TrendResult = {
+      n: 35,
+      nCensored: 27,
+      mannKendall: null,
+      sen: null,
+      insufficient: { rule: 'mostly-censored', reason: 'most values are below the detection limit' },
+    };
+    expect(
+      phraseTrend(
+        input('too-little-data', trend, {
+          subject: 'Plastic in the sea water',
+          unit: 'particles per cubic metre of water',
+          samples: { count: 35, firstYear: 2017, lastYear: 2026 },
+        }),
+      ),
+    ).toEqual([
+      'Too little data to say if plastic in the sea water is changing.',
+      'In 27 of 35 seasons, the plastic was too little for the lab to measure.',
+      'This rests on 35 samples from 2017 to 2026.',
+    ]);
+  });
+
+  test('too little data because the samples cover too few years', () => {
+    const trend: TrendResult = { n: 9, nCensored: 0, mannKendall: null, sen: null, insufficient: { rule: 'short-span', reason: 'values span less than 5 years' } };
+    expect(phraseTrend(input('too-little-data', trend, { minYears: 5 }))[1]).toBe('The samples so far cover less than 5 years, and we need at least 5.');
   });
 
   test('no samples at all', () => {
@@ -114,7 +187,7 @@ describe('trend sentences, one per template path', () => {
     ).toEqual([
       'We cannot tell if plastic in shellfish is going up or down.',
       'The change we see could be chance.',
-      '9 of 20 values were too low for the lab to measure.',
+      'In 9 of 20 seasons, the plastic was too little for the lab to measure.',
       'So we give no yearly rate of change.',
       'This rests on 20 samples from 2021 to 2026.',
     ]);
@@ -146,14 +219,66 @@ describe('trend sentences, one per template path', () => {
     expect(sentences).toContain('The seasons do not agree: it went up in spring and summer but down in winter and autumn.');
   });
 
+  test('an uncertain change that rounds to 0 is said as close to no change', () => {
+    expect(phraseTrend(input('no-clear-direction', trendOf(0.2, -1.6, 2.1, 0.8), { qValue: 0.9 })).slice(2, 4)).toEqual([
+      'Our best guess is close to no change.',
+      'The 95% confidence interval runs from 2 fewer to 2 more items per 100 m of beach each year.',
+    ]);
+  });
+
+  test('a chance that rounds to 100 or 0 in 100 is not printed as certain', () => {
+    expect(phraseTrend(input('rising', trendOf(6.2, 2.3, 10.1, 0.0004), { probabilityUp: 0.999 }))[1]).toBe(
+      'A rise is highly likely: the chance is more than 99 in 100.',
+    );
+    expect(phraseTrend(input('falling', trendOf(-6.2, -10.1, -2.3, 0.0004), { probabilityUp: 0.001 }))[1]).toBe(
+      'A fall is highly likely: the chance is more than 99 in 100.',
+    );
+  });
+
   test('a claimed rise is never printed as a change of 0', () => {
     const sentences = phraseTrend(input('rising', trendOf(0.04, 0.01, 0.9, 0.001)));
-    expect(sentences[2]).toBe('That is about 0.04 more items per 100 m of beach each year. The 95% range is 0.01 to 0.90.');
+    expect(sentences.slice(2, 4)).toEqual([
+      'That is about 0.04 more items per 100 m of beach each year.',
+      'The 95% confidence interval runs from 0.01 to 0.90 more.',
+    ]);
   });
 });
 
+describe('interval and unit words', () => {
+  test('an interval is told as plain amounts, never signed', () => {
+    expect(intervalWords(2, 10, 0)).toBe('2 to 10 more');
+    expect(intervalWords(-1.2, -0.4, 1)).toBe('0.4 to 1.2 fewer');
+    expect(intervalWords(-2, 7, 0)).toBe('2 fewer to 7 more');
+    expect(intervalWords(0, 0.5, 1)).toBe('no change to 0.5 more');
+    expect(intervalWords(-0.02, 0, 2)).toBe('0.02 fewer to no change');
+  });
+  test('the unit after exactly 1 is singular', () => {
+    expect(unitAfter('1', 'items per 100 m of beach')).toBe('item per 100 m of beach');
+    expect(unitAfter('1', 'animals reported per season')).toBe('animal reported per season');
+    expect(unitAfter('1.5', 'items per 100 m of beach')).toBe('items per 100 m of beach');
+    expect(unitAfter('0.1', 'particles per cubic metre of water')).toBe('particles per cubic metre of water');
+    expect(unitAfter('1', 'items/100 m')).toBe('item/100 m');
+    expect(unitAfter('1', 'animals')).toBe('animal');
+  });
+  test('the interval never uses a word of the Hirsch et al. (2015) likelihood scheme', () => {
+    const words = /\b(likely|unlikely|probably|probable|chance)\b/;
+    for (const [slope, lower, upper] of [[6.2, 2.3, 10.1], [-0.83, -1.24, -0.41], [2.6, -1.8, 7.2], [0.2, -1.6, 2.1]] as const) {
+      for (const direction of ['rising', 'falling', 'no-clear-direction'] as const) {
+        for (const s of rateSentences(input(direction, trendOf(slope, lower, upper, 0.01)))) expect(s).not.toMatch(words);
+      }
+    }
+  });
+});
+
+/** The numbers an interval prints, in reading order (zeros are the words "no change"). */
+function intervalNumbers(lower: number, upper: number): number[] {
+  if (lower > 0) return [lower, upper];
+  if (upper < 0) return [-upper, -lower];
+  return [lower, upper].filter((x) => x !== 0).map(Math.abs);
+}
+
 describe('numbers in sentences equal the model numbers after the stated rounding', () => {
-  test('slope and range in the sentence are the width-rounded model values', () => {
+  test('slope and interval in the sentences are the width-rounded model values, as sizes with more/fewer', () => {
     fc.assert(
       fc.property(
         fc.double({ min: -500, max: 500, noNaN: true }),
@@ -163,13 +288,19 @@ describe('numbers in sentences equal the model numbers after the stated rounding
           const trend = trendOf(slope, slope - below, slope + above, 0.2);
           const phrase = input('no-clear-direction', trend, { qValue: 0.5 });
           const rate = printedRate(phrase);
-          if (!rate) return false;
-          const sentence = phraseTrend(phrase)[2] ?? '';
-          const numbers = [...sentence.matchAll(/[+\u2212]?[\d,]+(?:\.\d+)?/g)].map((m) =>
-            Number(m[0].replace(/,/g, '').replace('\u2212', '-')),
-          );
-          // [slope, 100 (from the unit), 95 (confidence), lower, upper]
-          return numbers[0] === rate.slope && numbers[3] === rate.lower && numbers[4] === rate.upper;
+          if (!rate || rate.lower === null || rate.upper === null) return false;
+          const text = rateSentences(phrase).join(' ');
+          if (/[+\u2212-]\d/.test(text)) return false; // no signed numbers
+          const numbers = [...text.matchAll(/\d[\d,]*(?:\.\d+)?/g)].map((m) => Number(m[0].replace(/,/g, '')));
+          if (rate.slope === 0 && rate.lower === 0 && rate.upper === 0) return numbers.length === 0;
+          const interval = intervalNumbers(rate.lower, rate.upper);
+          if (rate.slope === 0) {
+            // "close to no change. The 95% confidence interval runs from <a> to <b> items per 100 m …"
+            return JSON.stringify(numbers) === JSON.stringify([95, ...interval, 100]);
+          }
+          // "about <|slope|> more|fewer items per 100 m … The 95% confidence interval runs from …"
+          const sizeFirst = numbers[0] === Math.abs(rate.slope) && text.includes(` ${rate.text.slope.replace('\u2212', '')} ${rate.slope > 0 ? 'more' : 'fewer'} `);
+          return sizeFirst && JSON.stringify(numbers.slice(1)) === JSON.stringify([100, 95, ...interval]);
         },
       ),
       { numRuns: 300 },
@@ -178,7 +309,9 @@ describe('numbers in sentences equal the model numbers after the stated rounding
 });
 
 describe('no sentence claims a trend the false-discovery check does not support', () => {
-  const claimWords = /going up\.|going down\.|more .* each year|fewer .* each year|A rise is|A fall is/;
+  // Claims: "… is going up." / "… is going down.", the likelihood of a direction, and a claimed
+  // rate, which always starts "That is about"; uncertain rates start "Our best guess".
+  const claimWords = /going up\.|going down\.|^That is about|A rise is|A fall is/;
   test('direction other than rising/falling never yields claim words, whatever the numbers', () => {
     fc.assert(
       fc.property(
@@ -189,10 +322,23 @@ describe('no sentence claims a trend the false-discovery check does not support'
         (slope, p, probabilityUp, direction) => {
           const trend = trendOf(slope, slope - 1, slope + 1, p);
           const sentences = phraseTrend(input(direction, trend, { qValue: Math.max(0.05, p), probabilityUp }));
-          return sentences.every((s) => !claimWords.test(s));
+          const rates = rateSentences(input(direction, trend, { qValue: Math.max(0.05, p), probabilityUp }));
+          return sentences.every((s) => !claimWords.test(s)) && rates.every((s) => /^(Our best guess|But the|The 95%|Most )/.test(s));
         },
       ),
       { numRuns: 300 },
     );
+  });
+  test('a claimed direction always says so in its first sentence', () => {
+    expect(phraseTrend(input('rising', trendOf(6.2, 2.3, 10.1, 0.0004)))[0]).toMatch(claimWords);
+    expect(phraseTrend(input('falling', trendOf(-6.2, -10.1, -2.3, 0.0004), { probabilityUp: 0.01 }))[0]).toMatch(claimWords);
+  });
+});
+
+describe('counts with nothing reported', () => {
+  test('say that nothing was reported rather than "too little data"', () => {
+    expect(noneReportedSentences('animals harmed by litter', 2017, 2026)).toEqual([
+      'No animals harmed by litter were reported here from 2017 to 2026, so there is no trend to tell.',
+    ]);
   });
 });

@@ -139,3 +139,17 @@ describe('demo drift files', () => {
     expect(sizes.reduce((a, b) => a + b, 0)).toBe(lon.length);
   });
 });
+
+describe('demo README', () => {
+  test('lists every segment with the pattern it shows, and says the data is invented', async () => {
+    const { SEGMENT_PLANS } = await import('../../content/demo/coast.ts');
+    const { SEGMENT_RECIPES } = await import('../../content/demo/monitoring.ts');
+    expect(SEGMENT_RECIPES.map((recipe) => recipe.segmentId)).toEqual(SEGMENT_PLANS.map((plan) => plan.id));
+    const readme = readFileSync(join(DEMO_DIR, 'README.md'), 'utf8');
+    expect(readme).toMatch(/invented for demonstration/i);
+    for (const recipe of SEGMENT_RECIPES) {
+      expect(recipe.shows.length, recipe.segmentId).toBeGreaterThan(0);
+      expect(readme, recipe.segmentId).toContain(`| \`${recipe.segmentId}\` |`);
+    }
+  });
+});

@@ -24,19 +24,19 @@ async function load(): Promise<LoadedScenario> {
 }
 
 describe('demo through the real readers', () => {
-  test.skipIf(!haveLoader)('reads 30 segments, all four indicators, drift arrivals and exactly the three bad rows as errors', async () => {
+  test.skipIf(!haveLoader)('reads 30 segments, all four indicators, drift arrivals, and leaves out exactly the three bad rows', async () => {
     const scenario = await load();
     expect(scenario.segments).toHaveLength(30);
     const indicators = new Set(scenario.records.map((record) => record.indicator));
     for (const id of ['beach-litter', 'water-microplastics', 'shellfish-tissue', 'wildlife-reports']) expect(indicators.has(id as never), id).toBe(true);
     expect(scenario.records.some((record) => record.censored)).toBe(true);
-    const errors = scenario.report.issues.filter((issue) => issue.severity === 'error');
-    const described = errors.map((issue) => `${issue.file} ${issue.column} ${issue.value}`);
-    expect(described, JSON.stringify(errors, null, 1)).toHaveLength(3);
-    expect(errors.some((issue) => issue.file.endsWith('beach-litter.csv') && issue.value === '-4')).toBe(true);
-    expect(errors.some((issue) => issue.file.endsWith('water-microplastics.csv') && issue.value === 'north-spit')).toBe(true);
-    expect(errors.some((issue) => issue.file.endsWith('shellfish-tissue.csv') && issue.value === '2027-02-14')).toBe(true);
-    for (const issue of errors) expect(issue.excluded).toBe(true);
+    // Exactly the three deliberate bad rows are left out, each named by file, column and value.
+    const excluded = scenario.report.issues.filter((issue) => issue.excluded);
+    expect(excluded, JSON.stringify(scenario.report.issues, null, 1)).toHaveLength(3);
+    expect(excluded.some((issue) => issue.file.endsWith('beach-litter.csv') && issue.column === 'items' && issue.value === '-4')).toBe(true);
+    expect(excluded.some((issue) => issue.file.endsWith('water-microplastics.csv') && issue.column === 'segment_id' && issue.value === 'north-spit')).toBe(true);
+    expect(excluded.some((issue) => issue.file.endsWith('shellfish-tissue.csv') && issue.column === 'date' && issue.value === '2027-02-14')).toBe(true);
+    for (const issue of excluded) expect(issue.row).toBeGreaterThan(1);
     expect(scenario.drift?.arrivals.length ?? 0).toBeGreaterThan(0);
   }, 120_000);
 

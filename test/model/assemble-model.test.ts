@@ -48,9 +48,10 @@ describe('assembleModel on a small invented scenario', () => {
     expect(north.sentences[0]).toBe('We cannot tell if beach litter is going up or down.');
     const west = bulletin('2026-autumn', 'west-cove').indicators.find((i) => i.indicator === 'beach-litter')!;
     expect(west.direction).toBe('too-little-data');
-    expect(west.sentences[0]).toBe(
-      'Too little data to say if beach litter is changing: only 4 seasons have samples, and we need at least 8.',
-    );
+    expect(west.sentences.slice(0, 2)).toEqual([
+      'Too little data to say if beach litter is changing.',
+      'Only 4 seasons have samples so far, and we need at least 8.',
+    ]);
   });
 
   test('every claim of a rise or fall in any sentence has q below the rate', () => {
@@ -66,10 +67,25 @@ describe('assembleModel on a small invented scenario', () => {
     const east = bulletin('2026-autumn', 'east-bay');
     expect(east.level.id).not.toBe('scant');
     expect(east.level.hits.length).toBeGreaterThan(0);
-    expect(east.summary[0]).toBe(`The level this season is ${east.level.label} (level ${east.level.rank} of 4).`);
+    const now = `The level this season is ${east.level.label} (level ${east.level.rank} of 4)`;
+    const before = `${east.previousLevel!.label} (level ${east.previousLevel!.rank} of 4)`;
+    expect(east.summary[0]).toBe(
+      east.previousLevel!.rank === east.level.rank
+        ? `${now}, the same as last season.`
+        : `${now}, ${east.level.rank > east.previousLevel!.rank ? 'up' : 'down'} from ${before} last season.`,
+    );
     expect(east.previousSeason?.id).toBe('2026-summer');
     expect(east.previousLevel).not.toBeNull();
     expect(bulletin('2026-summer', 'east-bay').previousSeason?.id).toBe('2026-spring');
+  });
+
+  test('the previous season is marked published only when it has a bulletin of its own', () => {
+    // 2026-spring comes before the first published season (2026-summer): there is no bulletin to link.
+    expect(bulletin('2026-summer', 'east-bay').previousSeasonPublished).toBe(false);
+    expect(bulletin('2026-autumn', 'east-bay').previousSeasonPublished).toBe(true);
+    for (const b of set.bulletins) {
+      expect(b.previousSeasonPublished).toBe(set.site.seasons.some((s) => s.id === b.previousSeason?.id));
+    }
   });
 
   test('shellfish bulletins carry the cautions and the authority contact; others have no shellfish cautions', () => {
@@ -87,7 +103,8 @@ describe('assembleModel on a small invented scenario', () => {
   test('censored shellfish values are said', () => {
     const tissue = bulletin('2026-autumn', 'east-bay').indicators.find((i) => i.indicator === 'shellfish-tissue')!;
     expect(tissue.trend?.nCensored).toBe(8);
-    expect(tissue.sentences).toContain('8 of 32 values were too low for the lab to measure.');
+    expect(tissue.sentences).toContain(`In 8 of ${tissue.trend?.n} seasons, the plastic was too little for the lab to measure.`);
+    expect(tissue.trend?.n).toBe(32);
   });
 
   test('permalink, correction and citation', () => {
@@ -113,6 +130,17 @@ describe('assembleModel on a small invented scenario', () => {
       const text = await readFile(join(dir, 'bulletins', '2026-autumn', 'east-bay.json'), 'utf8');
       expect(text.endsWith('}\n')).toBe(true);
       expect(text.split('\n')[1]).toBe('  "authorities": [');
+    } finally {
+      await rm(dir, { recursive: true, force: true });
+    }
+  });
+
+  test('writeModel refuses a segment id that is not a safe file name', async () => {
+    const dir = await mkdtemp(join(tmpdir(), 'wrackline-model-'));
+    try {
+      const first = set.bulletins[0]!;
+      const bad = { ...set, bulletins: [{ ...first, segment: { ...first.segment, id: '../escape' } }] };
+      await expect(writeModel(dir, bad)).rejects.toThrow('writeModel: segment "../escape" is not a safe file name');
     } finally {
       await rm(dir, { recursive: true, force: true });
     }

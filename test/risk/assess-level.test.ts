@@ -1,6 +1,7 @@
 import { describe, expect, test } from 'vitest';
 import { assessLevel, regionPercentile, type IndicatorMeasures } from '../../generator/risk/assess-level.ts';
 import { defaultRiskRules } from '../../generator/risk/default-rules.ts';
+import { explainLevelChange } from '../../generator/risk/explain-change.ts';
 import { median } from '../../generator/model/series.ts';
 import type { RiskRule } from '../../generator/scenario/settings.ts';
 
@@ -12,7 +13,7 @@ describe('levels from the default rule table', () => {
   test('no measure matches: scant, with no hits', () => {
     expect(assessLevel(defaultRiskRules, {})).toEqual({ id: 'scant', rank: 1, label: 'Scant', hits: [] });
   });
-  test('median beach litter 21.5 is above the EU threshold value of 20 → noticeable', () => {
+  test('median beach litter 21.5 is above the EU threshold value of 20 → noticeable (called a threshold value, never a limit)', () => {
     // Van Loon et al. 2020: compliance is the median against 20 items/100 m. Surveys [25, 12, 30, 18]
     // → median 21.5 (check value 14).
     const m = median([25, 12, 30, 18]);
@@ -23,7 +24,7 @@ describe('levels from the default rule table', () => {
       {
         ruleId: 'litter-at-eu-threshold',
         level: 'noticeable',
-        text: 'Beach litter in the last four seasons has a median of 22 items per 100 m. That is at or above the EU limit of 20.',
+        text: 'Beach litter in the last four seasons has a median of 22 items per 100 m. That is at or above the threshold value used in the European Union (20 items per 100 m), a yardstick and not a legal limit.',
       },
     ]);
   });
@@ -56,6 +57,47 @@ describe('levels from the default rule table', () => {
       { id: 'water-high', level: 'heavy', indicator: 'water-microplastics', measure: 'assessment-median', op: '>', value: 2, text: 'Water median {value} is over {threshold}.' },
     ];
     expect(assessLevel(rules, { 'water-microplastics': measures({ assessmentMedian: 2.345 }) }).hits[0]?.text).toBe('Water median 2.3 is over 2.');
+  });
+});
+
+describe('default rule texts', () => {
+  test('the EU threshold value is never called an "EU limit", and modelled particles are never called litter counts', () => {
+    // Van Loon et al. 2020: 20 items/100 m is a threshold value (a benchmark), not a legal limit.
+    for (const rule of defaultRiskRules) {
+      expect(rule.text).not.toMatch(/EU limit|legal limit of/i);
+      if (rule.indicator === 'drift-arrivals') expect(rule.text).toMatch(/modelled particles/);
+    }
+  });
+});
+
+describe('why the level changed', () => {
+  const rules = defaultRiskRules;
+  test('level down: names the rule that stopped applying, with the value now and the threshold', () => {
+    const before = assessLevel(rules, { 'beach-litter': measures({ assessmentMedian: 160 }) });
+    const inputs = { 'beach-litter': measures({ assessmentMedian: 92 }) };
+    const now = assessLevel(rules, inputs);
+    expect([before.id, now.id]).toEqual(['marked', 'noticeable']);
+    expect(explainLevelChange(now, before, rules, inputs)).toEqual({
+      ruleId: 'litter-at-eu-mean',
+      clause: 'the median beach litter over the last four seasons is now 92 items per 100 m of beach, below 150',
+    });
+  });
+  test('level up: names the rule that started applying', () => {
+    const before = assessLevel(rules, {});
+    const inputs = { 'drift-arrivals': measures({ regionPercentile: 80 }) };
+    const now = assessLevel(rules, inputs);
+    expect(explainLevelChange(now, before, rules, inputs)).toEqual({
+      ruleId: 'arrivals-top-quarter',
+      clause: 'this place is now among the 25% of places on this coast with the most modelled litter coming ashore',
+    });
+  });
+  test('a likely rise that is no longer claimed, and no change at all', () => {
+    const before = assessLevel(rules, { 'beach-litter': measures({ probabilityUp: 0.97, direction: 'rising' }) });
+    const inputs = { 'beach-litter': measures({ probabilityUp: 0.8, direction: 'no-clear-direction' }) };
+    const now = assessLevel(rules, inputs);
+    expect(explainLevelChange(now, before, rules, inputs)?.clause).toBe('beach litter is no longer clearly going up');
+    expect(explainLevelChange(now, now, rules, inputs)).toBeNull();
+    expect(explainLevelChange(now, null, rules, inputs)).toBeNull();
   });
 });
 

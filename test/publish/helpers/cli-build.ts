@@ -14,10 +14,11 @@ export interface CliRun {
   stderr: string;
 }
 
-export function runCli(args: string[], env: NodeJS.ProcessEnv = {}): Promise<CliRun> {
+/** `lock: false` for runs that stop before Astro (no need to wait for other builds). */
+export function runCli(args: string[], env: NodeJS.ProcessEnv = {}, options: { lock?: boolean } = {}): Promise<CliRun> {
   const entry = path.join(packageRoot, 'bin', 'wrackline.mjs');
   const lock = '/tmp/astro.lock';
-  const [command, argv] = existsSync('/usr/bin/flock')
+  const [command, argv] = options.lock !== false && existsSync('/usr/bin/flock')
     ? ['/usr/bin/flock', [lock, process.execPath, entry, ...args]]
     : [process.execPath, [entry, ...args]];
   return new Promise((resolve) => {

@@ -1,0 +1,116 @@
+/**
+ * Turns the drift-model resources of a scenario into per-segment, per-season arrivals and
+ * offshore accumulation zones.
+ *
+ * Sources, in order of preference for the figures (the others are still read and checked):
+ * 1. `drift-positions` CSV (plain or gzip), streamed;
+ * 2. `drift-trajectories` CF NetCDF (NetCDF-3 or NetCDF-4), used when no positions CSV is listed,
+ *    since both usually hold the same model run;
+ * 3. `drift-arrivals`, a table aggregated upstream: arrivals only, no zones; used when neither of
+ *    the above is listed.
+ * Arrivals per km = arrivals / segment length (km). Each segment's nearest zone is the zone of the
+ * same season whose centroid is closest to the segment line.
+ */
+import type { ScenarioSettings } from '../scenario/settings.ts';
+import type { DriftArrivals, LoadedScenario, Segment } from '../scenario/types.ts';
+import type { AccumulationZone } from '../model/types.ts';
+import { InputValidationError } from '../errors.ts';
+import type { IssueLog } from '../read/issue-log.ts';
+import type { ResourceEntry } from '../read/package-descriptor.ts';
+import { accumulationZones } from './accumulation-zones.ts';
+import { readArrivalsTable } from './arrivals-table.ts';
+import { DriftTally } from './drift-tally.ts';
+import { readTrajectoryFile } from './trajectory-file.ts';
+import { readPositionsCsv } from './positions-csv.ts';
+import { seasonRange } from '../read/season-calendar.ts';
+
+export interface DriftInput {
+  resources: readonly { resource: ResourceEntry; absolutePath: string }[];
+  segments: readonly Segment[];
+  settings: ScenarioSettings;
+  segmentsFile: string;
+  log: IssueLog;
+  onProgress?: (phase: string, done: number, total?: number) => void;
+}
+
+type DriftResult = NonNullable<LoadedScenario['drift']>;
+
+/** Arrivals and zones from a filled tally. */
+export function summariseTally(tally: DriftTally, segments: readonly Segment[], settings: ScenarioSettings): DriftResult {
+  const arrivals: DriftArrivals[] = [];
+  const zones: { season: string; zones: AccumulationZone[] }[] = [];
+  for (const season of tally.seasonIds()) {
+    const end = tally.endOfSeason(season);
+    const seasonZones = accumulationZones(end.lon, end.lat, settings.drift.zoneDistanceKm, settings.drift.zoneMinParticles);
+    zones.push({ season, zones: seasonZones });
+    const counts = tally.arrivalsOf(season);
+    segments.forEach((segment, s) => {
+      let nearest: { id: string; distanceKm: number } | null = null;
+      for (const zone of seasonZones) {
+        const km = tally.index.distanceToSegmentKm(zone.lon, zone.lat, s);
+        if (!nearest || km < nearest.distanceKm) nearest = { id: zone.id, distanceKm: km };
+      }
+      const count = counts?.[s] ?? 0;
+      arrivals.push({ segmentId: segment.id, season, arrivals: count, arrivalsPerKm: segment.lengthKm > 0 ? count / segment.lengthKm : 0, nearestZone: nearest });
+    });
+  }
+  return { arrivals, zones };
+}
+
+export async function readDrift(input: DriftInput): Promise<DriftResult | null> {
+  const { log, segments, settings } = input;
+  const positions = input.resources.filter((r) => r.resource.role === 'drift-positions');
+  const trajectories = input.resources.filter((r) => r.resource.role === 'drift-trajectories');
+  const tables = input.resources.filter((r) => r.resource.role === 'drift-arrivals');
+  if (positions.length + trajectories.length + tables.length === 0) return null;
+
+  const mainTally = new DriftTally(segments, settings.seasons, settings.drift.arrivalDistanceKm);
+  const useTrajectories = positions.length === 0;
+  for (const { resource, absolutePath } of positions) {
+    input.onProgress?.(`reading ${resource.path}`, 0);
+    await readPositionsCsv({
+      absolutePath,
+      file: resource.path,
+      compression: resource.compression,
+      delimiter: resource.dialect.delimiter,
+      log,
+      onProgress: (done, total) => input.onProgress?.(`reading ${resource.path}`, done, total),
+      onPosition: (particle, timeMs, lon, lat, ashore) => mainTally.add(particle, timeMs, lon, lat, ashore),
+    });
+  }
+  for (const [fileNumber, { resource, absolutePath }] of trajectories.entries()) {
+    input.onProgress?.(`reading ${resource.path}`, 0);
+    // Trajectory files are always checked; their positions count only when no CSV is listed.
+    const tally = useTrajectories ? mainTally : null;
+    try {
+      // Trajectory numbers restart in every file: an offset per file keeps particles distinct.
+      const offset = fileNumber * 100_000_000;
+      await readTrajectoryFile(absolutePath, resource.path, log, (p) => (tally ? tally.add(p.particle + offset, p.timeMs, p.lon, p.lat, p.ashore) : true));
+    } catch (error) {
+      if (!(error instanceof InputValidationError)) throw error;
+      log.push(error.issue);
+      log.countsFor(resource.path);
+    }
+  }
+  if (positions.length > 0 || trajectories.length > 0) {
+    input.onProgress?.('drift zones', 0);
+    const result = summariseTally(mainTally, segments, settings);
+    if (positions.length + trajectories.length > 0 && tables.length === 0) return result;
+    // Both raw positions and an aggregated table: the table is checked but the positions are used.
+    for (const { resource, absolutePath } of tables) {
+      await readArrivalsTable(resource, absolutePath, settings.seasons, new Set(segments.map((s) => s.id)), input.segmentsFile, log);
+    }
+    return result;
+  }
+  const lengths = new Map(segments.map((s) => [s.id, s.lengthKm]));
+  const arrivals: DriftArrivals[] = [];
+  for (const { resource, absolutePath } of tables) {
+    const rows = await readArrivalsTable(resource, absolutePath, settings.seasons, new Set(lengths.keys()), input.segmentsFile, log);
+    for (const row of rows) {
+      const km = lengths.get(row.segmentId) ?? 0;
+      arrivals.push({ segmentId: row.segmentId, season: row.season, arrivals: row.arrivals, arrivalsPerKm: km > 0 ? row.arrivals / km : 0, nearestZone: null });
+    }
+  }
+  const seasons = [...new Set(arrivals.map((a) => a.season))].sort((a, b) => (seasonRange(a, settings.seasons)?.start ?? a).localeCompare(seasonRange(b, settings.seasons)?.start ?? b));
+  return { arrivals, zones: seasons.map((season) => ({ season, zones: [] })) };
+}

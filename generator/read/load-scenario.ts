@@ -1,0 +1,175 @@
+/**
+ * loadScenario: reads a scenario folder through its datapackage.json into a LoadedScenario —
+ * settings, coastline segments, monitoring records of every indicator, drift-model results, the
+ * list of input files with their digests, and the validation report.
+ *
+ * Never throws for bad data: every problem is in `report` (errors make `report.ok` false and stop
+ * a build; warnings don't). Throws ScenarioError only when the folder or datapackage.json cannot
+ * be read at all.
+ */
+import { stat } from 'node:fs/promises';
+import { join, resolve } from 'node:path';
+import { InputValidationError, NoUsableRows, ResourceFileMissing, ResourceInvalid, ScenarioError, ScenarioFolderUnreadable, SettingsInvalid } from '../errors.ts';
+import { readDrift } from '../drift/drift-model.ts';
+import { indicatorDefinitions } from '../indicators/index.ts';
+import type { ScenarioSettings } from '../scenario/settings.ts';
+import { settingsSchema } from '../scenario/settings.ts';
+import type { InputFile, LoadedScenario, Record as ScenarioRecord, Segment } from '../scenario/types.ts';
+import { fileDigest } from './file-digest.ts';
+import type { ScenarioPeriod } from './indicator-table.ts';
+import { readIndicatorTable } from './indicator-table.ts';
+import { IssueLog } from './issue-log.ts';
+import type { ResourceEntry } from './package-descriptor.ts';
+import { readPackageDescriptor } from './package-descriptor.ts';
+import { readSettings } from './read-settings.ts';
+import { readSegments } from './read-segments.ts';
+import { seasonRange } from './season-calendar.ts';
+
+export interface LoadOptions {
+  onProgress?(phase: string, done: number, total?: number): void;
+}
+
+const descriptorName = 'datapackage.json';
+
+/** Settings used when scenario.json cannot be read, so the other files can still be checked. */
+function placeholderSettings(): ScenarioSettings {
+  return settingsSchema.parse({
+    region: { id: 'unreadable-settings', name: 'Settings could not be read' },
+    publisher: { role: 'publisher', name: 'Unknown' },
+    authorities: [{ role: 'publisher', name: 'Unknown' }],
+    publications: [{ season: '1970-winter', date: '1970-01-01' }],
+  });
+}
+
+/** The scenario's period: monitoring start, end of the last published season, publication date. */
+function periodOf(settings: ScenarioSettings, file: string, log: IssueLog): ScenarioPeriod | null {
+  let ok = true;
+  settings.publications.forEach((publication, i) => {
+    const range = seasonRange(publication.season, settings.seasons);
+    if (!range) {
+      const path = `$.publications[${i}].season`;
+      log.add(SettingsInvalid, SettingsInvalid.message(file, path, JSON.stringify(publication.season), 'YYYY-<season id> with a season defined in "seasons"'), {
+        file, row: null, column: path, value: publication.season, expected: 'YYYY-<season id>', severity: 'error', excluded: true,
+      });
+      ok = false;
+    } else if (publication.date < range.end) {
+      const path = `$.publications[${i}].date`;
+      log.add(SettingsInvalid, SettingsInvalid.message(file, path, JSON.stringify(publication.date), `a date after the season ends (${range.end})`), {
+        file, row: null, column: path, value: publication.date, expected: `after ${range.end}`, severity: 'warning', excluded: false,
+      });
+    }
+  });
+  const last = settings.publications[settings.publications.length - 1];
+  if (!ok || !last) return null;
+  const range = seasonRange(last.season, settings.seasons);
+  if (!range) return null;
+  return { start: settings.monitoringStart ?? null, end: range.end, published: last.date };
+}
+
+function compareRecords(a: ScenarioRecord, b: ScenarioRecord): number {
+  return a.indicator.localeCompare(b.indicator) || a.segmentId.localeCompare(b.segmentId) || a.date.localeCompare(b.date) || a.source.row - b.source.row;
+}
+
+export async function loadScenario(dir: string, options: LoadOptions = {}): Promise<LoadedScenario> {
+  const root = resolve(dir);
+  const progress = options.onProgress ?? (() => {});
+  try {
+    const info = await stat(root);
+    if (!info.isDirectory()) throw new Error('not a folder');
+  } catch (error) {
+    const reason = error instanceof Error ? error.message : String(error);
+    throw new ScenarioError(ScenarioFolderUnreadable, ScenarioFolderUnreadable.message(dir, reason));
+  }
+  const log = new IssueLog();
+  progress('package', 0);
+  const descriptor = await readPackageDescriptor(join(root, descriptorName), descriptorName, log);
+
+  // Every listed file must exist; each becomes an input with its digest.
+  const inputs: InputFile[] = [];
+  const present: ResourceEntry[] = [];
+  for (const resource of descriptor.resources) {
+    const path = join(root, resource.path);
+    try {
+      const info = await stat(path);
+      if (!info.isFile()) throw new Error('not a file');
+      const digest = await fileDigest(path);
+      inputs.push({ file: resource.path, sha256: digest.sha256, bytes: digest.bytes });
+      present.push(resource);
+    } catch (error) {
+      const reason = error instanceof Error ? error.message : String(error);
+      log.add(ResourceFileMissing, ResourceFileMissing.message(resource.path, reason), {
+        file: resource.path, row: null, column: null, value: resource.path, expected: 'an existing file', severity: 'error', excluded: true,
+      });
+    }
+  }
+  const single = (role: ResourceEntry['role']): ResourceEntry | null => {
+    const found = descriptor.resources.filter((r) => r.role === role);
+    if (found.length === 0) {
+      log.add(ResourceInvalid, ResourceInvalid.message(descriptorName, 'resources', `no resource has role "${role}"; expected exactly one`), {
+        file: descriptorName, row: null, column: 'resources', value: null, expected: `one resource with role "${role}"`, severity: 'error', excluded: true,
+      });
+      return null;
+    }
+    if (found.length > 1) {
+      log.add(ResourceInvalid, ResourceInvalid.message(descriptorName, `resources[${found[1]?.index ?? 0}]`, `a second resource has role "${role}"; only the first is used`), {
+        file: descriptorName, row: null, column: `resources[${found[1]?.index ?? 0}]`, value: found[1]?.name ?? null, expected: `one resource with role "${role}"`, severity: 'error', excluded: true,
+      });
+    }
+    const first = found[0] ?? null;
+    return first && present.includes(first) ? first : null;
+  };
+
+  progress('settings', 0);
+  const settingsResource = single('settings');
+  const readSettingsResult = settingsResource ? await readSettings(join(root, settingsResource.path), settingsResource.path, log, settingsResource.format) : null;
+  const settings = readSettingsResult ?? placeholderSettings();
+  const period = readSettingsResult && settingsResource ? periodOf(readSettingsResult, settingsResource.path, log) : null;
+
+  progress('segments', 0);
+  const segmentsResource = single('segments');
+  const segmentsFile = segmentsResource?.path ?? 'segments.geojson';
+  const segments: Segment[] = segmentsResource ? await readSegments(join(root, segmentsResource.path), segmentsResource.path, log) : [];
+  const segmentIds = new Set(segments.map((s) => s.id));
+
+  const records: ScenarioRecord[] = [];
+  const tables = present.filter((r) => r.role === 'indicator' && r.indicator !== null);
+  for (const [i, resource] of tables.entries()) {
+    if (resource.indicator === null) continue;
+    progress(`table ${resource.path}`, i, tables.length);
+    try {
+      const read = await readIndicatorTable({
+        resource,
+        absolutePath: join(root, resource.path),
+        definition: indicatorDefinitions[resource.indicator],
+        settings,
+        period,
+        segmentIds,
+        segmentsFile,
+        log,
+        onProgress: (done, total) => progress(`table ${resource.path}`, done, total),
+      });
+      records.push(...read);
+    } catch (error) {
+      if (error instanceof InputValidationError) log.push(error.issue);
+      else throw error;
+    }
+  }
+  records.sort(compareRecords);
+
+  const driftResources = present
+    .filter((r) => r.role === 'drift-positions' || r.role === 'drift-trajectories' || r.role === 'drift-arrivals')
+    .map((resource) => ({ resource, absolutePath: join(root, resource.path) }));
+  const drift = await readDrift({ resources: driftResources, segments, settings, segmentsFile, log, onProgress: progress });
+  // A file whose every record was left out is an error, not a list of warnings.
+  for (const counts of log.report().files) {
+    const hasError = log.issues.some((item) => item.file === counts.file && item.severity === 'error');
+    if (counts.read > 0 && counts.kept === 0 && !hasError) {
+      log.add(NoUsableRows, NoUsableRows.message(counts.file, counts.read), {
+        file: counts.file, row: 2, column: null, value: null, expected: 'at least one usable record', severity: 'error', excluded: true,
+      });
+    }
+  }
+  progress('done', 1, 1);
+
+  return { dir: root, settings, segments, records, drift, inputs, report: log.report() };
+}
