@@ -25,22 +25,6 @@ export interface ErrorData {
   hint: string;
 }
 
-/** Where a problem sits: file relative to the scenario folder, 1-based file line, column name. */
-export interface Place {
-  file: string;
-  row?: number | null;
-  column?: string | null;
-}
-
-/** "tables/beach-litter.csv row 5, column items" — the prefix of every located message. */
-export function placeText(place: Place): string {
-  const parts = [place.file];
-  if (place.row !== undefined && place.row !== null) parts.push(`row ${place.row}`);
-  let text = parts.join(' ');
-  if (place.column !== undefined && place.column !== null) text += `, column ${place.column}`;
-  return text;
-}
-
 /** Shows a value in a message: quoted, control characters made visible, long text shortened. */
 export function quoteValue(value: string | null | undefined): string {
   if (value === null || value === undefined) return '(nothing)';
@@ -70,7 +54,7 @@ export const PackageDescriptorUnreadable = {
 export const ResourceInvalid = {
   name: 'ResourceInvalid',
   title: 'Resource entry is not usable',
-  message: (file: string, path: string, reason: string) => `${file}, ${path}: ${reason}`,
+  message: (file: string, path: string, reason: string) => `${file}, at ${path}: ${reason}`,
   hint: 'Each resource needs a name, a path inside the scenario folder and a role (settings, segments, indicator, drift-positions, drift-trajectories, drift-arrivals)',
 } satisfies ErrorData;
 
@@ -437,6 +421,13 @@ export const DriftSeasonUnknown = {
   message: (file: string, row: number, column: string, value: string) =>
     `${file} row ${row}, column ${column}: ${quoteValue(value)} is not a season of this scenario; expected YYYY-<season id> as in scenario.json`,
   hint: 'Season ids look like 2026-autumn',
+} satisfies ErrorData;
+
+export const PositionsOutsideSeasons = {
+  name: 'PositionsOutsideSeasons',
+  title: 'Positions in no season',
+  message: (file: string, count: number) => `${file} row (several), column time: ${count} position(s) fall in months no season of scenario.json covers; they were left out`,
+  hint: 'Check the season definitions in scenario.json cover all twelve months',
 } satisfies ErrorData;
 
 // ---------------------------------------------------------------------------------------------

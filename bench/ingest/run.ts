@@ -109,6 +109,11 @@ function mb(bytes: number): string {
   return `${(bytes / 1024 ** 2).toFixed(0)} MB`;
 }
 
+// Remove the temporary folder however the run ends (unless --keep).
+process.on('exit', () => {
+  if (!values.keep) rmSync(dir, { recursive: true, force: true });
+});
+
 const t0 = performance.now();
 const coastKm = writeSegments();
 await writePositions(join(dir, 'positions.csv'), positionCount, 7);
@@ -132,4 +137,3 @@ if (bigBytes > 0) {
   console.log(`  wall time ${big.wallSeconds.toFixed(1)} s, CPU time ${big.cpuSeconds.toFixed(1)} s, peak memory ${big.peakMegabytes.toFixed(0)} MB for a ${mb(size)} file`);
 }
 
-if (!values.keep) rmSync(dir, { recursive: true, force: true });

@@ -149,7 +149,7 @@ export async function runBuild(argv: string[], options: RunBuildOptions = {}): P
     const warnings = outcome.report.issues.filter((item) => item.severity === 'warning').length;
     progress.note(
       `Published ${formatCount(outcome.pages)} pages (${formatCount(outcome.files)} files) to ${out}` +
-        `${outcome.unchanged ? ' (unchanged: same content as the site on line)' : ''}` +
+        `${outcome.unchanged ? ' (unchanged: same content as the published site)' : ''}` +
         `${warnings > 0 ? `; ${warnings} warning(s), see \`wrackline check\`` : ''} in ${formatDuration(performance.now() - started)}`,
     );
     return 0;

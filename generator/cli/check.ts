@@ -127,12 +127,16 @@ export async function runCheck(argv: string[], io: CheckIo = {}): Promise<number
   try {
     const scenario = await loadScenario(scenarioDir, {
       onProgress(name, done, total) {
-        if (name !== phase) {
-          phase = name;
+        // File phases count bytes: shown in kB.
+        const inBytes = name.startsWith('reading ');
+        const label = inBytes ? `${name} (kB)` : name;
+        const scale = (n: number | undefined) => (n === undefined ? undefined : inBytes ? Math.round(n / 1024) : n);
+        if (label !== phase) {
+          phase = label;
           if (name === 'done') progress.end();
-          else progress.start(name, total);
+          else progress.start(label, scale(total));
         }
-        if (name !== 'done') progress.update(done, total);
+        if (name !== 'done' && inBytes) progress.update(scale(done) ?? 0, scale(total));
       },
     });
     progress.end();

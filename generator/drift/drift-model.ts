@@ -14,7 +14,7 @@
 import type { ScenarioSettings } from '../scenario/settings.ts';
 import type { DriftArrivals, LoadedScenario, Segment } from '../scenario/types.ts';
 import type { AccumulationZone } from '../model/types.ts';
-import { InputValidationError } from '../errors.ts';
+import { InputValidationError, PositionsOutsideSeasons } from '../errors.ts';
 import type { IssueLog } from '../read/issue-log.ts';
 import type { ResourceEntry } from '../read/package-descriptor.ts';
 import { accumulationZones } from './accumulation-zones.ts';
@@ -66,7 +66,17 @@ export async function readDrift(input: DriftInput): Promise<DriftResult | null> 
 
   const mainTally = new DriftTally(segments, settings.seasons, settings.drift.arrivalDistanceKm);
   const useTrajectories = positions.length === 0;
+  // Positions in months no season covers are counted, not listed one by one (files are huge).
+  const reportOutside = (file: string, before: number): void => {
+    const count = mainTally.outsideSeasons - before;
+    if (count > 0) {
+      log.add(PositionsOutsideSeasons, PositionsOutsideSeasons.message(file, count), {
+        file, row: null, column: 'time', value: String(count), expected: 'times inside the seasons of scenario.json', severity: 'warning', excluded: true,
+      });
+    }
+  };
   for (const { resource, absolutePath } of positions) {
+    const before = mainTally.outsideSeasons;
     input.onProgress?.(`reading ${resource.path}`, 0);
     await readPositionsCsv({
       absolutePath,
@@ -77,15 +87,18 @@ export async function readDrift(input: DriftInput): Promise<DriftResult | null> 
       onProgress: (done, total) => input.onProgress?.(`reading ${resource.path}`, done, total),
       onPosition: (particle, timeMs, lon, lat, ashore) => mainTally.add(particle, timeMs, lon, lat, ashore),
     });
+    reportOutside(resource.path, before);
   }
   for (const [fileNumber, { resource, absolutePath }] of trajectories.entries()) {
     input.onProgress?.(`reading ${resource.path}`, 0);
     // Trajectory files are always checked; their positions count only when no CSV is listed.
     const tally = useTrajectories ? mainTally : null;
+    const before = mainTally.outsideSeasons;
     try {
       // Trajectory numbers restart in every file: an offset per file keeps particles distinct.
       const offset = fileNumber * 100_000_000;
       await readTrajectoryFile(absolutePath, resource.path, log, (p) => (tally ? tally.add(p.particle + offset, p.timeMs, p.lon, p.lat, p.ashore) : true));
+      reportOutside(resource.path, before);
     } catch (error) {
       if (!(error instanceof InputValidationError)) throw error;
       log.push(error.issue);

@@ -106,8 +106,8 @@ export class SegmentIndex {
     const south = this.bounds[1] - reach.dLat;
     const width = this.bounds[2] + reach.dLon - west;
     const height = this.bounds[3] + reach.dLat - south;
-    // Cells about the size of the search box, at most ~16 million cells.
-    let cell = Math.max(reach.dLat, 1e-4);
+    // Cells a quarter of the search distance, at most ~16 million cells.
+    let cell = Math.max(reach.dLat / 4, 1e-5);
     while ((width / cell) * (height / cell) > 16e6) cell *= 2;
     const columns = Math.max(1, Math.ceil(width / cell));
     const rows = Math.max(1, Math.ceil(height / cell));

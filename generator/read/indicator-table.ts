@@ -220,7 +220,3 @@ export async function readIndicatorTable(input: IndicatorTableInput): Promise<Sc
   return records;
 }
 
-/** For a table schema given only as fields, the names it declares (for messages). */
-export function schemaFieldNames(schema: TableSchema): string[] {
-  return schema.fields.map((f) => f.name);
-}

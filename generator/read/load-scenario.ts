@@ -26,6 +26,10 @@ import { readSegments } from './read-segments.ts';
 import { seasonRange } from './season-calendar.ts';
 
 export interface LoadOptions {
+  /**
+   * Called as reading goes on: phases "package", "settings", "segments", "reading <file>" (done and
+   * total in bytes of the file), "drift zones", and "done".
+   */
   onProgress?(phase: string, done: number, total?: number): void;
 }
 
@@ -102,6 +106,14 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
       });
     }
   }
+  for (const resource of present) {
+    if (!/^utf-?8$/i.test(resource.encoding)) {
+      const path = `resources[${resource.index}].encoding`;
+      log.add(ResourceInvalid, ResourceInvalid.message(descriptorName, path, `encoding ${JSON.stringify(resource.encoding)} is not supported; the file was read as UTF-8`), {
+        file: descriptorName, row: null, column: path, value: resource.encoding, expected: 'utf-8', severity: 'warning', excluded: false,
+      });
+    }
+  }
   const single = (role: ResourceEntry['role']): ResourceEntry | null => {
     const found = descriptor.resources.filter((r) => r.role === role);
     if (found.length === 0) {
@@ -133,9 +145,9 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
 
   const records: ScenarioRecord[] = [];
   const tables = present.filter((r) => r.role === 'indicator' && r.indicator !== null);
-  for (const [i, resource] of tables.entries()) {
+  for (const resource of tables) {
     if (resource.indicator === null) continue;
-    progress(`table ${resource.path}`, i, tables.length);
+    progress(`reading ${resource.path}`, 0);
     try {
       const read = await readIndicatorTable({
         resource,
@@ -146,7 +158,7 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
         segmentIds,
         segmentsFile,
         log,
-        onProgress: (done, total) => progress(`table ${resource.path}`, done, total),
+        onProgress: (done, total) => progress(`reading ${resource.path}`, done, total),
       });
       records.push(...read);
     } catch (error) {

@@ -308,6 +308,13 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
     }
     firstUse.set(id, row);
     let shape = { type: geometry['type'], coordinates: geometry['coordinates'] } as GeoJSON.Geometry;
+    // d3-geo streams a polygon ring without its closing edge, so rings are measured as lines.
+    const lengthKm = geoLength(checked.rings ? { type: 'MultiLineString', coordinates: checked.lines } : shape) * earthRadiusKm;
+    if (!(lengthKm > 0)) {
+      exclude(GeometryInvalid, GeometryInvalid.message(file, row, 'the line has zero length (all its positions are the same point)'), 'geometry', null, 'a line longer than zero');
+      counts.excluded++;
+      return;
+    }
     if (checked.rings && geoArea(shape) > 2 * Math.PI) shape = reverseRings(shape);
     let west = Infinity;
     let south = Infinity;
@@ -327,8 +334,7 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
       kind: kind as SegmentKind,
       shellfish: shellfish as ShellfishUse,
       place,
-      // d3-geo streams a polygon ring without its closing edge, so rings are measured as lines.
-      lengthKm: geoLength(checked.rings ? { type: 'MultiLineString', coordinates: checked.lines } : shape) * earthRadiusKm,
+      lengthKm,
       geometry: shape,
       bbox: [west, south, east, north],
     });

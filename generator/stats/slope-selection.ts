@@ -7,12 +7,14 @@
  *
  * Idea (Dillencourt et al. 1992, §2): with points ordered by time, a pair's slope is below s
  * exactly when the pair is inverted in the order of the keys y − s·t, so the number of slopes
- * below s is an inversion count, O(n log n) by merge sort. The slopes inside an interval
- * [lo, hi) are the pairs whose order differs between the key orders at lo and at hi; they can be
- * counted, sampled uniformly (Fenwick tree, O((n + K) log n)) and, once few, listed. Each round
- * samples K ≈ n slopes of the current interval, keeps the sample window around the wanted rank
- * (±2.5 binomial standard deviations), and shrinks the interval to it; about three rounds bring
- * a million points down to a few million candidate slopes, which are listed and sorted.
+ * below s is an inversion count, O(n log n) by merge sort (started from the cached order at a
+ * nearby threshold, which is almost sorted, with galloping merges). The slopes inside an interval
+ * [lo, hi) are the pairs whose order differs between the key orders at lo and at hi; a merge sort
+ * of that permutation meets them as contiguous runs, so they can be sampled (Bernoulli, by
+ * geometric skips) or, once few, listed in O(n log n + output). Each round samples K ≈ n slopes
+ * of the current interval, keeps the sample window around each wanted rank (±2.5 binomial
+ * standard deviations), and shrinks the interval to it; two rounds bring a million points down
+ * to a few million candidate slopes, from which the wanted ranks are selected (quickselect).
  * Expected time O(n log n), memory O(n + K).
  *
  * Floating point: interval ends are never actual slopes; they are moved off a sampled slope by a
@@ -74,15 +76,28 @@ export function listAllSlopes(t: ArrayLike<number>, y: ArrayLike<number>): Float
 }
 
 /**
- * Indices 0..n−1 stably sorted by key (ties keep index order), and the number of strict
- * inversions of the keys (pairs i < j with key_i > key_j). Bottom-up merge sort moving keys and
- * indices together, with insertion sort on runs of 16.
+ * Stable sort of (key, index) pairs by key, counting strict inversions (pairs earlier in the input
+ * with a larger key). `initial` is the starting order of the indices (identity when omitted): the
+ * inversions counted are those of the keys read in that order. Bottom-up merge sort with insertion
+ * sort on runs of 16, and galloping merges (binary search for the stretch where the two runs
+ * overlap, bulk copies for the rest), so an almost sorted start costs little above the lowest levels.
  */
-export function sortCountingInversions(keys: Float64Array): { order: Uint32Array; inversions: number } {
+export function sortCountingInversions(keys: Float64Array, initial?: Uint32Array): { order: Uint32Array; inversions: number } {
   const n = keys.length;
-  let srcKey = Float64Array.from(keys);
+  let srcKey = new Float64Array(n);
   let srcIdx = new Uint32Array(n);
-  for (let i = 0; i < n; i++) srcIdx[i] = i;
+  if (initial) {
+    for (let i = 0; i < n; i++) {
+      const index = initial[i] as number;
+      srcIdx[i] = index;
+      srcKey[i] = keys[index] as number;
+    }
+  } else {
+    for (let i = 0; i < n; i++) {
+      srcIdx[i] = i;
+      srcKey[i] = keys[i] as number;
+    }
+  }
   let inversions = 0;
   const run = 16;
   for (let start = 0; start < n; start += run) {
@@ -103,14 +118,50 @@ export function sortCountingInversions(keys: Float64Array): { order: Uint32Array
   }
   let dstKey = new Float64Array(n);
   let dstIdx = new Uint32Array(n);
+  const copyRange = (from: number, to: number, at: number) => {
+    if (to - from < 64) {
+      for (let m = from; m < to; m++, at++) {
+        dstKey[at] = srcKey[m] as number;
+        dstIdx[at] = srcIdx[m] as number;
+      }
+      return;
+    }
+    dstKey.set(srcKey.subarray(from, to), at);
+    dstIdx.set(srcIdx.subarray(from, to), at);
+  };
   for (let width = run; width < n; width *= 2) {
     for (let start = 0; start < n; start += 2 * width) {
       const middle = Math.min(start + width, n);
       const end = Math.min(start + 2 * width, n);
-      let i = start;
+      if (middle >= end || (srcKey[middle - 1] as number) <= (srcKey[middle] as number)) {
+        copyRange(start, end, start);
+        continue;
+      }
+      // left elements ≤ the first right element go first, untouched
+      const firstRight = srcKey[middle] as number;
+      let low = start;
+      let high = middle;
+      while (low < high) {
+        const mid = (low + high) >> 1;
+        if ((srcKey[mid] as number) <= firstRight) low = mid + 1;
+        else high = mid;
+      }
+      const leftStart = low;
+      // right elements ≥ the last left element go last, untouched
+      const lastLeft = srcKey[middle - 1] as number;
+      low = middle;
+      high = end;
+      while (low < high) {
+        const mid = (low + high) >> 1;
+        if ((srcKey[mid] as number) < lastLeft) low = mid + 1;
+        else high = mid;
+      }
+      const rightEnd = low;
+      if (leftStart > start) copyRange(start, leftStart, start);
+      let i = leftStart;
       let j = middle;
-      let k = start;
-      while (i < middle && j < end) {
+      let k = leftStart;
+      while (i < middle && j < rightEnd) {
         const right = srcKey[j] as number;
         const left = srcKey[i] as number;
         if (right < left) {
@@ -122,14 +173,11 @@ export function sortCountingInversions(keys: Float64Array): { order: Uint32Array
           dstIdx[k++] = srcIdx[i++] as number;
         }
       }
-      while (i < middle) {
-        dstKey[k] = srcKey[i] as number;
-        dstIdx[k++] = srcIdx[i++] as number;
+      if (i < middle) {
+        copyRange(i, middle, k);
+        k += middle - i;
       }
-      while (j < end) {
-        dstKey[k] = srcKey[j] as number;
-        dstIdx[k++] = srcIdx[j++] as number;
-      }
+      if (j < end) copyRange(j, end, k);
     }
     [srcKey, dstKey] = [dstKey, srcKey];
     [srcIdx, dstIdx] = [dstIdx, srcIdx];
@@ -153,13 +201,13 @@ interface Prepared {
 function prepare(t: ArrayLike<number>, y: ArrayLike<number>): Prepared {
   const n = t.length;
   // order by (t, y): t is ascending already; sort y inside groups of equal t
-  const index = Array.from({ length: n }, (_, i) => i);
-  index.sort((a, b) => (t[a] as number) - (t[b] as number) || (y[a] as number) - (y[b] as number));
-  const ts = new Float64Array(n);
-  const ys = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    ts[i] = t[index[i] as number] as number;
-    ys[i] = y[index[i] as number] as number;
+  const ts = Float64Array.from(t);
+  const ys = Float64Array.from(y);
+  let groupStart = 0;
+  for (let i = 1; i <= n; i++) {
+    if (i < n && ts[i] === ts[groupStart]) continue;
+    if (i - groupStart > 1) ys.subarray(groupStart, i).sort();
+    groupStart = i;
   }
   const tMid = n > 0 ? ((ts[0] as number) + (ts[n - 1] as number)) / 2 : 0;
   let yMin = Infinity;
@@ -226,7 +274,22 @@ function fillKeys(p: Prepared, s: number): Float64Array {
 function orderAt(p: Prepared, s: number): { order: Uint32Array; inversions: number } {
   let entry = p.orders.get(s);
   if (!entry) {
-    entry = sortCountingInversions(fillKeys(p, s));
+    // Start from the cached order at the nearest threshold s′ < s: every pair inverted at s′ is
+    // inverted at s too, so count(s) = count(s′) + the inversions of the keys at s read in the
+    // order at s′, and that order is already nearly sorted.
+    let base: { order: Uint32Array; inversions: number } | null = null;
+    let baseAt = -Infinity;
+    for (const [at, cached] of p.orders) {
+      if (at < s && at > baseAt) {
+        baseAt = at;
+        base = cached;
+      }
+    }
+    const keys = fillKeys(p, s);
+    if (base) {
+      const sorted = sortCountingInversions(keys, base.order);
+      entry = { order: sorted.order, inversions: base.inversions + sorted.inversions };
+    } else entry = sortCountingInversions(keys);
     if (p.orders.size > 8) p.orders.delete(p.orders.keys().next().value as number);
     p.orders.set(s, entry);
   }
@@ -281,14 +344,56 @@ function walkInterval(p: Prepared, lo: number, hi: number, rate: number, capacit
   let dstVal = new Uint32Array(n);
   let dstT = new Float64Array(n);
   let dstY = new Float64Array(n);
+  const copy = (from: number, to: number, at: number) => {
+    if (to - from < 64) {
+      for (let m = from; m < to; m++, at++) {
+        dstVal[at] = srcVal[m] as number;
+        dstT[at] = srcT[m] as number;
+        dstY[at] = srcY[m] as number;
+      }
+      return;
+    }
+    dstVal.set(srcVal.subarray(from, to), at);
+    dstT.set(srcT.subarray(from, to), at);
+    dstY.set(srcY.subarray(from, to), at);
+  };
   for (let width = 1; width < n; width *= 2) {
     for (let start = 0; start < n; start += 2 * width) {
       const middle = Math.min(start + width, n);
       const end = Math.min(start + 2 * width, n);
-      let i = start;
+      if (middle >= end || (srcVal[middle - 1] as number) < (srcVal[middle] as number)) {
+        copy(start, end, start); // already in order: no inversion across the two runs
+        continue;
+      }
+      // galloping: left elements below the first right one, and right elements above the last
+      // left one, are in place and form no inversion (values are distinct ranks)
+      let leftStart = start;
+      let rightEnd = end;
+      if (width >= 64) {
+        const firstRight = srcVal[middle] as number;
+        let low = start;
+        let high = middle;
+        while (low < high) {
+          const mid = (low + high) >> 1;
+          if ((srcVal[mid] as number) < firstRight) low = mid + 1;
+          else high = mid;
+        }
+        leftStart = low;
+        const lastLeft = srcVal[middle - 1] as number;
+        low = middle;
+        high = end;
+        while (low < high) {
+          const mid = (low + high) >> 1;
+          if ((srcVal[mid] as number) < lastLeft) low = mid + 1;
+          else high = mid;
+        }
+        rightEnd = low;
+      }
+      if (leftStart > start) copy(start, leftStart, start);
+      let i = leftStart;
       let j = middle;
-      let k = start;
-      while (i < middle && j < end) {
+      let k = leftStart;
+      while (i < middle && j < rightEnd) {
         if ((srcVal[j] as number) < (srcVal[i] as number)) {
           const tb = srcT[j] as number;
           const yb = srcY[j] as number;
@@ -313,16 +418,11 @@ function walkInterval(p: Prepared, lo: number, hi: number, rate: number, capacit
           dstY[k++] = srcY[i++] as number;
         }
       }
-      while (i < middle) {
-        dstVal[k] = srcVal[i] as number;
-        dstT[k] = srcT[i] as number;
-        dstY[k++] = srcY[i++] as number;
+      if (i < middle) {
+        copy(i, middle, k);
+        k += middle - i;
       }
-      while (j < end) {
-        dstVal[k] = srcVal[j] as number;
-        dstT[k] = srcT[j] as number;
-        dstY[k++] = srcY[j++] as number;
-      }
+      if (j < end) copy(j, end, k);
     }
     [srcVal, dstVal] = [dstVal, srcVal];
     [srcT, dstT] = [dstT, srcT];
@@ -380,6 +480,9 @@ function selectPositions(values: Float64Array, positions: readonly number[]): nu
  * @throws when a rank is outside 1..N′
  */
 export function selectPairwiseSlopes(t: ArrayLike<number>, y: ArrayLike<number>, ranks: readonly number[], options: SlopeSelectionOptions = {}): number[] {
+  for (let i = 1; i < t.length; i++) {
+    if (!((t[i] as number) >= (t[i - 1] as number))) throw new Error(`selectPairwiseSlopes requires times sorted ascending; index ${i} has ${t[i]} after ${t[i - 1]}`);
+  }
   const total = countSlopePairs(t);
   for (const k of ranks) {
     if (!Number.isInteger(k) || k < 1 || k > total) throw new Error(`selectPairwiseSlopes requires ranks in 1..${total}; got ${k}`);

@@ -35,7 +35,7 @@ export function locatorFor(model: LoadedModel, bulletin: Bulletin): string {
   const svg = renderMap({
     idPrefix: 'locator',
     title: `Where ${bulletin.segment.name} is`,
-    description: `Locator map: ${bulletin.segment.name} drawn as a thick dark line inside a dashed ring, with neighbouring segments in grey.`,
+    description: `Locator map: ${bulletin.segment.name} drawn as a thick dark line inside a dashed ring, with neighbouring segments in grey; the small box at the top right shows where this view lies on the whole coast.`,
     segments: preparedSegmentsOf(model, bulletin.season.id),
     zones: region.zones,
     highlight: bulletin.segment.id,

@@ -101,13 +101,36 @@ function placeBadges(items: { centre: [number, number]; level: LevelId }[], widt
   return out;
 }
 
+/** Above this many segments the locator's overview inset is left out (page size). */
+const insetLimit = 400;
+
+/** Top-right inset of a locator map: the whole coast in grey, the locator's window as a box. */
+function renderInset(all: Feature<Geometry, Props>[], highlight: string, win: readonly [number, number, number, number], width: number): string {
+  const size = 110;
+  const x0 = width - size - 8;
+  const y0 = 8;
+  const collection = { type: 'FeatureCollection', features: all } as FeatureCollection;
+  const projection = geoMercator().fitExtent([[x0 + 6, y0 + 6], [x0 + size - 6, y0 + size - 6]], collection);
+  const path = geoPath(projection).digits(0);
+  const coast = all.map((f) => path(f) ?? '').join('');
+  const a = projection([win[0], win[3]]);
+  const b = projection([win[2], win[1]]);
+  const target = all.find((f) => f.properties.id === highlight);
+  const c = target ? path.centroid(target) : null;
+  const box = a && b ? `<rect x="${Math.min(a[0], b[0]).toFixed(1)}" y="${Math.min(a[1], b[1]).toFixed(1)}" width="${Math.max(Math.abs(b[0] - a[0]), 3).toFixed(1)}" height="${Math.max(Math.abs(b[1] - a[1]), 3).toFixed(1)}" fill="none" stroke="#1f2a33" stroke-width="1.5"/>` : '';
+  const dot = c && Number.isFinite(c[0]) ? `<circle cx="${c[0].toFixed(1)}" cy="${c[1].toFixed(1)}" r="2.5" fill="#1f2a33"/>` : '';
+  return `<g class="inset"><rect x="${x0}" y="${y0}" width="${size}" height="${size}" fill="#fff" fill-opacity="0.92" stroke="#8c9aa3"/><path d="${coast}" fill="none" stroke="#8c9aa3" stroke-width="1.2"/>${box}${dot}</g>`;
+}
+
 const niceKm = [0.5, 1, 2, 5, 10, 20, 50, 100, 200, 500];
 
 export function renderMap(options: MapOptions): string {
   const width = options.width ?? 640;
   const pad = 16;
   const highlight = options.highlight ?? null;
-  let features = options.segments.features;
+  const allFeatures = options.segments.features;
+  let features = allFeatures;
+  let windowBox: readonly [number, number, number, number] | null = null;
   const zones = (options.zones ?? []).filter((z) => z.hull.length >= 4).map((z) => ({
     zone: z,
     feature: { type: 'Feature', properties: {}, geometry: rewindForD3({ type: 'Polygon', coordinates: [z.hull] }) } as Feature<Polygon>,
@@ -125,6 +148,7 @@ export function renderMap(options: MapOptions): string {
       const cx = (w + e) / 2;
       const cy = (s + n) / 2;
       const win = [cx - spanLon, cy - spanLat, cx + spanLon, cy + spanLat] as const;
+      windowBox = win;
       frame = { type: 'MultiPoint', coordinates: [[win[0], win[1]], [win[2], win[3]]] };
       features = features.filter((_, i) => {
         const [[fw, fs], [fe, fn]] = options.segments.bounds[i]!;
@@ -209,6 +233,7 @@ export function renderMap(options: MapOptions): string {
     const by = height - 12;
     parts.push(`<g class="scale"><rect x="8" y="${by - 16}" width="${(px + 16).toFixed(1)}" height="22" fill="#fff" fill-opacity="0.85"/><path d="M16 ${by - 4}V${by}H${(16 + px).toFixed(1)}V${by - 4}" fill="none" stroke="#1f2a33" stroke-width="1.5"/><text x="${(16 + px / 2).toFixed(1)}" y="${by - 6}" text-anchor="middle" font-size="10" fill="#1f2a33">${km} km</text></g>`);
   }
+  if (highlight && windowBox && allFeatures.length <= insetLimit) parts.push(renderInset(allFeatures, highlight, windowBox, width));
   parts.push('</svg>');
   return parts.join('');
 }

@@ -160,6 +160,32 @@ describe('positions CSV: bad input catalogue', () => {
   });
 });
 
+describe('positions outside every season', () => {
+  test('are counted in one warning, not dropped silently', async () => {
+    const { readFileSync } = await import('node:fs');
+    const { baseScenario } = await import('../read/fixture-scenario.ts');
+    const settings = JSON.parse(readFileSync(`${baseScenario}/scenario.json`, 'utf8')) as { [key: string]: unknown };
+    // Seasons that leave out September: the fixture's five September positions fall in no season.
+    settings['seasons'] = [
+      { id: 'winter', label: 'Winter', months: [12, 1, 2] },
+      { id: 'spring', label: 'Spring', months: [3, 4, 5] },
+      { id: 'summer', label: 'Summer', months: [6, 7, 8] },
+      { id: 'autumn', label: 'Autumn', months: [10, 11] },
+    ];
+    const dir = scenarioCopy({ files: {
+      'scenario.json': JSON.stringify(settings),
+      'tables/beach-litter.csv': 'survey_id,segment_id,date,surveyed_length_m,items,plastic_items,area_m2\nBL-1,north-beach,2026-01-15,100,12,,\n',
+      'tables/water-microplastics.csv': 'sample_id,segment_id,date,particles_per_m3,mesh_um\nWM-1,harbour-mouth,2026-03-10,0.42,333\n',
+    } });
+    const scenario = await loadScenario(dir);
+    const issue = scenario.report.issues.find((i) => i.code === 'PositionsOutsideSeasons');
+    expect(issue?.file).toBe('drift/positions.csv');
+    expect(issue?.value).toBe('5');
+    expect(issue?.message).toContain('drift/positions.csv row (several), column time: 5 position(s)');
+    expect(scenario.report.files.find((f) => f.file === 'drift/positions.csv')).toEqual({ file: 'drift/positions.csv', read: 11, kept: 6, excluded: 5 });
+  });
+});
+
 describe('pre-aggregated drift arrivals table', () => {
   test('read per segment and season, per km, with unknown segments and seasons left out', async () => {
     const text = 'segment_id,season,arrivals\nnorth-beach,2026-autumn,12\nharbour-mouth,2026-summer,3\nnowhere,2026-summer,3\nseal-island,2026-monsoon,1\n';
@@ -212,5 +238,18 @@ describe('segment index', () => {
       }
       assertInDelta(index.distanceToSegmentKm(lon, lat, bestSegment), best, 1e-9);
     }), { numRuns: 300 });
+  });
+});
+
+describe('particle table', () => {
+  test('stores values for small and large ids and reports NaN for unknown ones', async () => {
+    const { ParticleTable } = await import('../../generator/drift/particle-table.ts');
+    const table = new ParticleTable();
+    table.set(0, 5);
+    table.set(5000, 7);
+    table.set(2 ** 40, 9);
+    expect([table.get(0), table.get(5000), table.get(2 ** 40)]).toEqual([5, 7, 9]);
+    expect(table.get(1)).toBeNaN();
+    expect(table.get(2 ** 41)).toBeNaN();
   });
 });

@@ -62,6 +62,26 @@ describe('coastline segments: bad input catalogue', () => {
     expect(issue.message).toContain('not closed');
   });
 
+  test('a line of zero length', async () => {
+    const scenario = await loadSegments(withFeatures(feature('one-spot', { type: 'LineString', coordinates: [[1, 50], [1, 50]] })));
+    const issue = expectIssue(scenario.report.issues, { code: 'GeometryInvalid', file: segmentsFile, row: 4, column: 'geometry', severity: 'error' });
+    expect(issue.message).toContain('zero length');
+  });
+
+  test('polygons are stored wound so that d3-geo sees the small area (RFC 7946 counter-clockwise input)', async () => {
+    // d3-geo treats clockwise exterior rings as the inside, the opposite of RFC 7946: an RFC ring
+    // read as-is would cover the rest of the globe (geoArea > 2π).
+    const { geoArea } = await import('d3-geo');
+    const scenario = await loadScenario(scenarioCopy());
+    const island = scenario.segments.find((s) => s.id === 'seal-island');
+    const area = geoArea(island?.geometry as GeoJSON.Geometry);
+    expect(area).toBeLessThan(1e-6);
+    expect(area).toBeGreaterThan(0);
+    const clockwise = { type: 'Polygon', coordinates: [[[1, 50], [1, 50.02], [1.02, 50.02], [1.02, 50], [1, 50]]] };
+    const both = await loadSegments(withFeatures(feature('clockwise-isle', clockwise)));
+    expect(geoArea(both.segments.find((s) => s.id === 'clockwise-isle')?.geometry as GeoJSON.Geometry)).toBeLessThan(1e-6);
+  });
+
   test('id that is not a URL-safe slug, and a duplicate id', async () => {
     const line = { type: 'LineString', coordinates: [[1, 50], [1.1, 50]] };
     const scenario = await loadSegments(withFeatures(feature('Bad Id/..', line), feature('north-beach', line)));

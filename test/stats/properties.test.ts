@@ -7,7 +7,7 @@ import { describe, expect, test } from 'vitest';
 import { kendallScore } from '../../generator/stats/kendall-score.ts';
 import { mannKendall } from '../../generator/stats/mann-kendall.ts';
 import { sensSlope } from '../../generator/stats/sens-slope.ts';
-import { countSlopePairs, selectPairwiseSlopes } from '../../generator/stats/slope-selection.ts';
+import { countSlopePairs, selectPairwiseSlopes, sortCountingInversions } from '../../generator/stats/slope-selection.ts';
 import { prepareSeries } from '../../generator/stats/series-input.ts';
 import type { SeriesPoint } from '../../generator/stats/types.ts';
 import { kendallScoreOracle, slopeAtRankOracle, sortedSlopesOracle } from './oracles.ts';
@@ -101,6 +101,36 @@ describe('fast algorithms equal the all-pairs oracles', () => {
         ranks.forEach((rank, i) => expect((selected[i] as number) + 0).toBe((oracle[rank - 1] as number) + 0));
       }),
       { numRuns: 20 },
+    );
+  });
+});
+
+describe('sorting with an inversion count', () => {
+  test('sortCountingInversions: stable order by key and the all-pairs inversion count, from any start order', () => {
+    fc.assert(
+      fc.property(fc.array(fc.integer({ min: -20, max: 20 }), { minLength: 0, maxLength: 300 }), fc.integer(), (values, seed) => {
+        const keys = Float64Array.from(values);
+        const n = keys.length;
+        // a start order: a seeded shuffle
+        const start = Uint32Array.from({ length: n }, (_, i) => i);
+        let state = seed >>> 0;
+        for (let i = n - 1; i > 0; i--) {
+          state = (Math.imul(state, 1664525) + 1013904223) >>> 0;
+          const j = state % (i + 1);
+          [start[i], start[j]] = [start[j] as number, start[i] as number];
+        }
+        let expected = 0;
+        for (let a = 0; a < n; a++) for (let b = a + 1; b < n; b++) if ((keys[start[a] as number] as number) > (keys[start[b] as number] as number)) expected++;
+        const result = sortCountingInversions(keys, start);
+        expect(result.inversions).toBe(expected);
+        const positionInStart = new Map(Array.from(start, (index, position) => [index, position]));
+        for (let r = 1; r < n; r++) {
+          const a = result.order[r - 1] as number;
+          const b = result.order[r] as number;
+          expect((keys[a] as number) < (keys[b] as number) || (keys[a] === keys[b] && (positionInStart.get(a) as number) < (positionInStart.get(b) as number))).toBe(true);
+        }
+      }),
+      { numRuns: 200 },
     );
   });
 });

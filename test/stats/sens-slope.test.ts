@@ -93,3 +93,7 @@ describe('sensSlope edge cases', () => {
     expect(() => sensSlope(oneTo(3), f([1, Number.NaN, 2]))).toThrow(/finite values/);
   });
 });
+
+test('slope selection rejects times out of order', () => {
+  expect(() => selectPairwiseSlopes(Float64Array.of(1, 3, 2), Float64Array.of(1, 2, 3), [1])).toThrow(/sorted ascending; index 2 has 2 after 3/);
+});
