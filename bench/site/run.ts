@@ -92,8 +92,7 @@ function runBuild(args: string[]): Promise<BuildFigures> {
       for (const line of `${stderr}\n${stdout}`.split('\n')) {
         const match = /^ {2}(\S+(?: \S+)?)\s+(?:(.*?) in )?(\d[\d.]* m?s|\d+ min \d+ s)$/.exec(line);
         if (match?.[1] && match[3]) phases.push({ phase: match[1], detail: match[2] ?? '', seconds: parseSeconds(match[3]) });
-        if (line.startsWith('Published')) summary = line;
-        if (line.includes('trend cache:')) summary = `${summary}${summary ? '; ' : ''}${line.trim()}`;
+        if (line.startsWith('Published') || line.includes('trend cache:')) summary = `${summary}${summary ? '\n  ' : ''}${line.trim()}`;
       }
       resolve({
         code,

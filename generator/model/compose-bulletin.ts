@@ -3,6 +3,7 @@
  * through the sentence templates of generator/bulletin.
  */
 import { debrisCautions, shellfishCautions } from '../bulletin/cautions.ts';
+import { chartTrendWords } from '../bulletin/chart-words.ts';
 import { indicatorSubjects } from '../bulletin/indicator-words.ts';
 import { likelihoodWord } from '../bulletin/likelihood.ts';
 import { formatNumber, formatPlain } from '../bulletin/numbers.ts';
@@ -77,8 +78,16 @@ function chartDescription(evaluation: IndicatorEvaluation, segmentName: string, 
       ? ` in ${evaluation.yearSpan.first}`
       : ` from ${evaluation.yearSpan.first} to ${evaluation.yearSpan.last}`
     : '';
-  const band = evaluation.trend?.band ? ` The line is the trend, with its ${Math.round(confidence * 100)}% band.` : '';
-  return `${definition.label} at ${segmentName}, ${definition.unitShort}: ${evaluation.sampleCount} values${span}. Direction: ${directionPhrases[evaluation.direction]}.${band}`;
+  const drawn = chartTrendWords(
+    {
+      direction: evaluation.direction,
+      seasonsDisagree: seasonsDisagree(evaluation.trend, confidence),
+      trend: evaluation.trend,
+      values: evaluation.observations.map((o) => o.value),
+    },
+    confidence,
+  );
+  return `${definition.label} at ${segmentName}, ${definition.unitShort}: ${evaluation.sampleCount} values${span}. Direction: ${directionPhrases[evaluation.direction]}. ${drawn}`;
 }
 
 /** A count of animals where every season so far counted 0. */

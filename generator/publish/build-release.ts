@@ -19,12 +19,12 @@ import type { LoadedScenario } from '../scenario/types.ts';
 import type { ArchiveLedger } from './archive-ledger.ts';
 import { assertArchiveIntact, ledgerFileName, ledgerFromModel, readLedger } from './archive-ledger.ts';
 import type { Correction } from './archive-ledger.ts';
-import { siteProblems } from './html-safety.ts';
+import { safetyRulesVersion, siteProblems } from './html-safety.ts';
 import { PublishError } from './publish-error.ts';
 import { openPublishSession } from './release-swap.ts';
 import type { PublishSession } from './release-swap.ts';
 import { assertSlug } from './safe-path.ts';
-import { listFiles, treeDigest, writeManifest } from './tree-hash.ts';
+import { hashFile, hashTree, listFiles, readManifest, treeDigest, writeManifest } from './tree-hash.ts';
 import type { Progress } from '../progress/progress.ts';
 import type { ValidationReport } from '../model/types.ts';
 
@@ -126,15 +126,21 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     progress.end();
     if (options.afterRender) await options.afterRender(siteDir);
 
-    let files = await listFiles(siteDir);
-    if (await wantsSearchIndex(siteDir, files)) {
+    if (await wantsSearchIndex(siteDir, await listFiles(siteDir))) {
       progress.start('search index');
       await steps.index(siteDir);
-      files = await listFiles(siteDir);
     }
     progress.start('checks', undefined, 'files');
-    progress.update(files.length);
-    const problems = await siteProblems(siteDir, files);
+    const hashed = await hashTree(siteDir);
+    progress.update(hashed.length);
+    // A page byte-identical to one in the release on line passed this same check when that
+    // release was published: only new or changed pages are parsed again.
+    const published = await session.publishedFolder();
+    const publishedManifest = published ? await readManifest(published) : null;
+    const sameRules = publishedManifest?.['safetyRules'] === safetyRulesVersion;
+    const checkedBefore = new Set((sameRules ? (publishedManifest?.files ?? []) : []).map((entry) => entry.sha256));
+    const toCheck = hashed.filter((entry) => entry.file.endsWith('.html') && !checkedBefore.has(entry.sha256)).map((entry) => entry.file);
+    const problems = await siteProblems(siteDir, toCheck);
     if (problems.length > 0) {
       const shown = problems.slice(0, 12).map((problem) => `  - ${problem.page}: ${problem.problem}`);
       throw new PublishError(
@@ -146,10 +152,10 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
       );
     }
     const ledger = await ledgerFromModel(modelDir);
-    const published = await session.publishedFolder();
     assertArchiveIntact(published ? await readLedger(published) : null, ledger, prepared.corrections);
     await writeLedgerFile(siteDir, ledger);
-    const manifest = await writeManifest(siteDir);
+    const ledgerHash = await hashFile(path.join(siteDir, ledgerFileName));
+    const manifest = await writeManifest(siteDir, [...hashed, { file: ledgerFileName, ...ledgerHash }], { safetyRules: safetyRulesVersion });
     progress.end();
 
     progress.start('publishing');

@@ -13,6 +13,12 @@ import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { Parser } from 'htmlparser2';
 
+/**
+ * Version of the rules below. A published manifest records it; a page byte-identical to one
+ * published under the same rules need not be parsed again. Raise it whenever a rule changes.
+ */
+export const safetyRulesVersion = 1;
+
 export interface SafetyProblem {
   page: string;
   problem: string;

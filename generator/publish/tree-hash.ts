@@ -6,7 +6,7 @@
  */
 import { createHash } from 'node:crypto';
 import { createReadStream } from 'node:fs';
-import { readdir, writeFile } from 'node:fs/promises';
+import { readFile, readdir, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 
 export interface FileHash {
@@ -71,10 +71,26 @@ export function treeDigest(files: readonly FileHash[]): string {
   return hash.digest('hex');
 }
 
-/** Writes `manifest.json` (every other file of the tree) and returns the listing. */
-export async function writeManifest(root: string): Promise<FileHash[]> {
-  const files = await hashTree(root, new Set([manifestFileName]));
-  const body = { generator: 'wrackline', files };
+/** Writes `manifest.json` from a listing of every other file (sorted here) and returns it. */
+export async function writeManifest(
+  root: string,
+  listing?: readonly FileHash[],
+  extra: { [field: string]: unknown } = {},
+): Promise<FileHash[]> {
+  const files = listing
+    ? listing.filter((entry) => entry.file !== manifestFileName).sort((a, b) => compareCodeUnits(a.file, b.file))
+    : await hashTree(root, new Set([manifestFileName]));
+  const body = { generator: 'wrackline', ...extra, files };
   await writeFile(path.join(root, manifestFileName), `${JSON.stringify(body, null, 2)}\n`);
   return files;
+}
+
+/** A published folder's manifest (its listing and extra fields), or null when it has none. */
+export async function readManifest(root: string): Promise<{ files: FileHash[]; [field: string]: unknown } | null> {
+  try {
+    const parsed = JSON.parse(await readFile(path.join(root, manifestFileName), 'utf8')) as { files?: FileHash[] };
+    return Array.isArray(parsed.files) ? { ...parsed, files: parsed.files } : null;
+  } catch {
+    return null;
+  }
 }

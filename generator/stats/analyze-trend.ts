@@ -10,7 +10,8 @@
  *   claim a trend when `insufficient` is set.
  * - Censored values: S uses all of them (ambiguous pairs as ties); the slope follows
  *   censored-slope-rule.ts; the serial correction and the band use only the values the slope uses.
- * - Fast path: for n ≤ 2,000 slopes are listed directly; the bootstrap runs only for n ≤ 2,000.
+ * - Fast path: up to 50,000 pairwise slopes (n ≲ 300) are listed directly; the bootstrap runs only
+ *   for n ≤ 2,000.
  *
  * @example
  *   analyzeTrend(points, { confidence: 0.95, seasonal: true, bootstrap: { resamples: 500, seed: 7 } });

@@ -14,7 +14,7 @@
  * Intercept (Conover 1980, Practical Nonparametric Statistics, 2nd ed., §5.5): median(y) − slope ·
  * median(t).
  *
- * Speed: for N′ up to 2,000,000 all slopes are listed and sorted; above, the median and both limits
+ * Speed: for N′ up to 50,000 (n ≲ 300) all slopes are listed and sorted; above, the median and both limits
  * come from randomized slope selection (slope-selection.ts), O(n log n) expected, memory O(n).
  *
  * @example
@@ -34,7 +34,7 @@ export interface SensSlopeOptions {
   varS?: number;
   /** seed of the slope selection for long series; defaults to 1 (results do not depend on it) */
   seed?: number;
-  /** list all slopes while N′ is at most this; defaults to 2,000,000 */
+  /** list all slopes while N′ is at most this; defaults to 50,000 */
   directLimit?: number;
 }
 

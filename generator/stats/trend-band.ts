@@ -89,26 +89,44 @@ function medianSlope(t: Float64Array, y: Float64Array, scratch: Float64Array, un
     let count = 0;
     let overflow = false;
     let pair = 0;
-    for (let i = 0; i < n && !overflow; i++) {
-      const ti = t[i] as number;
-      const yi = y[i] as number;
-      for (let j = i + 1; j < n; j++) {
-        let slope: number;
-        if (inverseGaps) {
-          if (t[j] === ti) continue;
-          slope = ((y[j] as number) - yi) * (inverseGaps[pair++] as number);
-        } else {
-          const dt = (t[j] as number) - ti;
-          if (dt === 0) continue;
-          slope = ((y[j] as number) - yi) / dt;
-        }
-        if (slope < lo) below++;
-        else if (slope <= hi) {
-          if (count === scratch.length) {
-            overflow = true;
-            break;
+    if (inverseGaps && pairs === (n * (n - 1)) / 2) {
+      // no two equal times: a tight loop over every pair
+      for (let i = 0; i < n && !overflow; i++) {
+        const yi = y[i] as number;
+        for (let j = i + 1; j < n; j++, pair++) {
+          const slope = ((y[j] as number) - yi) * (inverseGaps[pair] as number);
+          if (slope < lo) below++;
+          else if (slope <= hi) {
+            if (count === scratch.length) {
+              overflow = true;
+              break;
+            }
+            scratch[count++] = slope;
           }
-          scratch[count++] = slope;
+        }
+      }
+    } else {
+      for (let i = 0; i < n && !overflow; i++) {
+        const ti = t[i] as number;
+        const yi = y[i] as number;
+        for (let j = i + 1; j < n; j++) {
+          let slope: number;
+          if (inverseGaps) {
+            if (t[j] === ti) continue;
+            slope = ((y[j] as number) - yi) * (inverseGaps[pair++] as number);
+          } else {
+            const dt = (t[j] as number) - ti;
+            if (dt === 0) continue;
+            slope = ((y[j] as number) - yi) / dt;
+          }
+          if (slope < lo) below++;
+          else if (slope <= hi) {
+            if (count === scratch.length) {
+              overflow = true;
+              break;
+            }
+            scratch[count++] = slope;
+          }
         }
       }
     }

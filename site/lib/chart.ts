@@ -8,6 +8,8 @@
  */
 import * as Plot from '@observablehq/plot';
 import { parseHTML } from 'linkedom';
+import { ticks as niceTicks } from 'd3-array';
+import { chartTrendMark, type ChartPlanInput } from '../../generator/bulletin/chart-words.ts';
 import type { IndicatorBulletin } from '../../generator/model/types.ts';
 
 const { document } = parseHTML('<!doctype html><html><head></head><body></body></html>');
@@ -51,6 +53,37 @@ export function seasonOfYear(seasonId: string): string {
 
 const seasonOrder = ['winter', 'spring', 'summer', 'autumn'];
 
+/** The inputs of the shared chart rule (generator/bulletin/chart-words.ts) for one indicator. */
+export function chartPlanOf(indicator: IndicatorBulletin): ChartPlanInput {
+  return { direction: indicator.direction, seasonsDisagree: indicator.seasonsDisagree, trend: indicator.trend, values: indicator.observations.map((o) => o.value) };
+}
+
+/** Counts (animals reported) are whole numbers: their axis gets whole-number ticks only. */
+export function isCountIndicator(indicator: Pick<IndicatorBulletin, 'indicator'>): boolean {
+  return indicator.indicator === 'wildlife-reports';
+}
+
+/**
+ * The y scale: from 0, with ticks a reader can read. Counts get whole-number ticks (0, 1, 2… or
+ * 0, 5, 10…); a series whose values are all 0 gets a 0–1 axis rather than a collapsed one.
+ */
+export function yScale(indicator: Pick<IndicatorBulletin, 'indicator' | 'unitShort' | 'threshold'>, values: readonly number[], bandLower: readonly (number | null)[], bandUpper: readonly (number | null)[]): Record<string, unknown> {
+  const finite = (list: readonly (number | null)[]) => list.filter((v): v is number => v !== null && Number.isFinite(v));
+  const top = Math.max(0, ...values, ...finite(bandUpper), indicator.threshold?.value ?? 0);
+  const bottom = Math.min(0, ...values, ...finite(bandLower));
+  const base = { label: indicator.unitShort, grid: false, zero: true };
+  if (isCountIndicator(indicator)) {
+    const floor = Math.floor(bottom);
+    const ceiling = Math.max(floor + 1, Math.ceil(top));
+    const tickValues = niceTicks(floor, ceiling, Math.min(5, ceiling - floor)).filter((v) => Number.isInteger(v));
+    const first = tickValues[0] ?? floor;
+    const last = tickValues[tickValues.length - 1] ?? ceiling;
+    return { ...base, domain: [Math.min(floor, first), Math.max(ceiling, last)], ticks: tickValues, tickFormat: 'd' };
+  }
+  if (top === 0) return { ...base, domain: [0, 1], ticks: [0, 0.5, 1] };
+  return { ...base, nice: true };
+}
+
 interface ChartOptions {
   cacheKey: string;
   width?: number;
@@ -70,13 +103,14 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
   const seasonal = indicator.seasonsDisagree;
   const band = indicator.trend?.band ?? null;
   const sen = indicator.trend?.sen ?? null;
+  const mark = chartTrendMark(chartPlanOf(indicator));
   const marks: Plot.Markish[] = [Plot.gridY({ stroke: '#c8d0d4', strokeOpacity: 0.7 })];
 
-  if (!seasonal && band && band.t.length > 1) {
+  if (mark === 'band' && band) {
     const rows = band.t.map((t, i) => ({ date: dateFromDecimalYear(t), lower: band.lower[i] ?? null, upper: band.upper[i] ?? null, fit: band.fit[i] ?? null }));
     marks.push(Plot.areaY(rows, { x: 'date', y1: 'lower', y2: 'upper', fill: bandFill, fillOpacity: 0.45 }));
     marks.push(Plot.lineY(rows, { x: 'date', y: 'fit', stroke: lineColour, strokeWidth: 2.5 }));
-  } else if (!seasonal && sen && sen.slope !== null && sen.intercept !== null && obs.length > 1) {
+  } else if (mark === 'line' && sen && sen.slope !== null && sen.intercept !== null) {
     const t0 = indicator.observations[0]!.t;
     const t1 = indicator.observations[indicator.observations.length - 1]!.t;
     const rows = [t0, t1].map((t) => ({ date: dateFromDecimalYear(t), fit: sen.intercept! + sen.slope! * t }));
@@ -112,7 +146,7 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
     x: seasonal
       ? { type: 'utc', label: null, ticks: 3, inset: 6 }
       : { type: 'utc', label: null, ticks: 5, inset: 8 },
-    y: { label: indicator.unitShort, grid: false, zero: true, nice: true },
+    y: yScale(indicator, obs.map((o) => o.value), mark === 'band' && band ? band.lower : [], mark === 'band' && band ? band.upper : []),
     ...(seasonal ? { fx: { axis: null, padding: 0.06 }, fy: { axis: null, padding: 0.1 } } : {}),
     marks,
   });

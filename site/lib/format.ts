@@ -28,6 +28,39 @@ export function formatP(p: number | null | undefined): string {
   return p.toFixed(3);
 }
 
+/** Number with a true minus sign (U+2212) instead of a hyphen. */
+export function withMinus(text: string): string {
+  return text.replace(/^-/, '\u2212');
+}
+
+/** p-value rounded for a reader: two decimals, three below 0.01, "< 0.001" below that. */
+export function formatPShort(p: number | null | undefined): string {
+  if (p === null || p === undefined || !Number.isFinite(p)) return '–';
+  if (p < 0.001) return '< 0.001';
+  return p < 0.01 ? p.toFixed(3) : p.toFixed(2);
+}
+
+/** The secondary line of a regional trend: test statistic, p and the median yearly change. */
+export function regionalFigures(t: { S: number | null; p: number | null; slope: number | null; unitShort: string }): string {
+  const test = t.S === null ? 'Regional Kendall test: too little data' : `Regional Kendall test: S = ${withMinus(String(Math.round(t.S)))}, p ${t.p !== null && t.p < 0.001 ? '' : '= '}${formatPShort(t.p)}`;
+  const slope = t.slope === null ? '' : `; median change ${withMinus(t.slope === 0 ? '0' : formatNumber(t.slope))} ${t.unitShort} a year (Sen's slope)`;
+  return `${test}${slope}.`;
+}
+
+/** A zone id as a reader says it: "zone-2" → "Zone 2". */
+export function zoneName(id: string): string {
+  const text = id.replace(/[-_]+/g, ' ').trim();
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
+
+/** Whole-number ordinal: 51.7 → "52nd". */
+export function ordinal(value: number): string {
+  const n = Math.round(value);
+  const tens = n % 100;
+  const suffix = tens >= 11 && tens <= 13 ? 'th' : n % 10 === 1 ? 'st' : n % 10 === 2 ? 'nd' : n % 10 === 3 ? 'rd' : 'th';
+  return `${n}${suffix}`;
+}
+
 /** Escape text for XML/HTML text and attribute positions (used inside generated SVG strings). */
 export function escapeXml(text: string): string {
   return text.replace(/&/g, '&amp;').replace(/</g, '&lt;').replace(/>/g, '&gt;').replace(/"/g, '&quot;').replace(/'/g, '&#39;');

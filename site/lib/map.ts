@@ -11,7 +11,7 @@ import { topology } from 'topojson-server';
 import { feature } from 'topojson-client';
 import type { Feature, FeatureCollection, Geometry, Polygon } from 'geojson';
 import type { AccumulationZone, LevelId } from '../../generator/model/types.ts';
-import { escapeXml } from './format.ts';
+import { escapeXml, zoneName } from './format.ts';
 import { levelPatternDefs, levelStyles } from './levels.ts';
 
 export interface MapSegment {
@@ -175,11 +175,11 @@ export function renderMap(options: MapOptions): string {
   for (const { zone, feature: f } of zones) {
     const d = path(f);
     if (!d) continue;
-    const label = `Offshore accumulation zone ${zone.id}: about ${zone.particles} modelled particles within ${zone.radiusKm} km`;
+    const label = `Offshore accumulation ${zoneName(zone.id).toLowerCase()}: about ${zone.particles} modelled particles within ${zone.radiusKm} km`;
     parts.push(`<path d="${d}" fill="url(#${pat})" fill-opacity="${highlight ? 0.5 : 0.9}" stroke="#3d5563" stroke-width="1" stroke-dasharray="3 2"><title>${escapeXml(label)}</title></path>`);
     const c = projection([zone.lon, zone.lat]);
     if (c && !highlight) {
-      parts.push(`<text x="${c[0].toFixed(1)}" y="${c[1].toFixed(1)}" class="zone-label" text-anchor="middle" dy="0.35em" font-size="11" font-weight="600" fill="#1f2a33" stroke="#f1f0eb" stroke-width="3" paint-order="stroke">${escapeXml(zone.id)}</text>`);
+      parts.push(`<text x="${c[0].toFixed(1)}" y="${c[1].toFixed(1)}" class="zone-label" text-anchor="middle" dy="0.35em" font-size="11" font-weight="600" fill="#1f2a33" stroke="#f1f0eb" stroke-width="3" paint-order="stroke">${escapeXml(zoneName(zone.id))}</text>`);
     }
   }
 
