@@ -46,7 +46,7 @@ export function chartOmitted(input: ChartPlanInput): boolean {
 
 /** The sentence about the trend mark (or its absence) closing a chart's text alternative. */
 export function chartTrendWords(input: ChartPlanInput, confidence: number): string {
-  if (chartOmitted(input)) return 'Every value is 0, so no chart is drawn; the values are in the table.';
+  if (chartOmitted(input)) return 'Every value is 0, so no chart is drawn.';
   if (input.seasonsDisagree) {
     return 'One panel per season of the year, because the seasons do not move together; the dots are the samples and no trend line is drawn.';
   }

@@ -1,7 +1,7 @@
 /**
  * `wrackline build`: read, check, compute, render and publish a scenario's site.
  *
- *   wrackline build [--scenario DIR] [--out DIR] [--cache DIR] [--no-cache] [--quiet]
+ *   wrackline build [--scenario DIR] [--out DIR] [--cache DIR] [--no-cache] [--site DIR] [--render-all] [--quiet]
  *
  * Exit codes: 0 published (or already up to date), 1 invalid data or a refused publication
  * (archive, safety), 2 bad usage, an unreadable scenario folder, or an output we must not replace.
@@ -17,6 +17,7 @@ import { buildRelease } from '../publish/build-release.ts';
 import type { BuildSteps } from '../publish/build-steps.ts';
 import { PublishError } from '../publish/publish-error.ts';
 import { placeFor } from '../publish/release-swap.ts';
+import { siteFingerprint } from '../publish/page-reuse.ts';
 
 export const buildHelp = `Usage: wrackline build [options]
 
@@ -32,6 +33,8 @@ Options:
                    (default: <out>.wrackline/cache; safe to delete)
   --no-cache       compute everything afresh
   --site DIR       Astro project that renders the model (default: the built-in site)
+  --render-all     render every page, even those whose inputs did not change
+                   (by default they are taken over from the published release)
   --quiet          print only errors (also when the CI variable is set)
   -h, --help       show this help
 
@@ -84,9 +87,11 @@ export async function realSteps(siteRoot: string | undefined): Promise<BuildStep
       return set;
     },
     write: (dir, set) => writeModel(dir, set),
-    render: ({ modelDir, outDir, onPage }) =>
-      renderWithAstro({ modelDir, outDir, onPage, ...(siteRoot === undefined ? {} : { siteRoot }) }),
+    render: ({ modelDir, outDir, onPage, only }) =>
+      renderWithAstro({ modelDir, outDir, onPage, ...(siteRoot === undefined ? {} : { siteRoot }), ...(only === undefined ? {} : { only }) }),
     index: (siteDir) => indexWithPagefind(siteDir),
+    // Only the built-in site is known to honour the list of bulletins to render.
+    ...(siteRoot === undefined ? { siteFingerprint: () => siteFingerprint(packageRoot, generatorVersion) } : {}),
   };
 }
 
@@ -117,6 +122,7 @@ export async function runBuild(argv: string[], options: RunBuildOptions = {}): P
         cache: { type: 'string' },
         'no-cache': { type: 'boolean' },
         site: { type: 'string' },
+        'render-all': { type: 'boolean' },
         quiet: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
@@ -141,7 +147,7 @@ export async function runBuild(argv: string[], options: RunBuildOptions = {}): P
   const started = performance.now();
   try {
     const steps = options.steps ?? (await realSteps(values.site === undefined ? undefined : path.resolve(values.site)));
-    const outcome = await buildRelease({ scenario, out, cache, progress, steps, log: (line) => progress.note(`  ${line}`) });
+    const outcome = await buildRelease({ scenario, out, cache, progress, steps, renderAll: values['render-all'] === true, log: (line) => progress.note(`  ${line}`) });
     if (outcome.kind === 'invalid') {
       stderr(formatReport(outcome.report));
       return 1;

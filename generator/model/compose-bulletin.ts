@@ -27,7 +27,8 @@ import { getIndicator } from '../indicators/index.ts';
 import { levelWords } from '../risk/levels.ts';
 import type { LoadedScenario, Segment } from '../scenario/types.ts';
 import type { IndicatorEvaluation, SeasonEvaluation } from './evaluate-season.ts';
-import type { Bulletin, IndicatorBulletin } from './types.ts';
+import { seasonRef } from './seasons.ts';
+import type { Bulletin, IndicatorBulletin, Observation } from './types.ts';
 
 export function permalinkOf(seasonId: string, segmentId: string): string {
   return `/seasons/${seasonId}/${segmentId}/`;
@@ -71,7 +72,19 @@ function sectionTrendSentences(input: TrendPhraseInput, withRate: boolean): stri
   return [...first, ...rateSentences(input).slice(0, 1)];
 }
 
-function chartDescription(evaluation: IndicatorEvaluation, segmentName: string, confidence: number): string {
+/** Season totals of a per-season count (what its trend is computed on), null for other indicators. */
+function seasonTotalsOf(evaluation: IndicatorEvaluation, scenario: LoadedScenario): Observation[] | null {
+  if (getIndicator(evaluation.indicator).aggregation !== 'season-total') return null;
+  return evaluation.values.map((v) => ({
+    date: seasonRef(v.season, scenario.settings.seasons)?.end ?? '',
+    t: v.t,
+    season: v.season,
+    value: v.value,
+    censored: false,
+  }));
+}
+
+function chartDescription(evaluation: IndicatorEvaluation, scenario: LoadedScenario, segmentName: string, confidence: number): string {
   const definition = getIndicator(evaluation.indicator);
   const span = evaluation.yearSpan
     ? evaluation.yearSpan.first === evaluation.yearSpan.last
@@ -83,7 +96,7 @@ function chartDescription(evaluation: IndicatorEvaluation, segmentName: string, 
       direction: evaluation.direction,
       seasonsDisagree: seasonsDisagree(evaluation.trend, confidence),
       trend: evaluation.trend,
-      values: evaluation.observations.map((o) => o.value),
+      values: (seasonTotalsOf(evaluation, scenario) ?? evaluation.observations).map((o) => o.value),
     },
     confidence,
   );
@@ -98,6 +111,7 @@ function noneEverReported(evaluation: IndicatorEvaluation): boolean {
 function indicatorBulletin(evaluation: IndicatorEvaluation, scenario: LoadedScenario, segment: Segment): IndicatorBulletin {
   const definition = getIndicator(evaluation.indicator);
   const input = trendPhraseInput(evaluation, scenario);
+  const totals = seasonTotalsOf(evaluation, scenario);
   const claimed = evaluation.direction === 'falling' && evaluation.probabilityUp !== null ? 1 - evaluation.probabilityUp : evaluation.probabilityUp;
   return {
     indicator: evaluation.indicator,
@@ -117,8 +131,9 @@ function indicatorBulletin(evaluation: IndicatorEvaluation, scenario: LoadedScen
       noneEverReported(evaluation) && evaluation.yearSpan
         ? noneReportedSentences('animals harmed by litter', evaluation.yearSpan.first, evaluation.yearSpan.last)
         : phraseTrend(input),
-    chartDescription: chartDescription(evaluation, segment.name, scenario.settings.trend.confidence),
+    chartDescription: chartDescription(evaluation, scenario, segment.name, scenario.settings.trend.confidence),
     seasonsDisagree: seasonsDisagree(evaluation.trend, scenario.settings.trend.confidence),
+    ...(totals ? { seasonTotals: totals } : {}),
   };
 }
 

@@ -85,6 +85,12 @@ export interface IndicatorBulletin {
   /** Short text alternative for the chart. */
   chartDescription: string;
   seasonsDisagree: boolean;
+  /**
+   * For indicators counted per season (animals reported): the season totals the trend is computed
+   * on, oldest first, a monitored season with no report counting 0; `date` is the season's last day.
+   * Absent where the trend uses the samples themselves.
+   */
+  seasonTotals?: Observation[];
 }
 
 export interface RuleHit {

@@ -83,6 +83,8 @@ export interface RenderOptions {
   siteRoot?: string;
   /** Called with the number of pages written so far. */
   onPage?: (pagesDone: number) => void;
+  /** JSON list of "season/segment" bulletins whose own pages to render (WRACKLINE_RENDER_ONLY). */
+  only?: string;
 }
 
 export async function renderWithAstro(options: RenderOptions): Promise<{ pages: number }> {
@@ -99,6 +101,8 @@ export async function renderWithAstro(options: RenderOptions): Promise<{ pages: 
     TZ: 'UTC',
     FORCE_COLOR: '0',
   };
+  delete env['WRACKLINE_RENDER_ONLY'];
+  if (options.only !== undefined) env['WRACKLINE_RENDER_ONLY'] = path.resolve(options.only);
   const result = await runNodeScript(astro, ['build', '--outDir', path.resolve(options.outDir)], {
     cwd: siteRoot,
     env,

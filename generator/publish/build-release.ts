@@ -25,7 +25,10 @@ import { openPublishSession } from './release-swap.ts';
 import type { PublishSession } from './release-swap.ts';
 import { assertSlug } from './safe-path.ts';
 import { hashFile, hashTree, listFiles, readManifest, treeDigest, writeManifest } from './tree-hash.ts';
+import type { FileHash } from './tree-hash.ts';
 import type { Progress } from '../progress/progress.ts';
+import { bringOver, computeRenderKeys, planRender, readRenderKeys, writeRenderKeys } from './page-reuse.ts';
+import type { RenderKeys, RenderPlan } from './page-reuse.ts';
 import type { ValidationReport } from '../model/types.ts';
 
 export interface BuildReleaseOptions {
@@ -37,6 +40,8 @@ export interface BuildReleaseOptions {
   steps: BuildSteps;
   /** Extra lines for the person running the build (stderr). */
   log?: (line: string) => void;
+  /** Render every page even when the published release holds pages whose inputs did not change. */
+  renderAll?: boolean;
   /** Test hook: runs after rendering, before any check or swap. */
   afterRender?: (siteDir: string) => Promise<void>;
 }
@@ -121,8 +126,31 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
   const { session, modelDir } = prepared;
   try {
     const siteDir = await session.workFolder('site');
+    const published = await session.publishedFolder();
+    const publishedManifest = published ? await readManifest(published) : null;
+    // Which bulletins' pages to render; the others are taken over from the release on line.
+    const keys: RenderKeys | null = steps.siteFingerprint ? await computeRenderKeys(modelDir, await steps.siteFingerprint()) : null;
+    let plan: RenderPlan = { kind: 'all', reason: 'the renderer cannot render part of the site' };
+    if (keys !== null) {
+      if (options.renderAll) plan = { kind: 'all', reason: 'asked to render every page' };
+      else if (published === null || publishedManifest === null) plan = { kind: 'all', reason: 'nothing is published yet' };
+      else plan = planRender(await readRenderKeys(published), keys);
+    }
+    let only: string | undefined;
+    if (plan.kind === 'some') {
+      only = path.join(await session.workFolder('plan'), 'render-only.json');
+      await writeFile(only, `${JSON.stringify(plan.render)}\n`);
+      progress.note(`  pages: ${plan.render.length} bulletin(s) changed, ${plan.reuse.length} taken over from the published release`);
+    } else if (keys !== null) {
+      progress.note(`  pages: rendering every page (${plan.reason})`);
+    }
     progress.start('pages', undefined, 'pages');
-    const rendered = await steps.render({ modelDir, outDir: siteDir, onPage: (done) => progress.update(done) });
+    const rendered = await steps.render({ modelDir, outDir: siteDir, onPage: (done) => progress.update(done), ...(only === undefined ? {} : { only }) });
+    let brought: FileHash[] = [];
+    if (plan.kind === 'some' && published !== null && publishedManifest !== null && keys !== null) {
+      brought = await bringOver(published, publishedManifest.files, siteDir, new Set(plan.reuse), keys.current);
+    }
+    if (keys !== null) await writeRenderKeys(siteDir, keys);
     progress.end();
     if (options.afterRender) await options.afterRender(siteDir);
 
@@ -133,10 +161,14 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     progress.start('checks', undefined, 'files');
     const hashed = await hashTree(siteDir);
     progress.update(hashed.length);
+    // Files taken over must still be what the release on line recorded.
+    const hashes = new Map(hashed.map((entry) => [entry.file, entry.sha256]));
+    const altered = brought.filter((entry) => hashes.get(entry.file) !== entry.sha256);
+    if (altered.length > 0) {
+      throw new PublishError(`page reuse: ${altered.length} file(s) of the published release differ from its manifest (first: ${altered[0]?.file}); run again with --render-all`);
+    }
     // A page byte-identical to one in the release on line passed this same check when that
     // release was published: only new or changed pages are parsed again.
-    const published = await session.publishedFolder();
-    const publishedManifest = published ? await readManifest(published) : null;
     const sameRules = publishedManifest?.['safetyRules'] === safetyRulesVersion;
     const checkedBefore = new Set((sameRules ? (publishedManifest?.files ?? []) : []).map((entry) => entry.sha256));
     const toCheck = hashed.filter((entry) => entry.file.endsWith('.html') && !checkedBefore.has(entry.sha256)).map((entry) => entry.file);
@@ -166,7 +198,8 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
       kind: 'published',
       release: outcome.release,
       unchanged: outcome.unchanged,
-      pages: rendered.pages,
+      // each file taken over is the output of one route, as each file Astro listed
+      pages: rendered.pages + brought.length,
       files: manifest.length + 1,
       digest,
       report: prepared.report,

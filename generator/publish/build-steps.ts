@@ -18,6 +18,15 @@ export interface BuildSteps {
     options: { cacheDir: string | null; onProgress: (done: number, total?: number) => void; log: (line: string) => void },
   ): Promise<ModelSet>;
   write(modelDir: string, set: ModelSet): Promise<void>;
-  render(options: { modelDir: string; outDir: string; onPage: (done: number) => void }): Promise<{ pages: number }>;
+  /**
+   * `only`: a JSON file listing the "season/segment" bulletins whose own pages to render (pages
+   * about every bulletin are always rendered); absent: render everything.
+   */
+  render(options: { modelDir: string; outDir: string; onPage: (done: number) => void; only?: string }): Promise<{ pages: number }>;
   index(siteDir: string): Promise<void>;
+  /**
+   * A hash of everything besides the model that pages depend on. Only a renderer that honours
+   * `only` provides it; without it every build renders every page (see page-reuse.ts).
+   */
+  siteFingerprint?(): Promise<string>;
 }

@@ -2,7 +2,8 @@
  * A cache of per-series trend results, so a rebuild after a small data change recomputes only
  * the series that changed. It wraps the model's trend engine: `analyze(points, options)` is
  * looked up by the SHA-256 of the series, the options and a fingerprint of the statistics code
- * (the package version and the text of every file in generator/stats/), and computed on a miss.
+ * (the package version and the text of every file in generator/stats/ and generator/random/,
+ * which the statistics import, and of the model's link to them), and computed on a miss.
  *
  * What is not cached, because it depends on all segments at once and is cheap: the
  * Benjamini–Hochberg adjustment, the regional test, region percentiles, levels and sentences.
@@ -31,7 +32,7 @@ interface CacheFile {
 /** Changes whenever the statistics code or the package version changes. */
 export async function statisticsFingerprint(packageRoot: string, version: string): Promise<string> {
   const hash = createHash('sha256').update(`wrackline ${version}\n`);
-  const folders = ['generator/stats', 'generator/model/trend-engine.ts'];
+  const folders = ['generator/stats', 'generator/random', 'generator/model/trend-engine.ts'];
   for (const item of folders) {
     const full = path.join(packageRoot, item);
     const files = item.endsWith('.ts')

@@ -8,7 +8,9 @@
  * - Slope: median of all within-season pairwise slopes (Hirsch et al. 1982 p. 117); interval by
  *   Gilbert (1987, pp. 227–228) with N′ = number of within-season slopes and Var(S′), the ranks
  *   interpolated as in sens-slope.ts.
- * - Serially dependent seasons: Var(S′) = Σ Var(S_g) + 2 Σ_{g<h} σ_gh (Hirsch & Slack 1984,
+ * - Serially dependent seasons (computed in season-covariance.ts, which may leave it out for very
+ *   many seasons over many cycles; `covarianceSkipped` then says so):
+ *   Var(S′) = Σ Var(S_g) + 2 Σ_{g<h} σ_gh (Hirsch & Slack 1984,
  *   "A nonparametric trend test for seasonal data with serial dependence", Water Resour. Res.
  *   20(6):727–732, eq. 7; Dietz & Killeen 1981, J. Am. Stat. Assoc. 76:169–174), with
  *   σ_gh = [K_gh + 4 Σ_i R_ig R_ih − n(n_g + 1)(n_h + 1)]/3,
@@ -30,8 +32,11 @@
 import { chiSquareUpperTail } from './chi-square-distribution.ts';
 import { continuityCorrectedZ, mannKendall, twoSidedP } from './mann-kendall.ts';
 import { checkConfidence, intervalRanks } from './sens-slope.ts';
+import { totalSeasonCovariance, type CycleCell } from './season-covariance.ts';
 import { listAllSlopes } from './slope-selection.ts';
 import type { SeasonalKendallResult } from './types.ts';
+
+export { seasonCovariance, type CycleCell } from './season-covariance.ts';
 
 /** One season's values, sorted by time. */
 export interface SeasonGroup {
@@ -46,12 +51,16 @@ export interface SeasonGroup {
 export interface SeasonalKendallOptions {
   /** confidence level of the slope interval; defaults to 0.95 */
   confidence?: number;
+  /** most products the covariance correction may take (season-covariance.ts); beyond it the correction is left out */
+  covarianceWorkLimit?: number;
 }
 
 export interface SeasonalKendallDetail extends SeasonalKendallResult {
   tauA: number | null;
   zCovariance: number | null;
   nSlopes: number;
+  /** present only when the covariance correction was left out, saying why */
+  covarianceSkipped?: string;
 }
 
 /** Within-season slopes between uncensored values (the censoring rule of censored-slope-rule.ts). */
@@ -65,19 +74,6 @@ function uncensoredSlopes(g: SeasonGroup): Float64Array {
     y.push(g.y[i] as number);
   }
   return listAllSlopes(t, y);
-}
-
-/** Sign of y_b − y_a with the censoring rule: ambiguous orders are 0. */
-function censoredSign(ya: number, ca: boolean, yb: number, cb: boolean): number {
-  if (!ca && !cb) return Math.sign(yb - ya);
-  if (ca && cb) return 0;
-  if (ca) return yb >= ya ? 1 : 0; // "<ya" against yb
-  return ya >= yb ? -1 : 0; // ya against "<yb"
-}
-
-export interface CycleCell {
-  value: number;
-  censored: boolean;
 }
 
 function cycleTable(groups: readonly SeasonGroup[]): { cycles: number[]; cells: (CycleCell | null)[][] } {
@@ -106,37 +102,6 @@ function cycleTable(groups: readonly SeasonGroup[]): { cycles: number[]; cells: 
     }),
   );
   return { cycles, cells };
-}
-
-/** Hirsch & Slack (1984) covariance σ_gh of two seasons' S over common cycles. */
-export function seasonCovariance(a: readonly (CycleCell | null)[], b: readonly (CycleCell | null)[]): number {
-  const n = a.length;
-  let k = 0;
-  for (let i = 0; i < n; i++) {
-    for (let j = i + 1; j < n; j++) {
-      const ai = a[i];
-      const aj = a[j];
-      const bi = b[i];
-      const bj = b[j];
-      if (!ai || !aj || !bi || !bj) continue;
-      k += censoredSign(ai.value, ai.censored, aj.value, aj.censored) * censoredSign(bi.value, bi.censored, bj.value, bj.censored);
-    }
-  }
-  const ranks = (cells: readonly (CycleCell | null)[]): { r: number[]; count: number } => {
-    const count = cells.filter((c) => c !== null).length;
-    const r = cells.map((ci) => {
-      if (!ci) return (count + 1) / 2;
-      let sum = 0;
-      for (const ck of cells) if (ck) sum += censoredSign(ck.value, ck.censored, ci.value, ci.censored);
-      return (count + 1 + sum) / 2;
-    });
-    return { r, count };
-  };
-  const ra = ranks(a);
-  const rb = ranks(b);
-  let cross = 0;
-  for (let i = 0; i < n; i++) cross += (ra.r[i] as number) * (rb.r[i] as number);
-  return (k + 4 * cross - n * (ra.count + 1) * (rb.count + 1)) / 3;
 }
 
 /**
@@ -195,13 +160,12 @@ export function seasonalKendall(groups: readonly SeasonGroup[], options: Seasona
   }
   // Hirsch & Slack (1984) covariance correction
   let varSCovariance: number | null = null;
+  let covarianceSkipped: string | null = null;
   if (groups.length > 0) {
     const { cells } = cycleTable(groups);
-    let covariance = 0;
-    for (let g = 0; g < cells.length; g++) {
-      for (let h = g + 1; h < cells.length; h++) covariance += seasonCovariance(cells[g] as (CycleCell | null)[], cells[h] as (CycleCell | null)[]);
-    }
-    varSCovariance = varS + 2 * covariance;
+    const covariance = totalSeasonCovariance(cells, options.covarianceWorkLimit);
+    if (covariance === null) covarianceSkipped = `the covariance correction was not computed: ${groups.length} groups over ${cells[0]?.length ?? 0} cycles exceed the work limit`;
+    else varSCovariance = varS + 2 * covariance;
   }
   const zCovariance = varSCovariance === null ? null : continuityCorrectedZ(S, varSCovariance);
   // van Belle & Hughes (1984) heterogeneity
@@ -218,7 +182,7 @@ export function seasonalKendall(groups: readonly SeasonGroup[], options: Seasona
     const df = zs.length - 1;
     heterogeneity = { chi2, df, p: chiSquareUpperTail(chi2, df) };
   }
-  return {
+  const result: SeasonalKendallDetail = {
     S,
     varS,
     z,
@@ -235,4 +199,6 @@ export function seasonalKendall(groups: readonly SeasonGroup[], options: Seasona
     seasons,
     nSlopes,
   };
+  if (covarianceSkipped !== null) result.covarianceSkipped = covarianceSkipped;
+  return result;
 }

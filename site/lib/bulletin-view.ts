@@ -8,7 +8,7 @@ import { renderIndicatorChart } from './chart.ts';
 import { prepareSegments, renderMap } from './map.ts';
 import type { PreparedSegments } from './map.ts';
 import type { LoadedModel } from './model.ts';
-import { bulletinsOf, regionOf } from './model.ts';
+import { bulletinsOf, pageBulletins, regionOf } from './model.ts';
 
 export function chartFor(bulletin: Bulletin, indicator: IndicatorBulletin): string {
   return renderIndicatorChart(indicator, { cacheKey: `${bulletin.season.id}/${bulletin.segment.id}/${indicator.indicator}` });
@@ -97,7 +97,7 @@ export function permalinkOf(bulletin: Bulletin): string {
 
 /** Static paths for every published bulletin: one per season and segment. */
 export function everyBulletinPath(model: LoadedModel): { params: { season: string; segment: string }; props: { bulletin: Bulletin } }[] {
-  return model.site.seasons.flatMap((s) => bulletinsOf(model, s.id).map((bulletin) => ({
+  return model.site.seasons.flatMap((s) => pageBulletins(bulletinsOf(model, s.id)).map((bulletin) => ({
     params: { season: assertSlug(s.id, 'season id'), segment: assertSlug(bulletin.segment.id, 'segment id') },
     props: { bulletin },
   })));

@@ -55,7 +55,7 @@ const seasonOrder = ['winter', 'spring', 'summer', 'autumn'];
 
 /** The inputs of the shared chart rule (generator/bulletin/chart-words.ts) for one indicator. */
 export function chartPlanOf(indicator: IndicatorBulletin): ChartPlanInput {
-  return { direction: indicator.direction, seasonsDisagree: indicator.seasonsDisagree, trend: indicator.trend, values: indicator.observations.map((o) => o.value) };
+  return { direction: indicator.direction, seasonsDisagree: indicator.seasonsDisagree, trend: indicator.trend, values: (indicator.seasonTotals ?? indicator.observations).map((o) => o.value) };
 }
 
 /** Counts (animals reported) are whole numbers: their axis gets whole-number ticks only. */
@@ -93,12 +93,15 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
   const hit = cache.get(options.cacheKey);
   if (hit !== undefined) return hit;
   const width = options.width ?? 420;
-  const obs = indicator.observations.filter((o) => o.value !== null).map((o) => ({
-    date: dateFromIso(o.date),
+  const totals = indicator.seasonTotals ?? null;
+  const source = totals ?? indicator.observations;
+  const obs = source.filter((o) => o.value !== null).map((o) => ({
+    // Season totals sit at the middle of their season, where the trend band is computed.
+    date: totals ? dateFromDecimalYear(o.t) : dateFromIso(o.date),
     value: o.value as number,
     censored: o.censored,
     season: seasonOfYear(o.season),
-    title: `${o.date}: ${o.censored ? 'below detection limit ' : ''}${o.value} ${indicator.unitShort}`,
+    title: totals ? `${o.season}: ${o.value} ${indicator.unitShort}` : `${o.date}: ${o.censored ? 'below detection limit ' : ''}${o.value} ${indicator.unitShort}`,
   }));
   const seasonal = indicator.seasonsDisagree;
   const band = indicator.trend?.band ?? null;
@@ -111,15 +114,22 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
     marks.push(Plot.areaY(rows, { x: 'date', y1: 'lower', y2: 'upper', fill: bandFill, fillOpacity: 0.45 }));
     marks.push(Plot.lineY(rows, { x: 'date', y: 'fit', stroke: lineColour, strokeWidth: 2.5 }));
   } else if (mark === 'line' && sen && sen.slope !== null && sen.intercept !== null) {
-    const t0 = indicator.observations[0]!.t;
-    const t1 = indicator.observations[indicator.observations.length - 1]!.t;
+    const t0 = source[0]!.t;
+    const t1 = source[source.length - 1]!.t;
     const rows = [t0, t1].map((t) => ({ date: dateFromDecimalYear(t), fit: sen.intercept! + sen.slope! * t }));
     marks.push(Plot.lineY(rows, { x: 'date', y: 'fit', stroke: lineColour, strokeWidth: 2.5 }));
   }
   if (indicator.threshold) {
     marks.push(Plot.ruleY([indicator.threshold.value], { stroke: thresholdColour, strokeWidth: 1.5, strokeDasharray: '6 4' }));
     if (!seasonal) {
-      marks.push(Plot.text([indicator.threshold.value], { y: (d: number) => d, frameAnchor: 'right', dy: -7, text: () => thresholdText(indicator.threshold!), fill: thresholdColour, fontSize: 11, textAnchor: 'end' }));
+      // A short label at the left end, on the side of the line where the data are not (below
+      // the line when most values lie above it); the key names the threshold in full.
+      const sorted = obs.map((o) => o.value).sort((a, b) => a - b);
+      const middle = sorted.length > 0 ? sorted[Math.floor(sorted.length / 2)]! : 0;
+      const highest = sorted.length > 0 ? sorted[sorted.length - 1]! : 0;
+      // Below the line only when there is room between it and the zero line.
+      const below = middle >= indicator.threshold.value && indicator.threshold.value / Math.max(highest, indicator.threshold.value) >= 0.12;
+      marks.push(Plot.text([indicator.threshold.value], { y: (d: number) => d, frameAnchor: 'left', dx: 4, dy: below ? 11 : -8, text: () => `threshold ${indicator.threshold!.value} ${indicator.unitShort}`, fill: thresholdColour, fontSize: 12, textAnchor: 'start' }));
     }
   }
   // Seasons of the year as a 2 × 2 grid of panels (winter, spring / summer, autumn), each named inside its frame.
@@ -142,7 +152,7 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
     marginRight: 16,
     marginTop: 20,
     marginBottom: 30,
-    style: { fontSize: '12px', fontFamily: 'inherit', color: ink, background: 'transparent', overflow: 'visible' },
+    style: { fontSize: '13px', fontFamily: 'inherit', color: ink, background: 'transparent', overflow: 'visible' },
     x: seasonal
       ? { type: 'utc', label: null, ticks: 3, inset: 6 }
       : { type: 'utc', label: null, ticks: 5, inset: 8 },

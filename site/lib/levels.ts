@@ -56,3 +56,11 @@ export function levelGlyphSymbols(): string {
 export function levelGlyph(level: LevelId): string {
   return `<svg class="lv-glyph" width="16" height="16" viewBox="0 0 16 16" aria-hidden="true" focusable="false"><use href="#wl-lv-${levelStyles[level].rank}"/></svg>`;
 }
+
+/** Rank and name of each level, for naming the level a rule leads to. */
+export const levelScaleWords: Record<string, { rank: number; label: string }> = {
+  scant: { rank: 1, label: 'Scant' },
+  noticeable: { rank: 2, label: 'Noticeable' },
+  marked: { rank: 3, label: 'Marked' },
+  heavy: { rank: 4, label: 'Heavy' },
+};

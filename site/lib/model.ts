@@ -3,6 +3,7 @@
  * `.wrackline/model`), read once per build through the generator's own readModel and
  * indexed for the pages. Pages only render what is here.
  */
+import { readFileSync } from 'node:fs';
 import { resolve } from 'node:path';
 import { readModel } from '../../generator/model/read-model.ts';
 import type { Bulletin, RegionSummary, SiteModel } from '../../generator/model/types.ts';
@@ -59,4 +60,20 @@ export function regionOf(model: LoadedModel, seasonId: string): RegionSummary {
   const region = model.regions.get(seasonId);
   if (!region) throw new Error(`bulletin model has no region summary for season ${seasonId}`);
   return region;
+}
+
+let renderOnly: Set<string> | null | undefined;
+/**
+ * The bulletins whose own pages this build renders (for getStaticPaths of bulletin pages only;
+ * pages listing bulletins use bulletinsOf). All of them, unless WRACKLINE_RENDER_ONLY names a
+ * JSON list of "season/segment" ids: a rebuild takes the other pages over from the published
+ * release (generator/publish/page-reuse.ts).
+ */
+export function pageBulletins(list: Bulletin[]): Bulletin[] {
+  if (renderOnly === undefined) {
+    const file = process.env['WRACKLINE_RENDER_ONLY'];
+    renderOnly = file ? new Set(JSON.parse(readFileSync(file, 'utf8')) as string[]) : null;
+  }
+  const only = renderOnly;
+  return only === null ? list : list.filter((b) => only.has(`${b.season.id}/${b.segment.id}`));
 }

@@ -15,10 +15,14 @@ import { snapshot } from './helpers/tree.ts';
 let work: string;
 let lockHolder: ChildProcess | null = null;
 
-/** Holds the shared Astro lock for the whole test (other builds wait), when flock exists. */
+/**
+ * Holds the shared Astro lock for the whole test (other builds wait), when flock exists. The
+ * holder waits for the end of its standard input, so it lets go when the test closes the pipe or
+ * when the test process dies (the pipe closes with it).
+ */
 async function holdAstroLock(): Promise<void> {
   if (!existsSync('/usr/bin/flock')) return;
-  const holder = spawn('/usr/bin/flock', ['/tmp/astro.lock', '-c', 'echo locked; exec sleep 900'], { stdio: ['ignore', 'pipe', 'ignore'] });
+  const holder = spawn('/usr/bin/flock', ['/tmp/astro.lock', '-c', 'echo locked; cat > /dev/null'], { stdio: ['pipe', 'pipe', 'ignore'] });
   lockHolder = holder;
   await new Promise<void>((resolve) => holder.stdout?.on('data', () => resolve()));
 }
@@ -44,7 +48,11 @@ beforeAll(async () => {
   await holdAstroLock();
 }, 900_000);
 afterAll(async () => {
-  lockHolder?.kill('SIGTERM');
+  if (lockHolder) {
+    const ended = new Promise((resolve) => lockHolder?.on('exit', resolve));
+    lockHolder.stdin?.end();
+    await ended;
+  }
   await rm(work, { recursive: true, force: true });
 });
 

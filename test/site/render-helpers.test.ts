@@ -8,9 +8,9 @@ import { geoArea } from 'd3-geo';
 import { parseHTML } from 'linkedom';
 import { describe, expect, it } from 'vitest';
 import type { Bulletin, IndicatorBulletin } from '../../generator/model/types.ts';
-import { dateFromDecimalYear, renderIndicatorChart, roundSvgNumbers } from '../../site/lib/chart.ts';
+import { dateFromDecimalYear, renderIndicatorChart, roundSvgNumbers, yScale } from '../../site/lib/chart.ts';
 import { observationsCsv, toCsv } from '../../site/lib/csv.ts';
-import { escapeXml, formatDate, jsonLdText, safeHttpUrl, safeMailto, safeTel } from '../../site/lib/format.ts';
+import { escapeXml, formatDate, formatPShort, jsonLdText, ordinal, regionalFigures, safeHttpUrl, safeMailto, safeTel } from '../../site/lib/format.ts';
 import { prepareSegments, renderMap } from '../../site/lib/map.ts';
 
 const fixture = join(import.meta.dirname, '..', 'fixtures', 'model');
@@ -96,6 +96,66 @@ describe('renderIndicatorChart', () => {
     const { document } = parseHTML(`<!doctype html><html><body>${svg}</body></html>`);
     const labels = [...document.querySelectorAll('text')].map((t) => t.textContent);
     for (const season of ['winter', 'spring', 'summer', 'autumn']) expect(labels).toContain(season);
+  });
+});
+
+describe('chart axes and trend marks', () => {
+  const tickTexts = (svg: string): string[] => {
+    const { document } = parseHTML(`<!doctype html><html><body>${svg}</body></html>`);
+    return [...document.querySelectorAll('text')].map((t) => t.textContent ?? '');
+  };
+  const beach = bulletin.indicators.find((i) => i.indicator === 'beach-litter')!;
+  const counts = (values: number[]): IndicatorBulletin => ({
+    ...beach,
+    indicator: 'wildlife-reports',
+    unitShort: 'animals',
+    threshold: null,
+    direction: 'rising',
+    seasonsDisagree: false,
+    observations: values.map((value, i) => ({ date: `${2017 + Math.floor(i / 4)}-0${1 + (i % 4) * 2}-15`, t: 2017 + i / 4 + 0.1, season: `${2017 + Math.floor(i / 4)}-spring`, value, censored: false })),
+  });
+
+  it('gives counts whole-number ticks only (animals cannot be fractional)', () => {
+    const svg = renderIndicatorChart(counts([0, 1, 0, 2, 1, 3, 0, 1, 2, 1, 0, 3]), { cacheKey: 'test/count-ticks' });
+    const numeric = tickTexts(svg).filter((t) => /^[−-]?[\d.]+$/.test(t) && !/^20\d\d$/.test(t));
+    expect(numeric.length).toBeGreaterThan(1);
+    for (const label of numeric) expect(label).toMatch(/^[−-]?\d+$/);
+  });
+
+  it('draws an all-zero count on a 0–1 axis, never with long decimals', () => {
+    const scale = yScale({ indicator: 'wildlife-reports', unitShort: 'animals', threshold: null }, [0, 0, 0], [], []);
+    expect(scale['domain']).toEqual([0, 1]);
+    expect(scale['ticks']).toEqual([0, 1]);
+    const svg = renderIndicatorChart(counts([0, 0, 0, 0, 0, 0]), { cacheKey: 'test/count-zero' });
+    expect(tickTexts(svg).some((t) => /\d\.\d{3,}/.test(t))).toBe(false);
+    const measured = yScale({ indicator: 'water-microplastics', unitShort: 'particles/m³', threshold: null }, [0, 0], [], []);
+    expect(measured['domain']).toEqual([0, 1]);
+  });
+
+  it('draws no trend line where the seasons disagree or the data are too few', () => {
+    const withBand = renderIndicatorChart(beach, { cacheKey: 'test/band' });
+    const seasonal = renderIndicatorChart({ ...beach, seasonsDisagree: true }, { cacheKey: 'test/no-line-seasonal' });
+    const few = renderIndicatorChart({ ...beach, direction: 'too-little-data' }, { cacheKey: 'test/no-line-few' });
+    const hasLine = (svg: string) => svg.includes('stroke="#0f4c5c"');
+    expect(beach.trend?.band ?? beach.trend?.sen?.slope ?? null).not.toBeNull();
+    expect(hasLine(withBand)).toBe(true);
+    expect(hasLine(seasonal)).toBe(false);
+    expect(hasLine(few)).toBe(false);
+  });
+});
+
+describe('regional figures', () => {
+  it('prints the test as secondary text with a true minus sign and a rounded p', () => {
+    expect(regionalFigures({ S: -254, p: 0.4512, slope: 0, unitShort: 'items/100 m' })).toBe(
+      "Regional Kendall test: S = \u2212254, p = 0.45; median change 0 items/100 m a year (Sen's slope).",
+    );
+    expect(regionalFigures({ S: 968, p: 0.00001, slope: -0.0123, unitShort: 'particles/m³' })).toBe(
+      "Regional Kendall test: S = 968, p < 0.001; median change \u22120.012 particles/m³ a year (Sen's slope).",
+    );
+    expect(formatPShort(0.0062)).toBe('0.006');
+    expect(ordinal(51.7)).toBe('52nd');
+    expect(ordinal(11)).toBe('11th');
+    expect(ordinal(23)).toBe('23rd');
   });
 });
 

@@ -1,0 +1,227 @@
+/**
+ * Reusing unchanged bulletin pages from the published release.
+ *
+ * Every page about one bulletin — `/seasons/<season>/<segment>/` with its three downloads, and
+ * for the current season `/segments/<segment>/` and `/embed/<segment>/<indicator>/` — is rendered
+ * from that bulletin's model file plus a few shared inputs. Each bulletin gets a render key, the
+ * SHA-256 of:
+ * - the site fingerprint: the text of every file under site/, public/ and generator/, of
+ *   astro.config.mjs, package.json, package-lock.json and tsconfig.json (any code change → new key);
+ * - the seasons of site.json (which one is current, labels) and the sorted list of every
+ *   bulletin id (which seasons a segment has a bulletin in: the page links to them);
+ * - the parts of its season's region summary a bulletin page reads: each segment's name, kind,
+ *   level and geometry (locator map), the accumulation zones, the publisher, the region's name,
+ *   and the regional trends' indicator ids and labels (the "not measured here" line);
+ * - its own model file, byte for byte.
+ * The keys are stored in the release (`render-keys.json`). A rebuild hands Astro only the
+ * bulletins whose key changed (pages that list every bulletin — overview, season indexes, feed,
+ * methods, search — are always rendered in full) and hard-links the other bulletins' files from
+ * the published release. Anything unsure renders everything: no keys on line, a different site
+ * fingerprint, seasons or bulletin set, or a key file that does not parse.
+ */
+import { createHash } from 'node:crypto';
+import { copyFile, link, mkdir, readFile, readdir, writeFile } from 'node:fs/promises';
+import path from 'node:path';
+import { compareCodeUnits } from './tree-hash.ts';
+import type { FileHash } from './tree-hash.ts';
+
+export const renderKeysFileName = 'render-keys.json';
+/** Changes whenever the way keys are computed changes (old keys then never match). */
+const keyScheme = 'wrackline-render-keys-1';
+
+export interface RenderKeys {
+  scheme: string;
+  /** Site fingerprint, seasons and bulletin set together: equal or everything is rendered. */
+  shared: string;
+  /** Current season id: decides which bulletins own /segments/ and /embed/ pages. */
+  current: string;
+  /** "season/segment" → render key. */
+  bulletins: { [id: string]: string };
+}
+
+function sha256(...parts: (string | Buffer)[]): string {
+  const hash = createHash('sha256');
+  for (const part of parts) hash.update(typeof part === 'string' ? `${part.length}:${part}` : part);
+  return hash.digest('hex');
+}
+
+async function walk(root: string, relative: string, out: string[]): Promise<void> {
+  let entries;
+  try {
+    entries = await readdir(path.join(root, relative), { withFileTypes: true });
+  } catch (error) {
+    if ((error as { code?: string }).code === 'ENOENT') return;
+    throw error;
+  }
+  for (const entry of entries) {
+    const child = relative === '' ? entry.name : `${relative}/${entry.name}`;
+    if (entry.isDirectory()) await walk(root, child, out);
+    else if (entry.isFile()) out.push(child);
+  }
+}
+
+/** Everything the rendering of a page can depend on besides the model. */
+export const siteInputs = ['site', 'public', 'generator', 'astro.config.mjs', 'package.json', 'package-lock.json', 'tsconfig.json'];
+
+export async function siteFingerprint(root: string, version: string): Promise<string> {
+  const files: string[] = [];
+  for (const item of siteInputs) {
+    const full = path.join(root, item);
+    const before = files.length;
+    await walk(root, item, files);
+    if (files.length === before) {
+      // a single file (or missing: recorded as missing so adding it later changes the key)
+      const text = await readFile(full).catch(() => null);
+      files.push(text === null ? `${item}\0missing` : item);
+    }
+  }
+  const hash = createHash('sha256').update(`${keyScheme}\nwrackline ${version}\n`);
+  for (const file of files.sort(compareCodeUnits)) {
+    if (file.endsWith('\0missing')) {
+      hash.update(`${file}\n`);
+      continue;
+    }
+    hash.update(`${file}\0`).update(await readFile(path.join(root, file))).update('\0');
+  }
+  return hash.digest('hex');
+}
+
+interface RegionJson {
+  season?: unknown;
+  published?: unknown;
+  invented?: unknown;
+  region?: unknown;
+  publisher?: unknown;
+  segments?: { id?: unknown; name?: unknown; kind?: unknown; shellfish?: unknown; level?: unknown; geometry?: unknown }[];
+  zones?: unknown;
+  regionalTrends?: { indicator?: unknown; label?: unknown }[];
+}
+
+/** The part of a region summary that bulletin pages read (see the header). */
+export function regionPageInputs(region: RegionJson): string {
+  return JSON.stringify({
+    season: region.season,
+    published: region.published,
+    invented: region.invented,
+    region: region.region,
+    publisher: region.publisher,
+    segments: (region.segments ?? []).map((s) => ({ id: s.id, name: s.name, kind: s.kind, shellfish: s.shellfish, level: s.level, geometry: s.geometry })),
+    zones: region.zones,
+    regionalTrends: (region.regionalTrends ?? []).map((t) => ({ indicator: t.indicator, label: t.label })),
+  });
+}
+
+/** Render keys of every bulletin in a model folder written by writeModel. */
+export async function computeRenderKeys(modelDir: string, fingerprint: string): Promise<RenderKeys> {
+  const site = JSON.parse(await readFile(path.join(modelDir, 'site.json'), 'utf8')) as {
+    seasons?: { id: string; current?: boolean }[];
+  };
+  const seasons = site.seasons ?? [];
+  const current = seasons.find((s) => s.current)?.id ?? '';
+  const files: { id: string; season: string; file: string }[] = [];
+  for (const season of seasons.map((s) => s.id).sort(compareCodeUnits)) {
+    const dir = path.join(modelDir, 'bulletins', season);
+    const names = await readdir(dir).catch(() => [] as string[]);
+    for (const name of names.filter((n) => n.endsWith('.json')).sort(compareCodeUnits)) {
+      files.push({ id: `${season}/${name.slice(0, -'.json'.length)}`, season, file: path.join(dir, name) });
+    }
+  }
+  const shared = sha256(keyScheme, fingerprint, JSON.stringify(seasons), current, files.map((f) => f.id).join('\n'));
+  const regionKeys = new Map<string, string>();
+  for (const season of new Set(files.map((f) => f.season))) {
+    const text = await readFile(path.join(modelDir, 'regions', `${season}.json`), 'utf8').catch(() => null);
+    regionKeys.set(season, sha256(text === null ? 'no region' : regionPageInputs(JSON.parse(text) as RegionJson)));
+  }
+  const bulletins: { [id: string]: string } = {};
+  for (const entry of files) bulletins[entry.id] = sha256(shared, regionKeys.get(entry.season) ?? '', await readFile(entry.file));
+  return { scheme: keyScheme, shared, current, bulletins };
+}
+
+export function renderKeysText(keys: RenderKeys): string {
+  const bulletins = Object.fromEntries(Object.keys(keys.bulletins).sort(compareCodeUnits).map((id) => [id, keys.bulletins[id]]));
+  return `${JSON.stringify({ scheme: keys.scheme, shared: keys.shared, current: keys.current, bulletins }, null, 2)}\n`;
+}
+
+export async function writeRenderKeys(siteDir: string, keys: RenderKeys): Promise<void> {
+  await writeFile(path.join(siteDir, renderKeysFileName), renderKeysText(keys));
+}
+
+export async function readRenderKeys(release: string): Promise<RenderKeys | null> {
+  try {
+    const parsed = JSON.parse(await readFile(path.join(release, renderKeysFileName), 'utf8')) as Partial<RenderKeys>;
+    if (typeof parsed.scheme !== 'string' || typeof parsed.shared !== 'string' || typeof parsed.current !== 'string') return null;
+    if (parsed.bulletins === null || typeof parsed.bulletins !== 'object') return null;
+    return { scheme: parsed.scheme, shared: parsed.shared, current: parsed.current, bulletins: parsed.bulletins };
+  } catch {
+    return null;
+  }
+}
+
+export type RenderPlan =
+  | { kind: 'all'; reason: string }
+  | { kind: 'some'; render: string[]; reuse: string[] };
+
+/** Which bulletins to render, given the keys on line (null: none) and the new keys. */
+export function planRender(previous: RenderKeys | null, next: RenderKeys): RenderPlan {
+  if (previous === null) return { kind: 'all', reason: 'the published release records no render keys' };
+  if (previous.scheme !== next.scheme) return { kind: 'all', reason: 'the render keys were made by another version' };
+  if (previous.shared !== next.shared || previous.current !== next.current) {
+    return { kind: 'all', reason: 'the site code, the seasons or the set of bulletins changed' };
+  }
+  const render: string[] = [];
+  const reuse: string[] = [];
+  for (const id of Object.keys(next.bulletins).sort(compareCodeUnits)) {
+    if (previous.bulletins[id] === next.bulletins[id]) reuse.push(id);
+    else render.push(id);
+  }
+  return { kind: 'some', render, reuse };
+}
+
+/**
+ * The bulletin ("season/segment") a site file belongs to, or null for a shared file. Mirrors
+ * the page routes under site/pages/: seasons/[season]/[segment]/…, segments/[segment]/…,
+ * embed/[segment]/… (the last two for the current season's bulletins).
+ */
+export function ownerOf(file: string, current: string): string | null {
+  const parts = file.split('/');
+  if (parts[0] === 'seasons' && parts.length >= 4) return `${parts[1]}/${parts[2]}`;
+  if ((parts[0] === 'segments' || parts[0] === 'embed') && parts.length >= 3) return `${current}/${parts[1]}`;
+  return null;
+}
+
+/**
+ * Links (or, across file systems, copies) the files of `reuse` bulletins listed in the
+ * published release's manifest into `siteDir`. Returns the listing of what was brought over;
+ * a file already present in `siteDir` means the render did not honour the list: an error.
+ */
+export async function bringOver(
+  published: string,
+  listing: readonly FileHash[],
+  siteDir: string,
+  reuse: ReadonlySet<string>,
+  current: string,
+): Promise<FileHash[]> {
+  const brought: FileHash[] = [];
+  const made = new Set<string>();
+  for (const entry of listing) {
+    const owner = ownerOf(entry.file, current);
+    if (owner === null || !reuse.has(owner)) continue;
+    const from = path.join(published, entry.file);
+    const to = path.join(siteDir, entry.file);
+    const dir = path.dirname(to);
+    if (!made.has(dir)) {
+      await mkdir(dir, { recursive: true });
+      made.add(dir);
+    }
+    try {
+      await link(from, to);
+    } catch (error) {
+      const code = (error as { code?: string }).code;
+      if (code === 'EEXIST') throw new Error(`page reuse: ${entry.file} was rendered although its bulletin was to be reused`);
+      if (code !== 'EXDEV' && code !== 'EPERM' && code !== 'ENOTSUP') throw error;
+      await copyFile(from, to);
+    }
+    brought.push(entry);
+  }
+  return brought;
+}
