@@ -14,7 +14,9 @@
 import { createHash } from 'node:crypto';
 import { createSeededRandom } from '../../generator/random/seeded-random.ts';
 import { analyzeTrend } from '../../generator/stats/analyze-trend.ts';
+import { analyzeInPool, defaultWorkerCount } from '../../generator/stats/trend-pool.ts';
 import { regionalKendall, type RegionalSite } from '../../generator/stats/regional-kendall.ts';
+import { totalSeasonCovariance } from '../../generator/stats/season-covariance.ts';
 import type { SeriesPoint } from '../../generator/stats/types.ts';
 import { totalSeasonCovarianceOracle, type CycleCellOracle } from '../../test/stats/oracles.ts';
 
@@ -74,13 +76,34 @@ if (process.argv.includes('--oracle')) {
   started = performance.now();
   const covariance = totalSeasonCovarianceOracle(cells);
   const oracleMs = performance.now() - started;
-  const fast = regional && regional.varSCovariance !== null ? (regional.varSCovariance - regional.varS) / 2 : null;
-  console.log(`  all-pairs covariance sum (previous form): ${(oracleMs / 1000).toFixed(2)} s; same value: ${fast === covariance} (${covariance})`);
+  started = performance.now();
+  const fast = totalSeasonCovariance(cells);
+  const fastMs = performance.now() - started;
+  console.log(`  covariance sum over ${siteCount} sites: all-pairs form (previous) ${(oracleMs / 1000).toFixed(2)} s, precomputed per site ${(fastMs / 1000).toFixed(3)} s; identical: ${fast === covariance} (${covariance})`);
 }
 
 const series = Array.from({ length: seriesCount }, (_, i) => inventSeries(5000 + i));
 const options = { confidence: 0.95, seasonal: true, minValues: 8, minYears: 5 };
 started = performance.now();
+const cpuBefore = process.cpuUsage();
 const results = series.map((points, i) => analyzeTrend(points, { ...options, bootstrap: { resamples: 500, seed: 77 + i } }));
 const serialMs = performance.now() - started;
-console.log(`analyzeTrend, ${seriesCount} series (n ≈ 37, seasonal, 500 resamples): ${(serialMs / 1000).toFixed(2)} s, ${(serialMs / seriesCount).toFixed(2)} ms each; digest ${digest(results)}`);
+const serialCpuMs = process.cpuUsage(cpuBefore).user / 1000;
+console.log(
+  `analyzeTrend, ${seriesCount} series (n ≈ 37, seasonal, 500 resamples): ${(serialMs / 1000).toFixed(2)} s wall, ${(serialCpuMs / 1000).toFixed(2)} s CPU, ` +
+    `${(serialCpuMs / Math.max(1, seriesCount)).toFixed(2)} ms CPU each; digest ${digest(results)}`,
+);
+
+if (process.argv.includes('--workers')) {
+  const requests = series.map((points, i) => ({ points, options: { ...options, bootstrap: { resamples: 500, seed: 77 + i } } }));
+  for (const round of [1, 2]) {
+    started = performance.now();
+    const outcomes = analyzeInPool(requests, { minBatch: 0 });
+    const poolMs = performance.now() - started;
+    const pooled = outcomes.map((o) => ('result' in o ? o.result : o.error));
+    console.log(
+      `  same through the pool (calling thread + ${defaultWorkerCount()} worker${defaultWorkerCount() === 1 ? '' : 's'}, round ${round}${round === 1 ? ', includes starting the workers' : ''}): ` +
+        `${(poolMs / 1000).toFixed(2)} s wall; digest ${digest(pooled)} (${digest(pooled) === digest(results) ? 'identical' : 'DIFFERENT'})`,
+    );
+  }
+}

@@ -40,7 +40,7 @@ export function growersSection(input: GrowersInput): { title: string; sentences:
   } else if (input.driftAvailable) {
     sentences.push('The drift model shows no spot offshore near here where litter gathers.');
   }
-  sentences.push('Read the shellfish cautions near the top of this bulletin before you harvest.');
+  sentences.push('Read the shellfish cautions in the Cautions box before you harvest.');
   return { title: 'For shellfish growers and gatherers', sentences };
 }
 
@@ -90,7 +90,7 @@ export function visitorsSection(input: VisitorsInput): { title: string; sentence
   }
   if (litter) sentences.push(...litter.trendSentences);
   if (input.drift) sentences.push(...driftSentences(input.drift.arrivalsPerKm));
-  sentences.push('If you pick up litter, follow the safety steps in the Cautions box near the top of this bulletin.');
+  sentences.push('If you pick up litter, follow the safety steps in the Cautions box.');
   return { title: 'For visitors', sentences };
 }
 

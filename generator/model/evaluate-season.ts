@@ -22,7 +22,20 @@ export interface TrendEngine {
   adjust(pValues: readonly number[]): number[];
   /** Regional Kendall over several segments' series (sites as blocks); null when it cannot run. */
   regional(series: { site: string; points: SeriesPoint[] }[], options: { confidence: number }): RegionalResult | null;
+  /**
+   * Optional: every series of a season at once (same results as `analyze` one by one, in request
+   * order; an error is returned, not thrown), so an engine can spread them over several cores.
+   */
+  analyzeMany?(requests: readonly TrendRequest[]): TrendOutcome[];
 }
+
+export interface TrendRequest {
+  points: SeriesPoint[];
+  options: TrendOptions & { minValues?: number; minYears?: number };
+}
+
+/** The result of one request, or the message of the error it raised. */
+export type TrendOutcome = { result: TrendResult } | { error: string };
 
 export interface RegionalResult {
   S: number | null;
@@ -124,12 +137,13 @@ function emptyTrend(values: readonly SeasonValue[], insufficient: { rule: string
   };
 }
 
-function runTrend(
-  engine: TrendEngine,
-  values: readonly SeasonValue[],
-  settings: ScenarioSettings,
-  seed: number,
-): TrendResult | null {
+interface PendingTrend {
+  request: TrendRequest;
+  shortfall: ReturnType<typeof minimumDataShortfall>;
+}
+
+/** What to ask the engine for one series; null when it holds no value. */
+function trendRequest(values: readonly SeasonValue[], settings: ScenarioSettings, seed: number): PendingTrend | null {
   if (values.every((v) => v.value === null)) return null;
   const shortfall = minimumDataShortfall(values, settings);
   const seasonal = useSeasonalTest(values);
@@ -140,14 +154,32 @@ function runTrend(
     seasonal,
     bootstrap: shortfall || settings.trend.bootstrapResamples === 0 ? false : { resamples: settings.trend.bootstrapResamples, seed },
   };
-  let result: TrendResult;
-  try {
-    result = engine.analyze(toSeriesPoints(values), options);
-  } catch (error) {
-    const reason = error instanceof Error ? error.message : String(error);
-    return emptyTrend(values, shortfall ?? { rule: 'engine', reason });
-  }
+  return { request: { points: toSeriesPoints(values), options }, shortfall };
+}
+
+/** The trend of one series from the engine's outcome. */
+function finishTrend(values: readonly SeasonValue[], pending: PendingTrend, outcome: TrendOutcome): TrendResult {
+  const { shortfall } = pending;
+  if ('error' in outcome) return emptyTrend(values, shortfall ?? { rule: 'engine', reason: outcome.error });
+  const result = outcome.result;
   return shortfall ? { ...result, insufficient: result.insufficient ?? shortfall } : result;
+}
+
+function runTrend(
+  engine: TrendEngine,
+  values: readonly SeasonValue[],
+  settings: ScenarioSettings,
+  seed: number,
+): TrendResult | null {
+  const pending = trendRequest(values, settings, seed);
+  if (!pending) return null;
+  let outcome: TrendOutcome;
+  try {
+    outcome = { result: engine.analyze(pending.request.points, pending.request.options) };
+  } catch (error) {
+    outcome = { error: error instanceof Error ? error.message : String(error) };
+  }
+  return finishTrend(values, pending, outcome);
 }
 
 function driftValues(scenario: LoadedScenario, segmentId: string, until: SeasonRef, settings: ScenarioSettings): SeasonValue[] {
@@ -196,22 +228,55 @@ export function evaluateSeason(scenario: LoadedScenario, seasonId: string, rules
   const perSegment = new Map<string, IndicatorEvaluation[]>(segments.map((s) => [s.id, []]));
   const regional: SeasonEvaluation['regional'] = [];
 
+  const seriesOf = (indicator: IndicatorId, segmentId: string): { records: ScenarioRecord[]; values: SeasonValue[] } => {
+    const records = (byKey.get(`${indicator}\u0000${segmentId}`) ?? []).filter((r) => r.date <= season.end && r.value !== null);
+    const values =
+      indicator === 'drift-arrivals' && records.length === 0
+        ? driftValues(scenario, segmentId, season, settings)
+        : seasonValues(records, {
+            aggregation: getIndicator(indicator).aggregation,
+            untilSeason: season,
+            definitions: settings.seasons,
+            monitored: monitored.get(indicator) ?? null,
+          });
+    return { records, values };
+  };
+
+  // An engine that takes many series at once gets the whole season in one batch (same results,
+  // same order as one by one).
+  const seasonSeries = new Map<string, { records: ScenarioRecord[]; values: SeasonValue[] }>();
+  let batched: Map<string, TrendResult> | null = null;
+  if (engine.analyzeMany) {
+    const keys: string[] = [];
+    const pendings: PendingTrend[] = [];
+    for (const indicator of indicatorIds) {
+      for (const segment of segments) {
+        const key = `${indicator}\u0000${segment.id}`;
+        const found = seriesOf(indicator, segment.id);
+        seasonSeries.set(key, found);
+        if (found.values.length === 0) continue;
+        const pending = trendRequest(found.values, settings, derivedSeed(settings.trend.seed, segment.id, indicator, seasonId));
+        if (!pending) continue;
+        keys.push(key);
+        pendings.push(pending);
+      }
+    }
+    const outcomes = engine.analyzeMany(pendings.map((p) => p.request));
+    batched = new Map();
+    keys.forEach((key, i) => {
+      const values = seasonSeries.get(key)?.values ?? [];
+      batched?.set(key, finishTrend(values, pendings[i] as PendingTrend, outcomes[i] ?? { error: 'no result from the trend engine' }));
+    });
+  }
+
   for (const indicator of indicatorIds) {
     const definition = getIndicator(indicator);
     const evaluations: { segmentId: string; evaluation: IndicatorEvaluation }[] = [];
     for (const segment of segments) {
-      const records = (byKey.get(`${indicator}\u0000${segment.id}`) ?? []).filter((r) => r.date <= season.end && r.value !== null);
-      const values =
-        indicator === 'drift-arrivals' && records.length === 0
-          ? driftValues(scenario, segment.id, season, settings)
-          : seasonValues(records, {
-              aggregation: definition.aggregation,
-              untilSeason: season,
-              definitions: settings.seasons,
-              monitored: monitored.get(indicator) ?? null,
-            });
+      const key = `${indicator}\u0000${segment.id}`;
+      const { records, values } = seasonSeries.get(key) ?? seriesOf(indicator, segment.id);
       if (values.length === 0) continue;
-      const trend = runTrend(engine, values, settings, derivedSeed(settings.trend.seed, segment.id, indicator, seasonId));
+      const trend = batched ? (batched.get(key) ?? null) : runTrend(engine, values, settings, derivedSeed(settings.trend.seed, segment.id, indicator, seasonId));
       // Modelled arrivals are listed as an indicator only once their series can carry a trend; until
       // then the season's figures live in the drift part of the bulletin alone.
       if (indicator === 'drift-arrivals' && (!trend || trend.insufficient)) continue;

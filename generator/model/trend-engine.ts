@@ -1,13 +1,16 @@
 /**
  * The model's link to the trend engine in generator/stats: the trend of one series, the
  * Benjamini–Hochberg adjustment (Benjamini & Hochberg 1995) and the Regional Kendall test
- * (Helsel & Frans 2006).
+ * (Helsel & Frans 2006). Large batches of series are spread over the cores (trend-pool.ts).
  */
 import { analyzeTrend, benjaminiHochberg, regionalKendall } from '../stats/index.ts';
+import { analyzeInPool } from '../stats/trend-pool.ts';
 import type { RegionalResult, TrendEngine } from './evaluate-season.ts';
 
 export const statsTrendEngine: TrendEngine = {
   analyze: (points, options) => analyzeTrend(points, options),
+  // A season's series at once: on every core when there are many (trend-pool.ts), else one by one.
+  analyzeMany: (requests) => analyzeInPool(requests),
   adjust: (pValues) => benjaminiHochberg([...pValues]),
   regional(series, options): RegionalResult | null {
     if (series.length === 0) return null;

@@ -27,7 +27,7 @@ import { assertSlug } from './safe-path.ts';
 import { hashFile, hashTree, listFiles, readManifest, treeDigest, writeManifest } from './tree-hash.ts';
 import type { FileHash } from './tree-hash.ts';
 import type { Progress } from '../progress/progress.ts';
-import { bringOver, computeRenderKeys, planRender, readRenderKeys, writeRenderKeys } from './page-reuse.ts';
+import { bringOver, computeRenderKeys, missingAfterReuse, planRender, readRenderKeys, writeRenderKeys } from './page-reuse.ts';
 import type { RenderKeys, RenderPlan } from './page-reuse.ts';
 import type { ValidationReport } from '../model/types.ts';
 
@@ -125,7 +125,7 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
   if (prepared.kind === 'invalid') return prepared;
   const { session, modelDir } = prepared;
   try {
-    const siteDir = await session.workFolder('site');
+    let siteDir = await session.workFolder('site');
     const published = await session.publishedFolder();
     const publishedManifest = published ? await readManifest(published) : null;
     // Which bulletins' pages to render; the others are taken over from the release on line.
@@ -145,10 +145,19 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
       progress.note(`  pages: rendering every page (${plan.reason})`);
     }
     progress.start('pages', undefined, 'pages');
-    const rendered = await steps.render({ modelDir, outDir: siteDir, onPage: (done) => progress.update(done), ...(only === undefined ? {} : { only }) });
+    let rendered = await steps.render({ modelDir, outDir: siteDir, onPage: (done) => progress.update(done), ...(only === undefined ? {} : { only }) });
     let brought: FileHash[] = [];
     if (plan.kind === 'some' && published !== null && publishedManifest !== null && keys !== null) {
       brought = await bringOver(published, publishedManifest.files, siteDir, new Set(plan.reuse), keys.current);
+      const missing = missingAfterReuse(publishedManifest.files, new Set(await listFiles(siteDir)), new Set(plan.render), keys.current);
+      if (missing.length > 0) {
+        // A page of the release on line that neither the render nor the reuse produced: some
+        // route is not known here. Render everything rather than guess.
+        progress.note(`  pages: ${missing.length} published file(s) not accounted for (first: ${missing[0]}); rendering every page`);
+        brought = [];
+        siteDir = await session.workFolder('site-full');
+        rendered = await steps.render({ modelDir, outDir: siteDir, onPage: (done) => progress.update(done) });
+      }
     }
     if (keys !== null) await writeRenderKeys(siteDir, keys);
     progress.end();

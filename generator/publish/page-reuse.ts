@@ -5,8 +5,9 @@
  * for the current season `/segments/<segment>/` and `/embed/<segment>/<indicator>/` — is rendered
  * from that bulletin's model file plus a few shared inputs. Each bulletin gets a render key, the
  * SHA-256 of:
- * - the site fingerprint: the text of every file under site/, public/ and generator/, of
- *   astro.config.mjs, package.json, package-lock.json and tsconfig.json (any code change → new key);
+ * - the site fingerprint: the text of every file under site/ and public/, of astro.config.mjs,
+ *   package.json, package-lock.json and tsconfig.json, and of every project file these import,
+ *   directly or not (e.g. generator/model/read-model.ts); any change there → every key changes;
  * - the seasons of site.json (which one is current, labels) and the sorted list of every
  *   bulletin id (which seasons a segment has a bulletin in: the page links to them);
  * - the parts of its season's region summary a bulletin page reads: each segment's name, kind,
@@ -50,7 +51,8 @@ async function walk(root: string, relative: string, out: string[]): Promise<void
   try {
     entries = await readdir(path.join(root, relative), { withFileTypes: true });
   } catch (error) {
-    if ((error as { code?: string }).code === 'ENOENT') return;
+    const code = (error as { code?: string }).code;
+    if (code === 'ENOENT' || code === 'ENOTDIR') return;
     throw error;
   }
   for (const entry of entries) {
@@ -60,8 +62,40 @@ async function walk(root: string, relative: string, out: string[]): Promise<void
   }
 }
 
-/** Everything the rendering of a page can depend on besides the model. */
-export const siteInputs = ['site', 'public', 'generator', 'astro.config.mjs', 'package.json', 'package-lock.json', 'tsconfig.json'];
+/** Everything the rendering of a page can depend on besides the model and installed packages. */
+export const siteInputs = ['site', 'public', 'astro.config.mjs', 'package.json', 'package-lock.json', 'tsconfig.json'];
+
+const importPattern = /(?:\bfrom\s*|\bimport\s*\(?\s*)['"](\.{1,2}\/[^'"]+)['"]/g;
+const typeOnly = /\b(?:import|export)\s+type\s[^;'"]*?from\s*['"][^'"]+['"]/g;
+const scanned = /\.(?:ts|mts|js|mjs|astro)$/;
+
+/**
+ * Project files outside `siteInputs` that the site imports, directly or through each other
+ * (relative import specifiers in .ts, .js, .mjs and .astro files, type-only imports left out;
+ * packages are covered by package-lock.json). Relative paths from `root`, sorted.
+ */
+export async function importedProjectFiles(root: string, start: readonly string[]): Promise<string[]> {
+  const seen = new Set<string>(start);
+  const queue = [...start];
+  const outside = new Set<string>();
+  const inside = (file: string): boolean => siteInputs.some((item) => file === item || file.startsWith(`${item}/`));
+  while (queue.length > 0) {
+    const file = queue.pop() as string;
+    if (!scanned.test(file)) continue;
+    const text = await readFile(path.join(root, file), 'utf8').catch(() => null);
+    if (text === null) continue;
+    // type-only imports vanish when the code runs
+    const code = text.replace(typeOnly, '');
+    for (const match of code.matchAll(importPattern)) {
+      const target = path.relative(root, path.resolve(root, path.dirname(file), match[1] ?? '')).split(path.sep).join('/');
+      if (target.startsWith('..') || seen.has(target)) continue;
+      seen.add(target);
+      if (!inside(target)) outside.add(target);
+      queue.push(target);
+    }
+  }
+  return [...outside].sort(compareCodeUnits);
+}
 
 export async function siteFingerprint(root: string, version: string): Promise<string> {
   const files: string[] = [];
@@ -75,13 +109,15 @@ export async function siteFingerprint(root: string, version: string): Promise<st
       files.push(text === null ? `${item}\0missing` : item);
     }
   }
+  files.push(...(await importedProjectFiles(root, files.filter((file) => !file.endsWith('\0missing')))));
   const hash = createHash('sha256').update(`${keyScheme}\nwrackline ${version}\n`);
   for (const file of files.sort(compareCodeUnits)) {
-    if (file.endsWith('\0missing')) {
-      hash.update(`${file}\n`);
+    const text = file.endsWith('\0missing') ? null : await readFile(path.join(root, file)).catch(() => null);
+    if (text === null) {
+      hash.update(`${file}\0missing\n`);
       continue;
     }
-    hash.update(`${file}\0`).update(await readFile(path.join(root, file))).update('\0');
+    hash.update(`${file}\0`).update(text).update('\0');
   }
   return hash.digest('hex');
 }
@@ -191,8 +227,8 @@ export function ownerOf(file: string, current: string): string | null {
 
 /**
  * Links (or, across file systems, copies) the files of `reuse` bulletins listed in the
- * published release's manifest into `siteDir`. Returns the listing of what was brought over;
- * a file already present in `siteDir` means the render did not honour the list: an error.
+ * published release's manifest into `siteDir`, except files the render wrote itself. Returns the
+ * listing of what was brought over.
  */
 export async function bringOver(
   published: string,
@@ -217,11 +253,30 @@ export async function bringOver(
       await link(from, to);
     } catch (error) {
       const code = (error as { code?: string }).code;
-      if (code === 'EEXIST') throw new Error(`page reuse: ${entry.file} was rendered although its bulletin was to be reused`);
+      // rendered afresh by a route that does not follow the list: the fresh file is right
+      if (code === 'EEXIST') continue;
       if (code !== 'EXDEV' && code !== 'EPERM' && code !== 'ENOTSUP') throw error;
       await copyFile(from, to);
     }
     brought.push(entry);
   }
   return brought;
+}
+
+/** Files every build writes after rendering (never taken over, never expected from Astro). */
+const afterRender = new Set(['manifest.json', 'archive-ledger.json', renderKeysFileName]);
+
+/**
+ * Files of the published release a full render would write again but the assembled tree lacks:
+ * anything outside the re-rendered bulletins, the search index and the files written after
+ * rendering. Not empty means a route this module does not know of (the build then renders all).
+ */
+export function missingAfterReuse(listing: readonly FileHash[], present: ReadonlySet<string>, rendered: ReadonlySet<string>, current: string): string[] {
+  return listing
+    .map((entry) => entry.file)
+    .filter((file) => {
+      if (present.has(file) || afterRender.has(file) || file.startsWith('pagefind/')) return false;
+      const owner = ownerOf(file, current);
+      return owner === null || !rendered.has(owner);
+    });
 }

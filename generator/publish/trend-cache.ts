@@ -17,7 +17,7 @@
 import { createHash } from 'node:crypto';
 import { mkdir, readFile, readdir, rename, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import type { TrendEngine } from '../model/evaluate-season.ts';
+import type { TrendEngine, TrendOutcome } from '../model/evaluate-season.ts';
 import type { TrendResult } from '../stats/types.ts';
 import { canonicalJson } from './archive-ledger.ts';
 import { compareCodeUnits } from './tree-hash.ts';
@@ -76,6 +76,40 @@ export async function openTrendCache(cacheDir: string, fingerprint: string, inne
       // Stored as it will be read back (JSON), so a hit now and a hit next build are the same.
       used[key] = JSON.parse(JSON.stringify(result)) as TrendResult;
       return result;
+    },
+    // A season's series at once: look-ups first, then the misses in one batch to the inner engine
+    // (which may spread them over the cores); results, counts and stored entries are those of
+    // calling `analyze` on each request in order.
+    analyzeMany(requests) {
+      const keys = requests.map(({ points, options }) => createHash('sha256').update(canonicalJson({ points, options })).digest('hex'));
+      const missIndex = new Map<string, number>();
+      const missRequests: typeof requests[number][] = [];
+      keys.forEach((key, i) => {
+        if (used[key] !== undefined || stored[key] !== undefined || missIndex.has(key)) return;
+        missIndex.set(key, missRequests.length);
+        missRequests.push(requests[i] as (typeof requests)[number]);
+      });
+      const computed = inner.analyzeMany
+        ? inner.analyzeMany(missRequests)
+        : missRequests.map((request): TrendOutcome => {
+            try {
+              return { result: inner.analyze(request.points, request.options) };
+            } catch (error) {
+              return { error: error instanceof Error ? error.message : String(error) };
+            }
+          });
+      return keys.map((key, i): TrendOutcome => {
+        const found = used[key] ?? stored[key];
+        if (found !== undefined) {
+          hits += 1;
+          used[key] = found;
+          return { result: structuredClone(found) };
+        }
+        misses += 1;
+        const outcome = computed[missIndex.get(key) ?? -1] ?? { error: `no result for request ${i}` };
+        if ('result' in outcome) used[key] = JSON.parse(JSON.stringify(outcome.result)) as TrendResult;
+        return outcome;
+      });
     },
     adjust: (pValues) => inner.adjust(pValues),
     regional: (series, options) => inner.regional(series, options),

@@ -65,7 +65,51 @@ function medianInPlace(buffer: Float64Array, count: number): number {
  * below the window and keeps those inside it (about 8% of them), and the median is selected
  * there. Falls back to listing every slope when the window misses (rare). Exact either way.
  */
-function medianSlope(t: Float64Array, y: Float64Array, scratch: Float64Array, uniform: () => number, inverseGaps: Float64Array | null): number {
+/**
+ * Median slope of a series with no two equal times when it lies in [lo, hi]: one pass counts the
+ * slopes below lo and keeps those inside, and the median is selected among those; null when it
+ * lies outside (the caller then lists every slope). Exact: the same number as selecting among all.
+ */
+function medianSlopeInWindow(y: Float64Array, inverseGaps: Float64Array, scratch: Float64Array, lo: number, hi: number): number | null {
+  const n = y.length;
+  const pairs = inverseGaps.length;
+  const lowRank = Math.floor((pairs + 1) / 2);
+  const highRank = Math.ceil((pairs + 1) / 2);
+  let below = 0;
+  let count = 0;
+  let k = 0;
+  for (let i = 0; i < n; i++) {
+    const yi = y[i] as number;
+    for (let j = i + 1; j < n; j++, k++) {
+      // branch-free: the slope is always written and kept only when inside the window
+      const slope = ((y[j] as number) - yi) * (inverseGaps[k] as number);
+      below += slope < lo ? 1 : 0;
+      scratch[count] = slope;
+      count += slope >= lo && slope <= hi ? 1 : 0;
+    }
+  }
+  if (!(below < lowRank && below + count >= highRank)) return null;
+  const low = quickselect(scratch, lowRank - below - 1, 0, count);
+  if (highRank === lowRank) return low;
+  let next = Infinity;
+  for (let i = lowRank - below; i < count; i++) if ((scratch[i] as number) < next) next = scratch[i] as number;
+  return (low + next) / 2;
+}
+
+/** A range expected to hold the median slope (a guess: a wrong one only costs time). */
+export interface SlopeWindow {
+  lo: number;
+  hi: number;
+}
+
+function medianSlope(
+  t: Float64Array,
+  y: Float64Array,
+  scratch: Float64Array,
+  uniform: () => number,
+  inverseGaps: Float64Array | null,
+  window: SlopeWindow | null = null,
+): number {
   const n = t.length;
   const pairs = countSlopePairs(t);
   const middle = (pairs + 1) / 2;
@@ -140,6 +184,19 @@ function medianSlope(t: Float64Array, y: Float64Array, scratch: Float64Array, un
   }
   // list every slope (small series, or the window missed)
   const all = pairs <= scratch.length ? scratch : new Float64Array(pairs);
+  if (inverseGaps && pairs === (n * (n - 1)) / 2) {
+    if (window && pairs <= scratch.length) {
+      const found = medianSlopeInWindow(y, inverseGaps, scratch, window.lo, window.hi);
+      if (found !== null) return found;
+    }
+    // no two equal times (the usual case): no test per pair
+    let k = 0;
+    for (let i = 0; i < n; i++) {
+      const yi = y[i] as number;
+      for (let j = i + 1; j < n; j++, k++) all[k] = ((y[j] as number) - yi) * (inverseGaps[k] as number);
+    }
+    return medianInPlace(all, pairs);
+  }
   let count = 0;
   for (let i = 0; i < n; i++) {
     const ti = t[i] as number;
@@ -182,20 +239,31 @@ export function theilSenLine(
   medianT: number,
   uniform: () => number,
   inverseGaps: Float64Array | null = null,
+  window: SlopeWindow | null = null,
 ): { slope: number; intercept: number } {
   const n = t.length;
-  const slope = medianSlope(t, y, scratch, uniform, inverseGaps);
+  const slope = medianSlope(t, y, scratch, uniform, inverseGaps, window);
   for (let i = 0; i < n; i++) scratch[i] = y[i] as number;
   const intercept = medianInPlace(scratch, n) - slope * medianT;
   return { slope, intercept };
 }
 
-/** Type-7 quantile of sorted numbers. */
-function quantileSorted(sorted: Float64Array, probability: number): number {
-  const position = (sorted.length - 1) * probability;
+/**
+ * Type-7 quantile of `values` (reordered in place): the two order statistics it interpolates are
+ * selected, not sorted for, which gives the same number as sorting first.
+ */
+function quantileSelected(values: Float64Array, probability: number): number {
+  const n = values.length;
+  const position = (n - 1) * probability;
   const low = Math.floor(position);
-  const high = Math.min(sorted.length - 1, low + 1);
-  return (sorted[low] as number) + (position - low) * ((sorted[high] as number) - (sorted[low] as number));
+  const lowValue = quickselect(values, low, 0, n);
+  let highValue = lowValue;
+  if (low + 1 < n) {
+    // the next order statistic is the smallest value right of `low` after the selection
+    highValue = Infinity;
+    for (let i = low + 1; i < n; i++) if ((values[i] as number) < highValue) highValue = values[i] as number;
+  }
+  return lowValue + (position - low) * (highValue - lowValue);
 }
 
 export interface TrendBandResult {
@@ -234,6 +302,10 @@ export function trendBand(t: Float64Array, y: Float64Array, options: TrendBandOp
   const intercepts = new Float64Array(resamples);
   const resampled = new Float64Array(n);
   let nPositive = 0;
+  const windowAfter = 24;
+  let window: SlopeWindow | null = null;
+  let seenLow = Infinity;
+  let seenHigh = -Infinity;
   for (let r = 0; r < resamples; r++) {
     let filled = 0;
     while (filled < n) {
@@ -242,7 +314,17 @@ export function trendBand(t: Float64Array, y: Float64Array, options: TrendBandOp
         resampled[filled] = fit.intercept + fit.slope * (t[filled] as number) + (residuals[start + k] as number);
       }
     }
-    const line = theilSenLine(t, resampled, scratch, medianT, random.uniform, inverseGaps);
+    const line = theilSenLine(t, resampled, scratch, medianT, random.uniform, inverseGaps, window);
+    // After a few refits, guess where the next median slopes lie: the range of those seen so far,
+    // widened by half on each side. A guess only saves time; a miss falls back to every slope.
+    if (r < windowAfter) {
+      seenLow = Math.min(seenLow, line.slope);
+      seenHigh = Math.max(seenHigh, line.slope);
+      if (r === windowAfter - 1) {
+        const margin = (seenHigh - seenLow) / 2;
+        window = { lo: seenLow - margin, hi: seenHigh + margin };
+      }
+    }
     slopes[r] = line.slope;
     intercepts[r] = line.intercept;
     if (line.slope > 0) nPositive++;
@@ -257,9 +339,8 @@ export function trendBand(t: Float64Array, y: Float64Array, options: TrendBandOp
   const tail = (1 - confidence) / 2;
   for (const time of times) {
     for (let r = 0; r < resamples; r++) values[r] = (intercepts[r] as number) + (slopes[r] as number) * time;
-    values.sort();
-    lower.push(quantileSorted(values, tail));
-    upper.push(quantileSorted(values, 1 - tail));
+    lower.push(quantileSelected(values, tail));
+    upper.push(quantileSelected(values, 1 - tail));
     fitted.push(fit.intercept + fit.slope * time);
   }
   return {
