@@ -18,7 +18,12 @@
  * bulletins whose key changed (pages that list every bulletin — overview, season indexes, feed,
  * methods, search — are always rendered in full) and hard-links the other bulletins' files from
  * the published release. Anything unsure renders everything: no keys on line, a different site
- * fingerprint, seasons or bulletin set, or a key file that does not parse.
+ * fingerprint, seasons or bulletin set, a key file that does not parse, or a published file that
+ * neither the render nor the reuse produced (a route this module does not know).
+ *
+ * Keep `regionPageInputs` in step with the site: a bulletin page that starts reading another
+ * field of the region summary (or of site.json) must add it there. The site change itself
+ * renders everything once (new fingerprint); later rebuilds rely on the key alone.
  */
 import { createHash } from 'node:crypto';
 import { copyFile, link, mkdir, readFile, readdir, writeFile } from 'node:fs/promises';

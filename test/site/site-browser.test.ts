@@ -2,16 +2,17 @@
  * Real-browser checks of the built site: Debian's chromium driven by playwright-core against
  * the static output served on 127.0.0.1 by a small server in this file.
  *
- * The site is built once in beforeAll from the model folder in WRACKLINE_TEST_MODEL (default:
- * the invented fixture model in test/fixtures/model), or taken as is from WRACKLINE_TEST_SITE
- * when that names an already built site folder. Screenshots go to test-artifacts/screenshots/.
+ * The site is built once in beforeAll: by default the invented demo scenario (content/demo) goes
+ * through the whole job, `wrackline build`, into a temporary folder; WRACKLINE_TEST_MODEL names a
+ * model folder to render with astro alone (e.g. the fixture model in test/fixtures/model), and
+ * WRACKLINE_TEST_SITE an already built site folder. Screenshots go to test-artifacts/screenshots/.
  *
  * External references for the checks: axe-core's WCAG 2.1 A/AA rule set (Deque, axe-core 4.x,
  * tags wcag2a, wcag2aa, wcag21a, wcag21aa); RFC 4287 (Atom) for the feed's required elements;
  * ISO 216 A4 paper for the print check (the PDF page count comes from chromium's printer).
  */
 import { execFileSync } from 'node:child_process';
-import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, rmSync, statSync } from 'node:fs';
+import { existsSync, mkdirSync, mkdtempSync, readFileSync, readdirSync, realpathSync, rmSync, statSync } from 'node:fs';
 import { createServer, type Server } from 'node:http';
 import { createRequire } from 'node:module';
 import { tmpdir } from 'node:os';
@@ -73,8 +74,15 @@ function serve(dir: string): Promise<{ server: Server; origin: string }> {
 function buildSite(): string {
   const given = process.env['WRACKLINE_TEST_SITE'];
   if (given) return resolve(given);
-  const model = resolve(process.env['WRACKLINE_TEST_MODEL'] ?? join(root, 'test', 'fixtures', 'model'));
+  const modelFolder = process.env['WRACKLINE_TEST_MODEL'];
   ownBuild = mkdtempSync(join(tmpdir(), 'wrackline-site-test-'));
+  if (modelFolder === undefined) {
+    const out = join(ownBuild, 'site');
+    const cli = [join(root, 'bin', 'wrackline.mjs'), 'build', '--scenario', join(root, 'content', 'demo'), '--out', out, '--quiet', '--no-cache'];
+    execFileSync(process.execPath, cli, { cwd: root, env: { ...process.env, TZ: 'UTC' }, stdio: 'pipe' });
+    return realpathSync(out);
+  }
+  const model = resolve(modelFolder);
   const astro = join(root, 'node_modules', 'astro', 'astro.js');
   const env = { ...process.env, WRACKLINE_MODEL: model, ASTRO_TELEMETRY_DISABLED: '1', TZ: 'UTC' };
   const command = existsSync('/usr/bin/flock') ? ['/usr/bin/flock', '/tmp/astro.lock', process.execPath] : [process.execPath];
@@ -158,6 +166,30 @@ describe.skipIf(!haveBrowser)('published site in a real browser', () => {
     await new Promise((done) => (server ? server.close(done) : done(undefined)));
     if (profileDir) rmSync(profileDir, { recursive: true, force: true });
     if (ownBuild) rmSync(ownBuild, { recursive: true, force: true });
+  });
+
+  it('has one bulletin page per segment of the scenario, each with an inline map and chart (no script needed)', () => {
+    // Which segments to expect: the demo's own segments file when the demo was built.
+    if (process.env['WRACKLINE_TEST_SITE'] || process.env['WRACKLINE_TEST_MODEL']) return;
+    const geojson = JSON.parse(readFileSync(join(root, 'content', 'demo', 'segments.geojson'), 'utf8')) as {
+      features: { properties: { id: string } }[];
+    };
+    expect(geojson.features.length).toBeGreaterThanOrEqual(12);
+    for (const feature of geojson.features) {
+      const file = join(siteDir, 'segments', feature.properties.id, 'index.html');
+      expect(existsSync(file), file).toBe(true);
+      const html = readFileSync(file, 'utf8');
+      expect(html, feature.properties.id).toMatch(/class="map-figure"[^]*?<svg/);
+      expect(html, feature.properties.id).toMatch(/class="chart-figure"[^]*?(<svg|class="chart-empty")/);
+      // A drawn chart wherever some indicator has a non-zero value (an all-zero series is
+      // stated in words instead, with its data table).
+      const bulletin = JSON.parse(readFileSync(join(siteDir, 'seasons', '2026-autumn', feature.properties.id, 'bulletin.json'), 'utf8')) as {
+        indicators: { observations: { value: number | null }[] }[];
+      };
+      const anyNonZero = bulletin.indicators.some((indicator) => indicator.observations.some((o) => o.value !== null && o.value !== 0));
+      if (anyNonZero) expect(html, feature.properties.id).toMatch(/class="chart-frame"><svg/);
+      expect(html).toContain('Data invented for demonstration');
+    }
   });
 
   it('reaches every built page from the overview, with no broken internal link', () => {
