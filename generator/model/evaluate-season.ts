@@ -42,6 +42,8 @@ export interface RegionalResult {
   z: number | null;
   p: number | null;
   slope: number | null;
+  /** false when p is the plain test's because the cross-site covariance correction could not be computed */
+  covarianceCorrected?: boolean;
 }
 
 export interface IndicatorEvaluation {

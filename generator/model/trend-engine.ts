@@ -18,6 +18,10 @@ export const statsTrendEngine: TrendEngine = {
     if (!result) return null;
     // Segments of one coast share weather and currents, so the cross-site covariance-corrected p
     // is used when it could be computed (Hirsch & Slack 1984 form; see regional-kendall.ts).
-    return { S: result.S, z: result.z, p: result.pCovariance ?? result.p, slope: result.slope };
+    // When it was left out (too many sites over too many years), the plain p is used and the
+    // result says so.
+    const regional: RegionalResult = { S: result.S, z: result.z, p: result.pCovariance ?? result.p, slope: result.slope };
+    if (result.pCovariance === null) regional.covarianceCorrected = false;
+    return regional;
   },
 };

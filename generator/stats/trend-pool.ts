@@ -53,6 +53,24 @@ interface PoolWorker {
 
 let pool: PoolWorker[] | null = null;
 let nextJob = 1;
+let idleTimer: ReturnType<typeof setTimeout> | null = null;
+
+/** Stop the workers once the caller's synchronous work is over (their memory is not kept for later phases). */
+function stopPoolWhenIdle(): void {
+  if (idleTimer) clearTimeout(idleTimer);
+  // A timer cannot fire while the caller runs synchronously (e.g. the model build evaluating one
+  // season after the other), so the pool lives through the whole build step and stops after it.
+  idleTimer = setTimeout(() => {
+    idleTimer = null;
+    const stopping = pool ?? [];
+    pool = null;
+    for (const { worker, results } of stopping) {
+      results.close();
+      void worker.terminate();
+    }
+  }, 1000);
+  idleTimer.unref();
+}
 
 function startPool(size: number): PoolWorker[] {
   const workers: PoolWorker[] = [];
@@ -71,8 +89,14 @@ function startPool(size: number): PoolWorker[] {
   return workers;
 }
 
-/** Number of worker threads by default: one less than the cores, at least one, at most three. */
+/**
+ * Number of worker threads by default: one less than the cores, at least one, at most three; the
+ * environment variable WRACKLINE_TREND_WORKERS overrides it (0 = the calling thread alone, which
+ * also saves the memory of the workers).
+ */
 export function defaultWorkerCount(): number {
+  const chosen = Number.parseInt(process.env['WRACKLINE_TREND_WORKERS'] ?? '', 10);
+  if (Number.isInteger(chosen) && chosen >= 0) return Math.min(chosen, 8);
   return Math.min(3, Math.max(1, availableParallelism() - 1));
 }
 
@@ -153,6 +177,7 @@ export function analyzeInPool(requests: readonly TrendRequest[], options: PoolOp
       }
     } else waited = 0;
   }
+  stopPoolWhenIdle();
   lastBatchShares.caller = byCaller;
   lastBatchShares.workers = chunks - byCaller;
   return outcomes;
