@@ -3,7 +3,7 @@
  * renderer (site/). generator/ writes it as JSON files; site/ renders only from it.
  *
  * Files written by the build step into the model folder (WRACKLINE_MODEL):
- *   region-<seasonId>.json              RegionSummary, one per published season
+ *   regions/<seasonId>.json             RegionSummary, one per published season
  *   bulletins/<seasonId>/<segmentId>.json  Bulletin, one per segment per published season
  *   site.json                           SiteModel (seasons list, settings digest, manifest, validation report)
  *
