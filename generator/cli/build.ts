@@ -7,7 +7,7 @@
  * (archive, safety), 2 bad usage, an unreadable scenario folder, or an output we must not replace.
  */
 import path from 'node:path';
-import { parseArgs } from 'node:util';
+import { commandWriters, parseCommandOptions, usageError } from './command-io.ts';
 import type { ValidationReport } from '../model/types.ts';
 import { createProgress, formatCount, formatDuration } from '../progress/progress.ts';
 import type { Progress } from '../progress/progress.ts';
@@ -39,11 +39,6 @@ Options:
   -h, --help       show this help
 
 Exit codes: 0 published, 1 invalid data or refused publication, 2 bad usage or unreadable input`;
-
-function usageError(stderr: (text: string) => void, command: string, error: unknown): 2 {
-  stderr(`wrackline ${command}: ${error instanceof Error ? error.message : String(error)}\nRun \`wrackline ${command} --help\` for usage.`);
-  return 2;
-}
 
 /** A readable summary of a validation report with errors (at most `limit` issues shown). */
 export function formatReport(report: ValidationReport, limit = 20): string {
@@ -108,11 +103,10 @@ export interface RunBuildOptions {
 }
 
 export async function runBuild(argv: string[], options: RunBuildOptions = {}): Promise<number> {
-  const stdout = options.stdout ?? ((text: string) => process.stdout.write(`${text}\n`));
-  const stderr = options.stderr ?? ((text: string) => process.stderr.write(`${text}\n`));
-  let values;
-  try {
-    ({ values } = parseArgs({
+  const { stdout, stderr } = commandWriters(options);
+  const parsed = parseCommandOptions(
+    'build',
+    {
       args: argv,
       strict: true,
       allowPositionals: false,
@@ -126,10 +120,11 @@ export async function runBuild(argv: string[], options: RunBuildOptions = {}): P
         quiet: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
-    }));
-  } catch (error) {
-    return usageError(stderr, 'build', error);
-  }
+    },
+    stderr,
+  );
+  if (parsed === null) return 2;
+  const { values } = parsed;
   if (values.help) {
     stdout(buildHelp);
     return 0;

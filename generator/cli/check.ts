@@ -8,7 +8,7 @@
  * Exit codes: 0 no errors (warnings allowed), 1 the scenario has errors, 2 bad usage or an
  * unreadable scenario folder.
  */
-import { parseArgs } from 'node:util';
+import { commandWriters, parseCommandOptions } from './command-io.ts';
 import { ScenarioError } from '../errors.ts';
 import type { ValidationIssue, ValidationReport } from '../model/types.ts';
 import { createProgress, formatCount } from '../progress/progress.ts';
@@ -89,11 +89,10 @@ export function formatCheckReport(scenarioDir: string, report: ValidationReport,
 }
 
 export async function runCheck(argv: string[], io: CheckIo = {}): Promise<number> {
-  const stdout = io.stdout ?? ((text: string) => process.stdout.write(`${text}\n`));
-  const stderr = io.stderr ?? ((text: string) => process.stderr.write(`${text}\n`));
-  let values;
-  try {
-    ({ values } = parseArgs({
+  const { stdout, stderr } = commandWriters(io);
+  const parsed = parseCommandOptions(
+    'check',
+    {
       args: argv,
       strict: true,
       allowPositionals: false,
@@ -104,11 +103,11 @@ export async function runCheck(argv: string[], io: CheckIo = {}): Promise<number
         quiet: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
-    }));
-  } catch (error) {
-    stderr(`wrackline check: ${error instanceof Error ? error.message : String(error)}\nRun \`wrackline check --help\` for usage.`);
-    return 2;
-  }
+    },
+    stderr,
+  );
+  if (parsed === null) return 2;
+  const { values } = parsed;
   if (values.help) {
     stdout(checkHelp);
     return 0;

@@ -13,7 +13,7 @@ import { realpath, stat } from 'node:fs/promises';
 import { createServer } from 'node:http';
 import type { IncomingMessage, Server, ServerResponse } from 'node:http';
 import path from 'node:path';
-import { parseArgs } from 'node:util';
+import { commandWriters, parseCommandOptions } from './command-io.ts';
 
 export const serveHelp = `Usage: wrackline serve [options]
 
@@ -146,20 +146,19 @@ export async function runServe(
   argv: string[],
   io: { stdout?: (text: string) => void; stderr?: (text: string) => void; untilStopped?: Promise<unknown> } = {},
 ): Promise<number> {
-  const stdout = io.stdout ?? ((text: string) => process.stdout.write(`${text}\n`));
-  const stderr = io.stderr ?? ((text: string) => process.stderr.write(`${text}\n`));
-  let values;
-  try {
-    ({ values } = parseArgs({
+  const { stdout, stderr } = commandWriters(io);
+  const parsed = parseCommandOptions(
+    'serve',
+    {
       args: argv,
       strict: true,
       allowPositionals: false,
       options: { dir: { type: 'string' }, port: { type: 'string' }, help: { type: 'boolean', short: 'h' } },
-    }));
-  } catch (error) {
-    stderr(`wrackline serve: ${error instanceof Error ? error.message : String(error)}\nRun \`wrackline serve --help\` for usage.`);
-    return 2;
-  }
+    },
+    stderr,
+  );
+  if (parsed === null) return 2;
+  const { values } = parsed;
   if (values.help) {
     stdout(serveHelp);
     return 0;

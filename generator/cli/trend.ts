@@ -10,7 +10,7 @@
  * With --json one JSON object is printed; undefined quantities are null, never NaN.
  */
 import { readFile } from 'node:fs/promises';
-import { parseArgs } from 'node:util';
+import { commandWriters, parseCommandOptions } from './command-io.ts';
 import { analyzeTrend } from '../stats/analyze-trend.ts';
 import type { SeriesPoint, TrendResult } from '../stats/types.ts';
 
@@ -235,11 +235,10 @@ export function trendSummary(result: TrendResult, file: string, perUnit: string)
 }
 
 export async function runTrend(argv: string[], io: TrendIo = {}): Promise<number> {
-  const stdout = io.stdout ?? ((text: string) => process.stdout.write(`${text}\n`));
-  const stderr = io.stderr ?? ((text: string) => process.stderr.write(`${text}\n`));
-  let parsed;
-  try {
-    parsed = parseArgs({
+  const { stdout, stderr } = commandWriters(io);
+  const parsed = parseCommandOptions(
+    'trend',
+    {
       args: argv,
       allowPositionals: true,
       options: {
@@ -248,11 +247,11 @@ export async function runTrend(argv: string[], io: TrendIo = {}): Promise<number
         json: { type: 'boolean', default: false },
         help: { type: 'boolean', short: 'h', default: false },
       },
-    });
-  } catch (error) {
-    stderr(`wrackline trend: ${error instanceof Error ? error.message : String(error)}\n\n${trendHelp}`);
-    return 2;
-  }
+    },
+    stderr,
+    `\n${trendHelp}`,
+  );
+  if (parsed === null) return 2;
   const { values, positionals } = parsed;
   if (values.help) {
     stdout(trendHelp);
