@@ -47,13 +47,21 @@ export function roundSignificant(value: number, significant = 2): number {
 }
 
 /** Print a number with exactly `decimals` decimals (≥ 0) and thousands separators. */
+const formats = new Map<number, Intl.NumberFormat>();
+
+/** One formatter per number of decimals (making one is far slower than using it). */
+function numberFormat(decimals: number): Intl.NumberFormat {
+  let format = formats.get(decimals);
+  if (!format) {
+    format = new Intl.NumberFormat('en-US', { minimumFractionDigits: decimals, maximumFractionDigits: decimals, useGrouping: true });
+    formats.set(decimals, format);
+  }
+  return format;
+}
+
 export function formatNumber(value: number, decimals = 0): string {
   const safeDecimals = Math.max(0, decimals);
-  const text = Math.abs(value).toLocaleString('en-US', {
-    minimumFractionDigits: safeDecimals,
-    maximumFractionDigits: safeDecimals,
-    useGrouping: true,
-  });
+  const text = numberFormat(safeDecimals).format(Math.abs(value));
   const isZero = Number(text.replace(/,/g, '')) === 0;
   return value < 0 && !isZero ? `\u2212${text}` : text;
 }

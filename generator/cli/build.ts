@@ -11,8 +11,10 @@ import { commandWriters, parseCommandOptions, usageError } from './command-io.ts
 import type { ValidationReport } from '../model/types.ts';
 import { createProgress, formatCount, formatDuration } from '../progress/progress.ts';
 import type { Progress } from '../progress/progress.ts';
-import { indexWithPagefind, packageRoot, renderWithAstro } from '../publish/astro-render.ts';
+import { indexWithPagefind, packageRoot } from '../publish/astro-render.ts';
+import { renderSite } from '../publish/render-site.ts';
 import { openTrendCache, statisticsFingerprint } from '../publish/trend-cache.ts';
+import { openDriftCache, readingFingerprint } from '../publish/drift-cache.ts';
 import { buildRelease } from '../publish/build-release.ts';
 import type { BuildSteps } from '../publish/build-steps.ts';
 import { PublishError } from '../publish/publish-error.ts';
@@ -69,7 +71,14 @@ export async function realSteps(siteRoot: string | undefined): Promise<BuildStep
   const { statsTrendEngine } = await import('../model/trend-engine.ts');
   const { writeModel } = await import('../model/write-model.ts');
   return {
-    load: (dir, onProgress) => loadScenario(dir, { onProgress }),
+    load: async (dir, onProgress, cacheDir) => {
+      if (cacheDir === null) return loadScenario(dir, { onProgress });
+      const driftMemo = openDriftCache(cacheDir, await readingFingerprint(packageRoot, generatorVersion));
+      const scenario = await loadScenario(dir, { onProgress, driftMemo });
+      // Remembered only for a scenario that passed: an invalid one leaves nothing beside the output.
+      if (scenario.report.ok) await driftMemo.save();
+      return scenario;
+    },
     model: async (scenario, options) => {
       const onProgress = (_phase: string, done: number, total?: number): void => options.onProgress(done, total);
       if (options.cacheDir === null) return buildModel(scenario, { onProgress });
@@ -83,8 +92,8 @@ export async function realSteps(siteRoot: string | undefined): Promise<BuildStep
     },
     write: (dir, set) => writeModel(dir, set),
     render: ({ modelDir, outDir, onPage, only }) =>
-      renderWithAstro({ modelDir, outDir, onPage, ...(siteRoot === undefined ? {} : { siteRoot }), ...(only === undefined ? {} : { only }) }),
-    index: (siteDir) => indexWithPagefind(siteDir),
+      renderSite({ modelDir, outDir, onPage, ...(siteRoot === undefined ? {} : { siteRoot }), ...(only === undefined ? {} : { only }) }),
+    index: (siteDir, glob) => indexWithPagefind(siteDir, glob),
     // Only the built-in site is known to honour the list of bulletins to render.
     ...(siteRoot === undefined ? { siteFingerprint: () => siteFingerprint(packageRoot, generatorVersion) } : {}),
   };

@@ -5,9 +5,9 @@
  * modelled drift and the level from the rule table.
  */
 import { getIndicator, indicatorIds } from '../indicators/index.ts';
-import { assessLevel, regionPercentile, type LevelInputs } from '../risk/assess-level.ts';
+import { assessLevel, percentileRanker, type LevelInputs } from '../risk/assess-level.ts';
 import type { RiskRule, ScenarioSettings } from '../scenario/settings.ts';
-import type { LoadedScenario, Record as ScenarioRecord } from '../scenario/types.ts';
+import type { DriftArrivals, LoadedScenario, Record as ScenarioRecord } from '../scenario/types.ts';
 import type { SeriesPoint, TrendOptions, TrendResult } from '../stats/types.ts';
 import { decideDirection, trendPValue } from './direction.ts';
 import { derivedSeed } from './seed.ts';
@@ -184,8 +184,7 @@ function runTrend(
   return finishTrend(values, pending, outcome);
 }
 
-function driftValues(scenario: LoadedScenario, segmentId: string, until: SeasonRef, settings: ScenarioSettings): SeasonValue[] {
-  const rows = scenario.drift?.arrivals.filter((a) => a.segmentId === segmentId) ?? [];
+function driftValues(rows: readonly DriftArrivals[], until: SeasonRef, settings: ScenarioSettings): SeasonValue[] {
   const out: SeasonValue[] = [];
   for (const row of rows) {
     const ref = seasonRef(row.season, settings.seasons);
@@ -227,6 +226,14 @@ export function evaluateSeason(scenario: LoadedScenario, seasonId: string, rules
     for (const m of monitored.values()) Object.assign(m, { first: startSeason, firstStart: startRef.start, last: seasonId, lastStart: season.start });
   }
 
+  // Modelled arrivals per segment (every season), indexed once.
+  const driftBySegment = new Map<string, DriftArrivals[]>();
+  for (const row of scenario.drift?.arrivals ?? []) {
+    const list = driftBySegment.get(row.segmentId);
+    if (list) list.push(row);
+    else driftBySegment.set(row.segmentId, [row]);
+  }
+
   const perSegment = new Map<string, IndicatorEvaluation[]>(segments.map((s) => [s.id, []]));
   const regional: SeasonEvaluation['regional'] = [];
 
@@ -234,7 +241,7 @@ export function evaluateSeason(scenario: LoadedScenario, seasonId: string, rules
     const records = (byKey.get(`${indicator}\u0000${segmentId}`) ?? []).filter((r) => r.date <= season.end && r.value !== null);
     const values =
       indicator === 'drift-arrivals' && records.length === 0
-        ? driftValues(scenario, segmentId, season, settings)
+        ? driftValues(driftBySegment.get(segmentId) ?? [], season, settings)
         : seasonValues(records, {
             aggregation: getIndicator(indicator).aggregation,
             untilSeason: season,
@@ -333,11 +340,12 @@ export function evaluateSeason(scenario: LoadedScenario, seasonId: string, rules
     const percentileBasis = evaluations.map((e) =>
       indicator === 'drift-arrivals' ? (e.evaluation.seasonValue ?? null) : e.evaluation.assessmentValue,
     );
+    const percentileOf = percentileRanker(percentileBasis);
     for (const e of evaluations) {
       e.evaluation.segmentsTested = tested.length;
       e.evaluation.direction = decideDirection(e.evaluation.trend, e.evaluation.qValue, settings.trend.falseDiscoveryRate);
       const own = indicator === 'drift-arrivals' ? e.evaluation.seasonValue : e.evaluation.assessmentValue;
-      e.evaluation.regionPercentile = regionPercentile(own, percentileBasis);
+      e.evaluation.regionPercentile = percentileOf(own);
       perSegment.get(e.segmentId)?.push(e.evaluation);
     }
     if (evaluations.length > 0) {
@@ -356,18 +364,21 @@ export function evaluateSeason(scenario: LoadedScenario, seasonId: string, rules
 
   const zones = scenario.drift?.zones.find((z) => z.season === seasonId)?.zones ?? [];
   const driftSeasonRows = scenario.drift?.arrivals.filter((a) => a.season === seasonId) ?? [];
+  // The first row of each segment this season (as a search through the rows would find it).
+  const driftRowOf = new Map<string, DriftArrivals>();
+  for (const row of driftSeasonRows) if (!driftRowOf.has(row.segmentId)) driftRowOf.set(row.segmentId, row);
+  const driftPercentileOf = percentileRanker(segments.map((s) => driftRowOf.get(s.id)?.arrivalsPerKm ?? 0));
   const out = new Map<string, SegmentEvaluation>();
   for (const segment of segments) {
     const indicators = perSegment.get(segment.id) ?? [];
     let drift: DriftBulletin | null = null;
     if (driftSeasonRows.length > 0) {
-      const row = driftSeasonRows.find((a) => a.segmentId === segment.id);
-      const perKm = segments.map((s) => driftSeasonRows.find((a) => a.segmentId === s.id)?.arrivalsPerKm ?? 0);
+      const row = driftRowOf.get(segment.id);
       const own = row?.arrivalsPerKm ?? 0;
       drift = {
         arrivals: row?.arrivals ?? 0,
         arrivalsPerKm: own,
-        regionPercentile: regionPercentile(own, perKm) ?? 50,
+        regionPercentile: driftPercentileOf(own) ?? 50,
         nearestZone: row?.nearestZone ?? null,
       };
       const driftIndicator = indicators.find((i) => i.indicator === 'drift-arrivals');

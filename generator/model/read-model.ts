@@ -2,13 +2,15 @@
  * Reads a model folder written by writeModel. Used by the site (getStaticPaths) and by tests.
  * Regions are returned in the order of site.seasons; bulletins by season then segment id.
  */
-import { readdir, readFile } from 'node:fs/promises';
+import { readFileSync } from 'node:fs';
+import { readdir } from 'node:fs/promises';
 import { join } from 'node:path';
 import type { BulletinModelSet } from './assemble-model.ts';
 import type { Bulletin, RegionSummary, SiteModel } from './types.ts';
 
+// Read synchronously: thousands of small files one after another (see write-model.ts).
 async function readJson<T>(path: string): Promise<T> {
-  const text = await readFile(path, 'utf8');
+  const text = readFileSync(path, 'utf8');
   try {
     return JSON.parse(text) as T;
   } catch (error) {

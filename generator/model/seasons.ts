@@ -35,7 +35,25 @@ function monthYears(definition: SeasonDefinition, year: number): { year: number;
   return months.map((month, i) => ({ year: wrapIndex !== -1 && i < wrapIndex ? year - 1 : year, month }));
 }
 
+// Season references are asked for again and again (once per record): remember them per list
+// of definitions. A copy is handed out, so no caller can change a remembered one.
+const remembered = new WeakMap<readonly SeasonDefinition[], Map<string, SeasonRef | null>>();
+
 export function seasonRef(id: string, definitions: readonly SeasonDefinition[]): SeasonRef | null {
+  let known = remembered.get(definitions);
+  if (!known) {
+    known = new Map();
+    remembered.set(definitions, known);
+  }
+  let ref = known.get(id);
+  if (ref === undefined) {
+    ref = computeSeasonRef(id, definitions);
+    known.set(id, ref);
+  }
+  return ref === null ? null : { ...ref };
+}
+
+function computeSeasonRef(id: string, definitions: readonly SeasonDefinition[]): SeasonRef | null {
   const parsed = parseSeasonId(id);
   if (!parsed) return null;
   const definition = definitions.find((d) => d.id === parsed.name);

@@ -12,7 +12,8 @@
  * sentence or level does. Objects are hashed with their keys sorted, so key order is irrelevant.
  */
 import { createHash } from 'node:crypto';
-import { readFile, readdir } from 'node:fs/promises';
+import { readFileSync } from 'node:fs';
+import { readdir } from 'node:fs/promises';
 import path from 'node:path';
 import type { Bulletin, RegionSummary, SiteModel } from '../model/types.ts';
 import { PublishError } from './publish-error.ts';
@@ -52,13 +53,48 @@ export interface Correction {
 
 /** JSON with object keys sorted at every depth: the same value always gives the same text. */
 export function canonicalJson(value: unknown): string {
-  if (Array.isArray(value)) return `[${value.map((item) => canonicalJson(item)).join(',')}]`;
+  try {
+    return JSON.stringify(value, sortedKeys) ?? 'null';
+  } catch (error) {
+    if (error !== integerKeys) throw error;
+    return canonicalJsonByHand(value);
+  }
+}
+
+const integerKeys = new Error('an object has integer-like keys');
+const integerLike = /^(?:0|[1-9]\d*)$/;
+
+/**
+ * JSON.stringify replacer: objects whose keys are not in code-unit order are copied with sorted
+ * keys (most values, e.g. read from files written with sorted keys, need no copy). Objects with
+ * integer-like keys cannot be reordered (JavaScript lists those keys first, by number): the
+ * whole value then goes through canonicalJsonByHand.
+ */
+function sortedKeys(this: unknown, _key: string, value: unknown): unknown {
+  if (value === null || typeof value !== 'object' || Array.isArray(value)) return value;
+  const record = value as { [key: string]: unknown };
+  const keys = Object.keys(record);
+  let sorted = true;
+  for (let i = 0; i < keys.length; i += 1) {
+    const key = keys[i] as string;
+    if (integerLike.test(key)) throw integerKeys;
+    if (i > 0 && (keys[i - 1] as string) > key) sorted = false;
+  }
+  if (sorted) return value;
+  const copy: { [key: string]: unknown } = {};
+  for (const key of keys.sort(compareCodeUnits)) copy[key] = record[key];
+  return copy;
+}
+
+/** The same text, built by hand (any key order). */
+function canonicalJsonByHand(value: unknown): string {
+  if (Array.isArray(value)) return `[${value.map((item) => canonicalJsonByHand(item)).join(',')}]`;
   if (value !== null && typeof value === 'object') {
     const record = value as { [key: string]: unknown };
     const keys = Object.keys(record)
       .filter((key) => record[key] !== undefined)
       .sort(compareCodeUnits);
-    return `{${keys.map((key) => `${JSON.stringify(key)}:${canonicalJson(record[key])}`).join(',')}}`;
+    return `{${keys.map((key) => `${JSON.stringify(key)}:${canonicalJsonByHand(record[key])}`).join(',')}}`;
   }
   return JSON.stringify(value) ?? 'null';
 }
@@ -74,14 +110,19 @@ function entryFor(
   correction: LedgerEntry['correction'],
 ): LedgerEntry {
   const parts: { [field: string]: string } = {};
+  // The whole content's canonical text is made of its fields' texts (same as canonicalJson(content)).
+  const pieces: string[] = [];
   for (const field of Object.keys(content).sort(compareCodeUnits)) {
-    parts[field] = sha256(canonicalJson(content[field])).slice(0, 16);
+    const text = canonicalJson(content[field]);
+    parts[field] = sha256(text).slice(0, 16);
+    if (content[field] !== undefined) pieces.push(`${JSON.stringify(field)}:${text}`);
   }
-  return { segment, page, sha256: sha256(canonicalJson(content)), parts, correction };
+  return { segment, page, sha256: sha256(`{${pieces.join(',')}}`), parts, correction };
 }
 
 async function readJson<T>(file: string): Promise<T> {
-  return JSON.parse(await readFile(file, 'utf8')) as T;
+  // Synchronous read, one small file after another; the caller yields between files.
+  return JSON.parse(readFileSync(file, 'utf8')) as T;
 }
 
 async function readRegion(modelDir: string, season: string): Promise<RegionSummary | null> {
@@ -108,7 +149,9 @@ export async function ledgerFromModel(modelDir: string): Promise<ArchiveLedger> 
     }
     const folder = path.join(modelDir, 'bulletins', season.id);
     const files = (await readdir(folder).catch(() => [] as string[])).filter((name) => name.endsWith('.json')).sort(compareCodeUnits);
-    for (const name of files) {
+    for (const [i, name] of files.entries()) {
+      // Let other work (a child process's output) through now and then.
+      if (i % 16 === 15) await new Promise((resolve) => setImmediate(resolve));
       const bulletin = await readJson<Bulletin>(path.join(folder, name));
       assertSlug(bulletin.segment.id, `segment id in ${path.join('bulletins', season.id, name)}`);
       const page = bulletin.permalink.replace(/^\/+/, '');

@@ -3,15 +3,21 @@
  *
  * The Astro project is this package's own root (where astro.config.mjs lives), found from this
  * file's location, so `wrackline build` works from any working folder: paths given by the user
- * are made absolute first, then Astro runs with the package root as its working folder.
+ * are made absolute first, then Astro runs with `--root` set to the package root (and a scratch
+ * working folder of its own, see runAstro).
  * The child gets WRACKLINE_MODEL (the model folder), ASTRO_TELEMETRY_DISABLED=1 and TZ=UTC (no
  * date on a page may depend on the machine's zone), and writes to `--outDir`.
  */
 import { spawn } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
+import { mkdir, readFile, readdir, rm, writeFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
+import { availableParallelism } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
+import { ownerOf } from './page-reuse.ts';
+import { moveFiles } from './move-files.ts';
+import { compareCodeUnits } from './tree-hash.ts';
 
 /** The folder holding this package's package.json (two levels above generator/publish/). */
 export const packageRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
@@ -43,11 +49,11 @@ export interface ChildResult {
 export function runNodeScript(
   script: string,
   args: readonly string[],
-  options: { cwd: string; env: NodeJS.ProcessEnv; onLine?: (line: string) => void; keepLines?: number },
+  options: { cwd: string; env: NodeJS.ProcessEnv; onLine?: (line: string) => void; keepLines?: number; execArgv?: readonly string[] },
 ): Promise<ChildResult> {
   const keep = options.keepLines ?? 60;
   return new Promise((resolve, reject) => {
-    const child = spawn(process.execPath, [script, ...args], { cwd: options.cwd, env: options.env, stdio: ['ignore', 'pipe', 'pipe'] });
+    const child = spawn(process.execPath, [...(options.execArgv ?? []), script, ...args], { cwd: options.cwd, env: options.env, stdio: ['ignore', 'pipe', 'pipe'] });
     const tail: string[] = [];
     const pending = { stdout: '', stderr: '' };
     const take = (which: 'stdout' | 'stderr', chunk: Buffer): void => {
@@ -85,46 +91,158 @@ export interface RenderOptions {
   onPage?: (pagesDone: number) => void;
   /** JSON list of "season/segment" bulletins whose own pages to render (WRACKLINE_RENDER_ONLY). */
   only?: string;
+  /** How many Astro processes share the bulletins; default: see `renderProcesses`. */
+  processes?: number;
 }
 
-export async function renderWithAstro(options: RenderOptions): Promise<{ pages: number }> {
-  const siteRoot = options.siteRoot ?? packageRoot;
-  if (!existsSync(path.join(siteRoot, 'astro.config.mjs'))) {
-    throw new Error(`no astro.config.mjs in ${siteRoot}: the site project is missing`);
+/** Below this many bulletins one Astro process is quicker than two (each pays a start-up of a few seconds). */
+export const bulletinsPerExtraProcess = 400;
+
+/**
+ * Heap limit of each Astro process (MiB). Astro's own garbage collection is lazy: left alone,
+ * one process rendering 2,000 bulletins grew to 1.9 GB although far less was live. The limit
+ * makes it collect sooner, so two processes together stay well under the memory budget.
+ */
+export const astroHeapMiB = 900;
+
+/** One Astro process per core, at most two, and only when there are enough bulletins to share. */
+export function renderProcesses(bulletins: number, cores: number = availableParallelism()): number {
+  return Math.max(1, Math.min(2, cores, Math.floor(bulletins / bulletinsPerExtraProcess)));
+}
+
+/** "season/segment" ids of every bulletin in a model folder written by writeModel, sorted. */
+export async function modelBulletinIds(modelDir: string): Promise<string[]> {
+  const ids: string[] = [];
+  const seasons = await readdir(path.join(modelDir, 'bulletins')).catch(() => [] as string[]);
+  for (const season of seasons.sort(compareCodeUnits)) {
+    const names = await readdir(path.join(modelDir, 'bulletins', season)).catch(() => [] as string[]);
+    for (const name of names.filter((n) => n.endsWith('.json')).sort(compareCodeUnits)) ids.push(`${season}/${name.slice(0, -'.json'.length)}`);
   }
-  const astro = resolvePackageBin('astro', 'astro', siteRoot);
+  return ids;
+}
+
+/** Deals bulletins to `parts` lists in turn, so each gets a like share of every season. */
+export function dealBulletins(ids: readonly string[], parts: number): string[][] {
+  const lists: string[][] = Array.from({ length: parts }, () => []);
+  ids.forEach((id, i) => lists[i % parts]?.push(id));
+  return lists;
+}
+
+interface AstroRun {
+  siteRoot: string;
+  modelDir: string;
+  outDir: string;
+  only: string | undefined;
+  /** Called with the site path of each page Astro reports written ("/seasons/…/index.html"). */
+  onPage: (page: string) => void;
+}
+
+/**
+ * One `astro build`. It runs in a scratch folder of its own under the project's `.astro/`:
+ * Astro keeps its intermediate server build in `<working folder>/.astro/` when the output
+ * folder lies outside the working folder, so each process needs its own working folder to
+ * run beside another (and that folder must lie inside the project, where the packages resolve).
+ */
+async function runAstro(run: AstroRun, scratch: string): Promise<number> {
+  const astro = resolvePackageBin('astro', 'astro', run.siteRoot);
   let pages = 0;
   const env: NodeJS.ProcessEnv = {
     ...process.env,
-    WRACKLINE_MODEL: path.resolve(options.modelDir),
+    WRACKLINE_MODEL: path.resolve(run.modelDir),
     ASTRO_TELEMETRY_DISABLED: '1',
     TZ: 'UTC',
     FORCE_COLOR: '0',
   };
   delete env['WRACKLINE_RENDER_ONLY'];
-  if (options.only !== undefined) env['WRACKLINE_RENDER_ONLY'] = path.resolve(options.only);
-  const result = await runNodeScript(astro, ['build', '--outDir', path.resolve(options.outDir)], {
-    cwd: siteRoot,
-    env,
-    onLine: (line) => {
-      // Astro lists each page it writes as "12:00:01   ├─ /path/index.html (+3ms)" (or └─).
-      if (/[├└]─\s+\/\S*/.test(plainText(line))) {
-        pages += 1;
-        options.onPage?.(pages);
-      }
-    },
-  });
-  if (result.code !== 0) {
-    const why = result.signal ? `was stopped by ${result.signal}` : `exited with code ${result.code}`;
-    throw new Error(`astro build ${why}. Its last output:\n${result.tail.map((line) => `  | ${plainText(line)}`).join('\n')}`);
+  if (run.only !== undefined) env['WRACKLINE_RENDER_ONLY'] = path.resolve(run.only);
+  await mkdir(scratch, { recursive: true });
+  try {
+    const result = await runNodeScript(astro, ['build', '--root', run.siteRoot, '--outDir', path.resolve(run.outDir)], {
+      cwd: scratch,
+      env,
+      execArgv: [`--max-old-space-size=${astroHeapMiB}`],
+      onLine: (line) => {
+        // Astro lists each page it writes as "12:00:01   ├─ /path/index.html (+3ms)" (or └─).
+        const page = /[├└]─\s+(\/\S*)/.exec(plainText(line));
+        if (page?.[1]) {
+          pages += 1;
+          run.onPage(page[1]);
+        }
+      },
+    });
+    if (result.code !== 0) {
+      const why = result.signal ? `was stopped by ${result.signal}` : `exited with code ${result.code}`;
+      throw new Error(`astro build ${why}. Its last output:\n${result.tail.map((line) => `  | ${plainText(line)}`).join('\n')}`);
+    }
+  } finally {
+    await rm(scratch, { recursive: true, force: true, maxRetries: 3 });
   }
-  return { pages };
+  return pages;
 }
 
-/** Builds a pagefind search index into `<siteDir>/pagefind/`. */
-export async function indexWithPagefind(siteDir: string): Promise<void> {
+/**
+ * Renders the model with Astro. With many bulletins, two Astro processes run side by side,
+ * each rendering the pages of half the bulletins (pages listing every bulletin are rendered by
+ * both; the first one's are kept); their files are then gathered in `outDir`.
+ */
+export async function renderWithAstro(options: RenderOptions): Promise<{ pages: number }> {
+  const siteRoot = options.siteRoot ?? packageRoot;
+  if (!existsSync(path.join(siteRoot, 'astro.config.mjs'))) {
+    throw new Error(`no astro.config.mjs in ${siteRoot}: the site project is missing`);
+  }
+  const ids = options.only === undefined ? await modelBulletinIds(options.modelDir) : (JSON.parse(await readFile(options.only, 'utf8')) as string[]);
+  const processes = options.processes ?? renderProcesses(ids.length);
+  let pages = 0;
+  const count = (): void => {
+    pages += 1;
+    options.onPage?.(pages);
+  };
+  const scratchOf = (i: number): string => path.join(siteRoot, '.astro', `render-${process.pid}-${Date.now().toString(36)}-${i}`);
+  if (processes <= 1) {
+    await runAstro({ siteRoot, modelDir: options.modelDir, outDir: options.outDir, only: options.only, onPage: count }, scratchOf(0));
+    return { pages };
+  }
+  const site = JSON.parse(await readFile(path.join(options.modelDir, 'site.json'), 'utf8')) as { seasons?: { id: string; current?: boolean }[] };
+  const current = site.seasons?.find((s) => s.current)?.id ?? '';
+  const shardRoot = `${path.resolve(options.outDir)}.shards`;
+  await rm(shardRoot, { recursive: true, force: true });
+  await mkdir(shardRoot, { recursive: true });
+  try {
+    const lists = dealBulletins(ids, processes);
+    const runs: AstroRun[] = [];
+    for (const [i, list] of lists.entries()) {
+      const only = path.join(shardRoot, `only-${i}.json`);
+      await writeFile(only, `${JSON.stringify(list)}\n`);
+      const own = new Set(list);
+      // Pages listing every bulletin are rendered by each process alike: count them once.
+      const onPage = i === 0 ? count : (page: string): void => {
+        const owner = ownerOf(page.replace(/^\/+/, ''), current);
+        if (owner !== null && own.has(owner)) count();
+      };
+      runs.push({ siteRoot, modelDir: options.modelDir, outDir: i === 0 ? options.outDir : path.join(shardRoot, `site-${i}`), only, onPage });
+    }
+    const outcomes = await Promise.allSettled(runs.map((run, i) => runAstro(run, scratchOf(i))));
+    const failed = outcomes.find((outcome): outcome is PromiseRejectedResult => outcome.status === 'rejected');
+    if (failed) throw failed.reason;
+    // Pages listing every bulletin: those of the first process are kept.
+    for (const [i, run] of runs.entries()) {
+      if (i === 0) continue;
+      const own = new Set(lists[i]);
+      await moveFiles(run.outDir, options.outDir, (file) => {
+        const owner = ownerOf(file, current);
+        return owner !== null && own.has(owner);
+      });
+    }
+    return { pages };
+  } finally {
+    await rm(shardRoot, { recursive: true, force: true, maxRetries: 3 });
+  }
+}
+
+/** Builds a pagefind search index of the pages `glob` matches into `<siteDir>/pagefind/`. */
+export async function indexWithPagefind(siteDir: string, glob = '**/*.{html}'): Promise<void> {
   const pagefind = resolvePackageBin('pagefind', 'pagefind');
-  const result = await runNodeScript(pagefind, ['--site', path.resolve(siteDir)], { cwd: packageRoot, env: { ...process.env } });
+  const result = await runNodeScript(pagefind, ['--site', path.resolve(siteDir), '--glob', glob], { cwd: packageRoot, env: { ...process.env } });
   if (result.code !== 0) {
     throw new Error(`pagefind exited with code ${result.code}. Its last output:\n${result.tail.map((line) => `  | ${line}`).join('\n')}`);
   }

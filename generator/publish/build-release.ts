@@ -12,19 +12,20 @@
  * - pages without the security policy or with inline script: refused (html-safety.ts);
  * - output paths: every model path and page path is a slug or checked to stay inside its root.
  */
-import { readFile, writeFile } from 'node:fs/promises';
+import { readFileSync } from 'node:fs';
+import { writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import type { BuildSteps, ModelSet } from './build-steps.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
 import type { ArchiveLedger } from './archive-ledger.ts';
 import { assertArchiveIntact, ledgerFileName, ledgerFromModel, readLedger } from './archive-ledger.ts';
 import type { Correction } from './archive-ledger.ts';
-import { safetyRulesVersion, siteProblems } from './html-safety.ts';
+import { safetyRulesVersion, siteProblems, siteProblemsInParallel } from './html-safety.ts';
 import { PublishError } from './publish-error.ts';
 import { openPublishSession } from './release-swap.ts';
 import type { PublishSession } from './release-swap.ts';
 import { assertSlug } from './safe-path.ts';
-import { hashFile, hashTree, listFiles, readManifest, treeDigest, writeManifest } from './tree-hash.ts';
+import { compareCodeUnits, hashFile, hashFilesIn, listFiles, readManifest, treeDigest, writeManifest } from './tree-hash.ts';
 import type { FileHash } from './tree-hash.ts';
 import type { Progress } from '../progress/progress.ts';
 import { bringOver, computeRenderKeys, missingAfterReuse, planRender, readRenderKeys, writeRenderKeys } from './page-reuse.ts';
@@ -58,13 +59,26 @@ export type BuildOutcome =
       report: ValidationReport;
     };
 
-/** Does the built site ask for a search index? (pages marked with data-pagefind-body) */
-async function wantsSearchIndex(siteDir: string, files: readonly string[]): Promise<boolean> {
-  for (const file of files) {
+/**
+ * The pages that ask to be in the search index (marked with data-pagefind-body), as one glob
+ * for pagefind; null when no page asks. Pagefind leaves unmarked pages out whenever any page is
+ * marked, so naming only the folders of the marked pages gives the same index without making it
+ * read every other page.
+ */
+export async function searchGlob(siteDir: string, files: readonly string[]): Promise<string | null> {
+  const folders = new Set<string>();
+  const single: string[] = [];
+  for (const [i, file] of files.entries()) {
     if (!file.endsWith('.html')) continue;
-    if ((await readFile(path.join(siteDir, file), 'utf8')).includes('data-pagefind-body')) return true;
+    if (i % 64 === 63) await new Promise((resolve) => setImmediate(resolve));
+    if (!readFileSync(path.join(siteDir, file)).includes('data-pagefind-body')) continue;
+    const slash = file.indexOf('/');
+    if (slash === -1) single.push(file);
+    else folders.add(file.slice(0, slash));
   }
-  return false;
+  const parts = [...[...folders].sort().map((folder) => `${folder}/**/*.html`), ...single.sort()];
+  if (parts.length === 0) return null;
+  return parts.length === 1 ? (parts[0] as string) : `{${parts.join(',')}}`;
 }
 
 function corrections(scenario: LoadedScenario): Correction[] {
@@ -93,7 +107,7 @@ async function prepareModel(
 > {
   const { progress, steps } = options;
   progress.start('reading', undefined, 'records');
-  const scenario = await steps.load(options.scenario, (phase, done, total) => progress.update(done, total, phase));
+  const scenario = await steps.load(options.scenario, (phase, done, total) => progress.update(done, total, phase), options.cache);
   progress.update(scenario.records.length, scenario.records.length, '');
   progress.end();
   if (!scenario.report.ok) return { kind: 'invalid', report: scenario.report };
@@ -145,6 +159,11 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
       progress.note(`  pages: rendering every page (${plan.reason})`);
     }
     progress.start('pages', undefined, 'pages');
+    // The archive ledger needs only the model: it is worked out while the pages render.
+    const ledgerReady = ledgerFromModel(modelDir).then(
+      (ledger) => ({ ledger }),
+      (error: unknown) => ({ error }),
+    );
     let rendered = await steps.render({ modelDir, outDir: siteDir, onPage: (done) => progress.update(done), ...(only === undefined ? {} : { only }) });
     let brought: FileHash[] = [];
     if (plan.kind === 'some' && published !== null && publishedManifest !== null && keys !== null) {
@@ -163,25 +182,34 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     progress.end();
     if (options.afterRender) await options.afterRender(siteDir);
 
-    if (await wantsSearchIndex(siteDir, await listFiles(siteDir))) {
-      progress.start('search index');
-      await steps.index(siteDir);
-    }
+    // The search index is built by its own process while this one hashes and checks the pages.
+    const pageFiles = await listFiles(siteDir);
+    const glob = await searchGlob(siteDir, pageFiles);
     progress.start('checks', undefined, 'files');
-    const hashed = await hashTree(siteDir);
-    progress.update(hashed.length);
+    if (glob !== null) progress.note('  checks: the search index is built meanwhile');
+    const indexed = glob === null ? Promise.resolve() : steps.index(siteDir, glob);
+    indexed.catch(() => {});
+    const pagesHashed = await hashFilesIn(siteDir, pageFiles);
+    progress.update(pagesHashed.length);
     // Files taken over must still be what the release on line recorded.
-    const hashes = new Map(hashed.map((entry) => [entry.file, entry.sha256]));
+    const hashes = new Map(pagesHashed.map((entry) => [entry.file, entry.sha256]));
     const altered = brought.filter((entry) => hashes.get(entry.file) !== entry.sha256);
-    if (altered.length > 0) {
-      throw new PublishError(`page reuse: ${altered.length} file(s) of the published release differ from its manifest (first: ${altered[0]?.file}); run again with --render-all`);
-    }
     // A page byte-identical to one in the release on line passed this same check when that
     // release was published: only new or changed pages are parsed again.
     const sameRules = publishedManifest?.['safetyRules'] === safetyRulesVersion;
     const checkedBefore = new Set((sameRules ? (publishedManifest?.files ?? []) : []).map((entry) => entry.sha256));
-    const toCheck = hashed.filter((entry) => entry.file.endsWith('.html') && !checkedBefore.has(entry.sha256)).map((entry) => entry.file);
-    const problems = await siteProblems(siteDir, toCheck);
+    const toCheck = pagesHashed.filter((entry) => entry.file.endsWith('.html') && !checkedBefore.has(entry.sha256)).map((entry) => entry.file);
+    const problems = await siteProblemsInParallel(siteDir, toCheck);
+    await indexed;
+    // What the indexer added (its own folder); pages it might have touched are hashed again.
+    const before = new Set(pageFiles);
+    const added = (await listFiles(siteDir)).filter((file) => !before.has(file));
+    const hashed = [...pagesHashed, ...(await hashFilesIn(siteDir, added))].sort((a, b) => compareCodeUnits(a.file, b.file));
+    problems.push(...(await siteProblems(siteDir, added)));
+    progress.update(hashed.length);
+    if (altered.length > 0) {
+      throw new PublishError(`page reuse: ${altered.length} file(s) of the published release differ from its manifest (first: ${altered[0]?.file}); run again with --render-all`);
+    }
     if (problems.length > 0) {
       const shown = problems.slice(0, 12).map((problem) => `  - ${problem.page}: ${problem.problem}`);
       throw new PublishError(
@@ -192,7 +220,9 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
         ].join('\n'),
       );
     }
-    const ledger = await ledgerFromModel(modelDir);
+    const ledgerOutcome = await ledgerReady;
+    if ('error' in ledgerOutcome) throw ledgerOutcome.error;
+    const ledger = ledgerOutcome.ledger;
     assertArchiveIntact(published ? await readLedger(published) : null, ledger, prepared.corrections);
     await writeLedgerFile(siteDir, ledger);
     const ledgerHash = await hashFile(path.join(siteDir, ledgerFileName));

@@ -12,7 +12,8 @@ export interface ModelSet {
 }
 
 export interface BuildSteps {
-  load(dir: string, onProgress: (phase: string, done: number, total?: number) => void): Promise<LoadedScenario>;
+  /** `cacheDir`: where figures from earlier builds may be kept (null: read everything afresh). */
+  load(dir: string, onProgress: (phase: string, done: number, total?: number) => void, cacheDir: string | null): Promise<LoadedScenario>;
   model(
     scenario: LoadedScenario,
     options: { cacheDir: string | null; onProgress: (done: number, total?: number) => void; log: (line: string) => void },
@@ -23,7 +24,8 @@ export interface BuildSteps {
    * about every bulletin are always rendered); absent: render everything.
    */
   render(options: { modelDir: string; outDir: string; onPage: (done: number) => void; only?: string }): Promise<{ pages: number }>;
-  index(siteDir: string): Promise<void>;
+  /** Builds the search index of the pages `glob` matches (relative to `siteDir`). */
+  index(siteDir: string, glob: string): Promise<void>;
   /**
    * A hash of everything besides the model that pages depend on. Only a renderer that honours
    * `only` provides it; without it every build renders every page (see page-reuse.ts).

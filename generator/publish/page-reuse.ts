@@ -26,7 +26,8 @@
  * renders everything once (new fingerprint); later rebuilds rely on the key alone.
  */
 import { createHash } from 'node:crypto';
-import { copyFile, link, mkdir, readFile, readdir, writeFile } from 'node:fs/promises';
+import { copyFileSync, linkSync, readFileSync } from 'node:fs';
+import { mkdir, readFile, readdir, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { compareCodeUnits } from './tree-hash.ts';
 import type { FileHash } from './tree-hash.ts';
@@ -174,7 +175,10 @@ export async function computeRenderKeys(modelDir: string, fingerprint: string): 
     regionKeys.set(season, sha256(text === null ? 'no region' : regionPageInputs(JSON.parse(text) as RegionJson)));
   }
   const bulletins: { [id: string]: string } = {};
-  for (const entry of files) bulletins[entry.id] = sha256(shared, regionKeys.get(entry.season) ?? '', await readFile(entry.file));
+  for (const [i, entry] of files.entries()) {
+    if (i % 64 === 63) await new Promise((resolve) => setImmediate(resolve));
+    bulletins[entry.id] = sha256(shared, regionKeys.get(entry.season) ?? '', readFileSync(entry.file));
+  }
   return { scheme: keyScheme, shared, current, bulletins };
 }
 
@@ -255,13 +259,13 @@ export async function bringOver(
       made.add(dir);
     }
     try {
-      await link(from, to);
+      linkSync(from, to);
     } catch (error) {
       const code = (error as { code?: string }).code;
       // rendered afresh by a route that does not follow the list: the fresh file is right
       if (code === 'EEXIST') continue;
       if (code !== 'EXDEV' && code !== 'EPERM' && code !== 'ENOTSUP') throw error;
-      await copyFile(from, to);
+      copyFileSync(from, to);
     }
     brought.push(entry);
   }

@@ -5,10 +5,13 @@
  * (the package version and the text of every file in generator/stats/ and generator/random/,
  * which the statistics import, and of the model's link to them), and computed on a miss.
  *
+ * The Regional Kendall test of a season and indicator is kept the same way, keyed by every
+ * segment's series together (any change anywhere recomputes it).
+ *
  * What is not cached, because it depends on all segments at once and is cheap: the
- * Benjamini–Hochberg adjustment, the regional test, region percentiles, levels and sentences.
- * Those are recomputed on every build, so results stay exactly those of a build without cache
- * (a test compares the two).
+ * Benjamini–Hochberg adjustment, region percentiles, levels and sentences. Those are recomputed
+ * on every build, so results stay exactly those of a build without cache (a test compares the
+ * two). Results handed out from the cache are frozen.
  *
  * The cache is one JSON file in the cache folder; deleting the folder is always safe. Only
  * entries used by the latest build are kept, so it does not grow without bound. A file that
@@ -17,7 +20,7 @@
 import { createHash } from 'node:crypto';
 import { mkdir, readFile, readdir, rename, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import type { TrendEngine, TrendOutcome } from '../model/evaluate-season.ts';
+import type { RegionalResult, TrendEngine, TrendOutcome } from '../model/evaluate-season.ts';
 import type { TrendResult } from '../stats/types.ts';
 import { canonicalJson } from './archive-ledger.ts';
 import { compareCodeUnits } from './tree-hash.ts';
@@ -27,6 +30,8 @@ export const trendCacheFile = 'trend-results.json';
 interface CacheFile {
   fingerprint: string;
   entries: { [key: string]: TrendResult };
+  /** Regional Kendall results (null: the test could not run), keyed like the entries. */
+  regional?: { [key: string]: RegionalResult | null };
 }
 
 /** Changes whenever the statistics code or the package version changes. */
@@ -43,6 +48,19 @@ export async function statisticsFingerprint(packageRoot: string, version: string
   return hash.digest('hex');
 }
 
+/**
+ * Freezes a value read from the cache and everything in it, so a caller that tried to change a
+ * result shared through the cache would fail at once (modules run in strict mode) instead of
+ * changing it silently. Cheaper than a copy per hit.
+ */
+function deepFreeze<T>(value: T): T {
+  if (value !== null && typeof value === 'object' && !Object.isFrozen(value)) {
+    Object.freeze(value);
+    for (const child of Object.values(value as object)) deepFreeze(child);
+  }
+  return value;
+}
+
 export interface CachedEngine {
   engine: TrendEngine;
   stats(): { hits: number; misses: number };
@@ -52,13 +70,18 @@ export interface CachedEngine {
 
 export async function openTrendCache(cacheDir: string, fingerprint: string, inner: TrendEngine): Promise<CachedEngine> {
   let stored: CacheFile['entries'] = {};
+  let storedRegional: NonNullable<CacheFile['regional']> = {};
   try {
     const parsed = JSON.parse(await readFile(path.join(cacheDir, trendCacheFile), 'utf8')) as CacheFile;
-    if (parsed.fingerprint === fingerprint && parsed.entries && typeof parsed.entries === 'object') stored = parsed.entries;
+    if (parsed.fingerprint === fingerprint && parsed.entries && typeof parsed.entries === 'object') {
+      stored = parsed.entries;
+      if (parsed.regional && typeof parsed.regional === 'object') storedRegional = parsed.regional;
+    }
   } catch {
     // no cache yet, or a damaged one: start empty
   }
   const used: CacheFile['entries'] = {};
+  const usedRegional: NonNullable<CacheFile['regional']> = {};
   let hits = 0;
   let misses = 0;
   const engine: TrendEngine = {
@@ -68,8 +91,8 @@ export async function openTrendCache(cacheDir: string, fingerprint: string, inne
       if (found !== undefined) {
         hits += 1;
         used[key] = found;
-        // A fresh copy each time: callers must not be able to change the cached value.
-        return structuredClone(found);
+        // Frozen (see deepFreeze): no caller can change the cached value.
+        return deepFreeze(found);
       }
       misses += 1;
       const result = inner.analyze(points, options);
@@ -103,7 +126,7 @@ export async function openTrendCache(cacheDir: string, fingerprint: string, inne
         if (found !== undefined) {
           hits += 1;
           used[key] = found;
-          return { result: structuredClone(found) };
+          return { result: deepFreeze(found) };
         }
         misses += 1;
         const outcome = computed[missIndex.get(key) ?? -1] ?? { error: `no result for request ${i}` };
@@ -112,7 +135,19 @@ export async function openTrendCache(cacheDir: string, fingerprint: string, inne
       });
     },
     adjust: (pValues) => inner.adjust(pValues),
-    regional: (series, options) => inner.regional(series, options),
+    // The regional test reads every segment's series; it is looked up the same way. An error is
+    // not remembered (it is raised again).
+    regional(series, options) {
+      const key = createHash('sha256').update(canonicalJson({ regional: series, options })).digest('hex');
+      const found = key in usedRegional ? usedRegional[key] : key in storedRegional ? storedRegional[key] : undefined;
+      if (found !== undefined) {
+        usedRegional[key] = found;
+        return deepFreeze(found);
+      }
+      const result = inner.regional(series, options);
+      usedRegional[key] = result === null ? null : (JSON.parse(JSON.stringify(result)) as RegionalResult);
+      return result;
+    },
   };
   return {
     engine,
@@ -120,7 +155,7 @@ export async function openTrendCache(cacheDir: string, fingerprint: string, inne
     async save() {
       await mkdir(cacheDir, { recursive: true });
       const temporary = path.join(cacheDir, `${trendCacheFile}.${process.pid}`);
-      await writeFile(temporary, JSON.stringify({ fingerprint, entries: used } satisfies CacheFile));
+      await writeFile(temporary, JSON.stringify({ fingerprint, entries: used, regional: usedRegional } satisfies CacheFile));
       await rename(temporary, path.join(cacheDir, trendCacheFile));
     },
   };

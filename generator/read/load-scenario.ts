@@ -11,6 +11,7 @@ import { stat } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
 import { InputValidationError, NoUsableRows, ResourceFileMissing, ResourceInvalid, ScenarioError, ScenarioFolderUnreadable, SettingsInvalid } from '../errors.ts';
 import { readDrift } from '../drift/drift-model.ts';
+import { driftLogEntries, driftMemoKey, replayDriftLog, type DriftMemo } from './drift-memo.ts';
 import { indicatorDefinitions } from '../indicators/index.ts';
 import type { ScenarioSettings } from '../scenario/settings.ts';
 import { settingsSchema } from '../scenario/settings.ts';
@@ -31,6 +32,8 @@ export interface LoadOptions {
    * total in bytes of the file), "drift zones", and "done".
    */
   onProgress?(phase: string, done: number, total?: number): void;
+  /** Drift figures remembered from an earlier build with the same drift inputs (drift-memo.ts). */
+  driftMemo?: DriftMemo;
 }
 
 const descriptorName = 'datapackage.json';
@@ -171,7 +174,22 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
   const driftResources = present
     .filter((r) => r.role === 'drift-positions' || r.role === 'drift-trajectories' || r.role === 'drift-arrivals')
     .map((resource) => ({ resource, absolutePath: join(root, resource.path) }));
-  const drift = await readDrift({ resources: driftResources, segments, settings, segmentsFile, log, onProgress: progress });
+  const memoKey = options.driftMemo && driftResources.length > 0 ? driftMemoKey(driftResources.map((r) => r.resource), inputs, segments, settings) : null;
+  const remembered = memoKey === null ? null : await options.driftMemo?.get(memoKey);
+  let drift: LoadedScenario['drift'];
+  if (remembered) {
+    progress('drift figures taken over from an earlier build', 1, 1);
+    replayDriftLog(log, remembered);
+    drift = remembered.drift;
+  } else {
+    const issuesBefore = log.issues.length;
+    drift = await readDrift({ resources: driftResources, segments, settings, segmentsFile, log, onProgress: progress });
+    if (memoKey !== null) {
+      const entries = driftLogEntries(log, issuesBefore, driftResources.map((r) => r.resource.path));
+      // Only a reading without errors is remembered: a broken file is read (and reported) again.
+      if (!entries.issues.some((item) => item.severity === 'error')) await options.driftMemo?.set(memoKey, { drift, ...entries });
+    }
+  }
   // A file whose every record was left out is an error, not a list of warnings.
   for (const counts of log.report().files) {
     const hasError = log.issues.some((item) => item.file === counts.file && item.severity === 'error');

@@ -106,10 +106,32 @@ export function assessLevel(rules: readonly RiskRule[], inputs: LevelInputs): Le
  * one segment gets 50. Null when `value` is null.
  */
 export function regionPercentile(value: number | null, values: readonly (number | null)[]): number | null {
-  if (value === null) return null;
-  const known = values.filter((v): v is number => v !== null && Number.isFinite(v));
-  if (known.length <= 1) return 50;
-  const below = known.filter((v) => v < value).length;
-  const equalOthers = Math.max(0, known.filter((v) => v === value).length - 1);
-  return (100 * (below + equalOthers / 2)) / (known.length - 1);
+  return percentileRanker(values)(value);
+}
+
+/**
+ * regionPercentile of many values against one list: the list is sorted once and each value is
+ * placed by binary search, so a whole region costs n log n instead of n² (same results).
+ */
+export function percentileRanker(values: readonly (number | null)[]): (value: number | null) => number | null {
+  const known = values.filter((v): v is number => v !== null && Number.isFinite(v)).sort((a, b) => a - b);
+  // index of the first element not less than (strict: greater than) x
+  const bound = (x: number, strict: boolean): number => {
+    let lo = 0;
+    let hi = known.length;
+    while (lo < hi) {
+      const mid = (lo + hi) >>> 1;
+      const v = known[mid] as number;
+      if (v < x || (strict && v === x)) lo = mid + 1;
+      else hi = mid;
+    }
+    return lo;
+  };
+  return (value) => {
+    if (value === null) return null;
+    if (known.length <= 1) return 50;
+    const below = bound(value, false);
+    const equalOthers = Math.max(0, bound(value, true) - below - 1);
+    return (100 * (below + equalOthers / 2)) / (known.length - 1);
+  };
 }

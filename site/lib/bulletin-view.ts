@@ -1,7 +1,8 @@
 /**
- * Rendering helpers shared by the bulletin pages: chart/map strings (cached by season,
- * segment and indicator so the current-season page, its permalink and the embeds reuse one
- * render), download paths, and the schema.org Dataset description of the downloads.
+ * Rendering helpers shared by the bulletin pages: chart/map strings (current-season ones cached
+ * by segment and indicator, so the season page, the segment's permalink and the embeds reuse one
+ * render; a past season's chart appears on one page only and is not kept), download paths, and
+ * the schema.org Dataset description of the downloads.
  */
 import type { Bulletin, Caution, IndicatorBulletin } from '../../generator/model/types.ts';
 import { renderIndicatorChart } from './chart.ts';
@@ -10,8 +11,14 @@ import type { PreparedSegments } from './map.ts';
 import type { LoadedModel } from './model.ts';
 import { bulletinsOf, pageBulletins, regionOf } from './model.ts';
 
-export function chartFor(bulletin: Bulletin, indicator: IndicatorBulletin): string {
-  return renderIndicatorChart(indicator, { cacheKey: `${bulletin.season.id}/${bulletin.segment.id}/${indicator.indicator}` });
+/** Is this bulletin of the current season (its drawings then appear on several pages)? */
+function shownTwice(model: LoadedModel, bulletin: Bulletin): boolean {
+  return model.site.seasons.some((s) => s.current && s.id === bulletin.season.id);
+}
+
+export function chartFor(model: LoadedModel, bulletin: Bulletin, indicator: IndicatorBulletin): string {
+  const key = `${bulletin.season.id}/${bulletin.segment.id}/${indicator.indicator}`;
+  return renderIndicatorChart(indicator, shownTwice(model, bulletin) ? { cacheKey: key } : {});
 }
 
 const preparedCache = new Map<string, PreparedSegments>();
@@ -41,7 +48,7 @@ export function locatorFor(model: LoadedModel, bulletin: Bulletin): string {
     highlight: bulletin.segment.id,
     width: 420,
   });
-  locatorCache.set(key, svg);
+  if (shownTwice(model, bulletin)) locatorCache.set(key, svg);
   return svg;
 }
 

@@ -85,12 +85,13 @@ export function yScale(indicator: Pick<IndicatorBulletin, 'indicator' | 'unitSho
 }
 
 interface ChartOptions {
-  cacheKey: string;
+  /** Keep the drawing under this key and return it when asked again; absent: draw, keep nothing. */
+  cacheKey?: string;
   width?: number;
 }
 
 export function renderIndicatorChart(indicator: IndicatorBulletin, options: ChartOptions): string {
-  const hit = cache.get(options.cacheKey);
+  const hit = options.cacheKey === undefined ? undefined : cache.get(options.cacheKey);
   if (hit !== undefined) return hit;
   const width = options.width ?? 420;
   const totals = indicator.seasonTotals ?? null;
@@ -161,6 +162,6 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
     marks,
   });
   const svg = tidyAria(roundSvgNumbers((plot as unknown as { outerHTML: string }).outerHTML));
-  cache.set(options.cacheKey, svg);
+  if (options.cacheKey !== undefined) cache.set(options.cacheKey, svg);
   return svg;
 }

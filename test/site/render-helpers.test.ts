@@ -9,7 +9,7 @@ import { parseHTML } from 'linkedom';
 import { describe, expect, it } from 'vitest';
 import type { Bulletin, IndicatorBulletin } from '../../generator/model/types.ts';
 import { dateFromDecimalYear, renderIndicatorChart, roundSvgNumbers, yScale } from '../../site/lib/chart.ts';
-import { observationsCsv, toCsv } from '../../site/lib/csv.ts';
+import { observationsCsv, toCsv } from '../../generator/model/download-tables.ts';
 import { escapeXml, formatDate, formatPShort, jsonLdText, ordinal, regionalFigures, safeHttpUrl, safeMailto, safeTel } from '../../site/lib/format.ts';
 import { prepareSegments, renderMap } from '../../site/lib/map.ts';
 

@@ -1,10 +1,11 @@
 /**
- * CSV downloads (RFC 4180: comma separated, CRLF line ends, fields quoted when they hold a
+ * The two CSV downloads of a bulletin: every observation behind it, and the trend results per
+ * indicator (RFC 4180: comma separated, CRLF line ends, fields quoted when they hold a
  * comma, quote or line break). Cells that would start a spreadsheet formula (=, +, -, @)
  * are prefixed with an apostrophe when they are text — common practice against formula
  * injection; numbers are written as plain numbers.
  */
-import type { Bulletin } from '../../generator/model/types.ts';
+import type { Bulletin } from './types.ts';
 
 type Cell = string | number | boolean | null | undefined;
 
