@@ -21,6 +21,7 @@ import type { ArchiveLedger } from './archive-ledger.ts';
 import { assertArchiveIntact, ledgerFileName, ledgerFromModel, readLedger } from './archive-ledger.ts';
 import type { Correction } from './archive-ledger.ts';
 import { safetyRulesVersion, siteProblems, siteProblemsInParallel } from './html-safety.ts';
+import { collectGarbageNow } from './free-memory.ts';
 import { PublishError } from './publish-error.ts';
 import { openPublishSession } from './release-swap.ts';
 import type { PublishSession } from './release-swap.ts';
@@ -28,7 +29,7 @@ import { assertSlug } from './safe-path.ts';
 import { compareCodeUnits, hashFile, hashFilesIn, listFiles, readManifest, treeDigest, writeManifest } from './tree-hash.ts';
 import type { FileHash } from './tree-hash.ts';
 import type { Progress } from '../progress/progress.ts';
-import { bringOver, computeRenderKeys, missingAfterReuse, planRender, readRenderKeys, writeRenderKeys } from './page-reuse.ts';
+import { computeRenderKeys, missingAfterReuse, placeStaged, planRender, readRenderKeys, stageReused, writeRenderKeys } from './page-reuse.ts';
 import type { RenderKeys, RenderPlan } from './page-reuse.ts';
 import type { ValidationReport } from '../model/types.ts';
 
@@ -137,6 +138,8 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
   const { progress, steps } = options;
   const prepared = await prepareModel(options);
   if (prepared.kind === 'invalid') return prepared;
+  // The scenario and the model are on disk now; free their memory before the pages need it.
+  collectGarbageNow();
   const { session, modelDir } = prepared;
   try {
     let siteDir = await session.workFolder('site');
@@ -164,11 +167,25 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
       (ledger) => ({ ledger }),
       (error: unknown) => ({ error }),
     );
+    // Files of unchanged bulletins are linked from the release on line into a folder of their
+    // own (and checked against its manifest) while the pages render, then moved in.
+    const reusing =
+      plan.kind === 'some' && published !== null && publishedManifest !== null && keys !== null
+        ? { render: plan.render, reuse: plan.reuse, published, files: publishedManifest.files, current: keys.current, stageDir: await session.workFolder('reused') }
+        : null;
+    const staging = reusing
+      ? stageReused(reusing.published, reusing.files, reusing.stageDir, new Set(reusing.reuse), reusing.current)
+      : Promise.resolve({ staged: [] as FileHash[], altered: [] as FileHash[] });
+    staging.catch(() => {});
     let rendered = await steps.render({ modelDir, outDir: siteDir, onPage: (done) => progress.update(done), ...(only === undefined ? {} : { only }) });
+    const { staged, altered } = await staging;
+    if (altered.length > 0) {
+      throw new PublishError(`page reuse: ${altered.length} file(s) of the published release differ from its manifest (first: ${altered[0]?.file}); run again with --render-all`);
+    }
     let brought: FileHash[] = [];
-    if (plan.kind === 'some' && published !== null && publishedManifest !== null && keys !== null) {
-      brought = await bringOver(published, publishedManifest.files, siteDir, new Set(plan.reuse), keys.current);
-      const missing = missingAfterReuse(publishedManifest.files, new Set(await listFiles(siteDir)), new Set(plan.render), keys.current);
+    if (reusing) {
+      brought = placeStaged(reusing.stageDir, siteDir, staged);
+      const missing = missingAfterReuse(reusing.files, new Set(await listFiles(siteDir)), new Set(reusing.render), reusing.current);
       if (missing.length > 0) {
         // A page of the release on line that neither the render nor the reuse produced: some
         // route is not known here. Render everything rather than guess.
@@ -183,17 +200,18 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     if (options.afterRender) await options.afterRender(siteDir);
 
     // The search index is built by its own process while this one hashes and checks the pages.
+    // Files taken over were hashed (and found unchanged) as they were staged.
     const pageFiles = await listFiles(siteDir);
+    const broughtHashes = new Map(brought.map((entry) => [entry.file, entry]));
     const glob = await searchGlob(siteDir, pageFiles);
     progress.start('checks', undefined, 'files');
     if (glob !== null) progress.note('  checks: the search index is built meanwhile');
     const indexed = glob === null ? Promise.resolve() : steps.index(siteDir, glob);
     indexed.catch(() => {});
-    const pagesHashed = await hashFilesIn(siteDir, pageFiles);
+    const pagesHashed = [...(await hashFilesIn(siteDir, pageFiles.filter((file) => !broughtHashes.has(file)))), ...brought].sort((a, b) =>
+      compareCodeUnits(a.file, b.file),
+    );
     progress.update(pagesHashed.length);
-    // Files taken over must still be what the release on line recorded.
-    const hashes = new Map(pagesHashed.map((entry) => [entry.file, entry.sha256]));
-    const altered = brought.filter((entry) => hashes.get(entry.file) !== entry.sha256);
     // A page byte-identical to one in the release on line passed this same check when that
     // release was published: only new or changed pages are parsed again.
     const sameRules = publishedManifest?.['safetyRules'] === safetyRulesVersion;
@@ -207,9 +225,6 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     const hashed = [...pagesHashed, ...(await hashFilesIn(siteDir, added))].sort((a, b) => compareCodeUnits(a.file, b.file));
     problems.push(...(await siteProblems(siteDir, added)));
     progress.update(hashed.length);
-    if (altered.length > 0) {
-      throw new PublishError(`page reuse: ${altered.length} file(s) of the published release differ from its manifest (first: ${altered[0]?.file}); run again with --render-all`);
-    }
     if (problems.length > 0) {
       const shown = problems.slice(0, 12).map((problem) => `  - ${problem.page}: ${problem.problem}`);
       throw new PublishError(

@@ -26,8 +26,8 @@
  * renders everything once (new fingerprint); later rebuilds rely on the key alone.
  */
 import { createHash } from 'node:crypto';
-import { copyFileSync, linkSync, readFileSync } from 'node:fs';
-import { mkdir, readFile, readdir, writeFile } from 'node:fs/promises';
+import { copyFileSync, existsSync, linkSync, mkdirSync, readFileSync, renameSync } from 'node:fs';
+import { readFile, readdir, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { compareCodeUnits } from './tree-hash.ts';
 import type { FileHash } from './tree-hash.ts';
@@ -236,40 +236,69 @@ export function ownerOf(file: string, current: string): string | null {
 
 /**
  * Links (or, across file systems, copies) the files of `reuse` bulletins listed in the
- * published release's manifest into `siteDir`, except files the render wrote itself. Returns the
- * listing of what was brought over.
+ * published release's manifest into `stageDir`, a folder of their own, and checks each one's
+ * SHA-256 against the manifest as it goes. Runs while Astro renders (it never writes where
+ * Astro writes); placeStaged then moves the files in. Returns the files staged and those whose
+ * content no longer matches the manifest (the release on line was changed by hand).
  */
-export async function bringOver(
+export async function stageReused(
   published: string,
   listing: readonly FileHash[],
-  siteDir: string,
+  stageDir: string,
   reuse: ReadonlySet<string>,
   current: string,
-): Promise<FileHash[]> {
-  const brought: FileHash[] = [];
+): Promise<{ staged: FileHash[]; altered: FileHash[] }> {
+  const staged: FileHash[] = [];
+  const altered: FileHash[] = [];
   const made = new Set<string>();
-  for (const entry of listing) {
+  for (const [i, entry] of listing.entries()) {
     const owner = ownerOf(entry.file, current);
     if (owner === null || !reuse.has(owner)) continue;
+    // Let the rendering process's output flow now and then.
+    if (i % 64 === 63) await new Promise((resolve) => setImmediate(resolve));
     const from = path.join(published, entry.file);
-    const to = path.join(siteDir, entry.file);
+    const to = path.join(stageDir, entry.file);
     const dir = path.dirname(to);
     if (!made.has(dir)) {
-      await mkdir(dir, { recursive: true });
+      mkdirSync(dir, { recursive: true });
       made.add(dir);
     }
     try {
       linkSync(from, to);
     } catch (error) {
       const code = (error as { code?: string }).code;
-      // rendered afresh by a route that does not follow the list: the fresh file is right
-      if (code === 'EEXIST') continue;
       if (code !== 'EXDEV' && code !== 'EPERM' && code !== 'ENOTSUP') throw error;
       copyFileSync(from, to);
     }
-    brought.push(entry);
+    const content = readFileSync(to);
+    const sha256 = createHash('sha256').update(content).digest('hex');
+    if (sha256 !== entry.sha256 || content.length !== entry.bytes) altered.push(entry);
+    staged.push(entry);
   }
-  return brought;
+  return { staged, altered };
+}
+
+/**
+ * Moves staged files into `siteDir`, except where the render wrote the same file itself (a route
+ * that does not follow the list: the fresh file is right). Renaming never changes a file's
+ * content, so the release on line (linked, not copied) is never written to. Returns the listing
+ * of what was placed.
+ */
+export function placeStaged(stageDir: string, siteDir: string, staged: readonly FileHash[]): FileHash[] {
+  const placed: FileHash[] = [];
+  const made = new Set<string>();
+  for (const entry of staged) {
+    const to = path.join(siteDir, entry.file);
+    if (existsSync(to)) continue;
+    const dir = path.dirname(to);
+    if (!made.has(dir)) {
+      mkdirSync(dir, { recursive: true });
+      made.add(dir);
+    }
+    renameSync(path.join(stageDir, entry.file), to);
+    placed.push(entry);
+  }
+  return placed;
 }
 
 /** Files every build writes after rendering (never taken over, never expected from Astro). */

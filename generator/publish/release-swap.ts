@@ -9,6 +9,7 @@
  *   dist.wrackline/state.json {"current": …, "previous": …}
  *   dist.wrackline/releases/  published trees, named by the digest of their manifest
  *   dist.wrackline/work-<pid>-<label>/  temporary folders of a running build
+ *   dist.wrackline/retired-<release>/   releases no longer kept, deleted by the next build
  *
  * A build writes only into its work folders. Publishing renames the finished tree into
  * `releases/`, creates a new link beside the old one and renames it over `dist`. rename(2) of a
@@ -17,7 +18,8 @@
  * or killed build never touches `dist` or any release folder, so the published site stays
  * byte-identical. The next run takes over the lock of a dead process and deletes its work
  * folders. The current and the previous release are kept (the previous one for a manual roll
- * back); older ones are removed after a successful swap.
+ * back); older ones leave `releases/` after a successful swap (one rename) and are deleted by
+ * the next build while it works.
  *
  * Why not rename the folders themselves: swapping two directories by name needs two renames
  * (old away, new in) with a gap between them, since Node has no access to an atomic exchange
@@ -191,12 +193,19 @@ export async function openPublishSession(out: string, log: (line: string) => voi
   }
 
   // Clean-up: work folders and temporary links of runs that no longer hold the lock.
+  const retired: string[] = [];
   for (const entry of await readdir(place.state)) {
     if (entry.startsWith('work-') || entry.startsWith('link-') || entry.startsWith('state.json.')) {
       log(`removing ${entry} left by a stopped build`);
       await rm(path.join(place.state, entry), { recursive: true, force: true, maxRetries: 3 });
     }
+    if (entry.startsWith('retired-')) retired.push(entry);
   }
+  // Releases retired by the last build are deleted while this one works (awaited in close()).
+  const deletingRetired = Promise.all(retired.map((entry) => rm(path.join(place.state, entry), { recursive: true, force: true, maxRetries: 3 }))).then(
+    () => undefined,
+    () => undefined,
+  );
 
   const mine: string[] = [];
   let counter = 0;
@@ -248,15 +257,20 @@ export async function openPublishSession(out: string, log: (line: string) => voi
       }
       await writeState(place, { current: releaseId, previous });
       await swapLink(place, releaseId);
-      // Keep the current and the previous release; remove older ones.
+      // Keep the current and the previous release. Older ones leave releases/ at once (one
+      // rename each) and are deleted by the next build while it works: deleting thousands of
+      // files here would only make this build later.
       for (const entry of await readdir(place.releases)) {
         if (entry !== releaseId && entry !== previous) {
-          await rm(path.join(place.releases, entry), { recursive: true, force: true, maxRetries: 3 });
+          const target = path.join(place.state, `retired-${entry}`);
+          await rm(target, { recursive: true, force: true, maxRetries: 3 });
+          await rename(path.join(place.releases, entry), target);
         }
       }
       return { release, unchanged: false };
     },
     async close() {
+      await deletingRetired;
       for (const folder of mine) await rm(folder, { recursive: true, force: true, maxRetries: 3 });
       await rm(lockFile, { force: true });
     },

@@ -91,7 +91,7 @@ describe('atomic publishing', () => {
     expect(await snapshot(out)).toEqual(before);
   });
 
-  test('a changed build swaps in at once; the previous release is kept, older ones removed', async () => {
+  test('a changed build swaps in at once; the previous release is kept, older ones retired and deleted by the next build', async () => {
     expect((await build()).code).toBe(0);
     const first = await readlink(out);
     expect((await build({ values: { '2026-autumn/north-bay': 2 } })).code).toBe(0);
@@ -101,6 +101,11 @@ describe('atomic publishing', () => {
     expect((await build({ values: { '2026-autumn/north-bay': 3 } })).code).toBe(0);
     const releases = await readdir(placeFor(out).releases);
     expect(releases.sort()).toEqual([path.basename(second), path.basename(await readlink(out))].sort());
+    // The oldest left releases/ at once and waits beside it; the next build deletes it.
+    const retiredFirst = `retired-${path.basename(first)}`;
+    expect((await readdir(placeFor(out).state)).filter((entry) => entry.startsWith('retired-'))).toEqual([retiredFirst]);
+    expect((await build({ values: { '2026-autumn/north-bay': 4 } })).code).toBe(0);
+    expect((await readdir(placeFor(out).state)).filter((entry) => entry.startsWith('retired-'))).toEqual([`retired-${path.basename(second)}`]);
   });
 
   test('the same content again is recognised and the release is left as it is', async () => {
