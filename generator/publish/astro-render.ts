@@ -180,6 +180,22 @@ async function runAstro(run: AstroRun, scratch: string): Promise<number> {
   return pages;
 }
 
+/** Removes scratch folders (`.astro/render-<pid>-…`) left by builds that were killed. */
+async function removeStaleScratch(siteRoot: string): Promise<void> {
+  const folder = path.join(siteRoot, '.astro');
+  for (const entry of await readdir(folder).catch(() => [] as string[])) {
+    const pid = Number(/^render-(\d+)-/.exec(entry)?.[1]);
+    if (!Number.isInteger(pid) || pid === process.pid) continue;
+    let alive = true;
+    try {
+      process.kill(pid, 0);
+    } catch (error) {
+      alive = (error as { code?: string }).code === 'EPERM';
+    }
+    if (!alive) await rm(path.join(folder, entry), { recursive: true, force: true, maxRetries: 3 });
+  }
+}
+
 /**
  * Renders the model with Astro. With many bulletins, two Astro processes run side by side,
  * each rendering the pages of half the bulletins (pages listing every bulletin are rendered by
@@ -197,6 +213,7 @@ export async function renderWithAstro(options: RenderOptions): Promise<{ pages: 
     pages += 1;
     options.onPage?.(pages);
   };
+  await removeStaleScratch(siteRoot);
   const scratchOf = (i: number): string => path.join(siteRoot, '.astro', `render-${process.pid}-${Date.now().toString(36)}-${i}`);
   if (processes <= 1) {
     await runAstro({ siteRoot, modelDir: options.modelDir, outDir: options.outDir, only: options.only, onPage: count }, scratchOf(0));
