@@ -31,8 +31,9 @@ records a correction.
 Options:
   --scenario DIR   scenario folder holding datapackage.json (default: .)
   --out DIR        output folder for the site (default: dist)
-  --cache DIR      where reusable per-series results are kept
-                   (default: <out>.wrackline/cache; safe to delete)
+  --cache DIR      where results reusable by the next build are kept: trend
+                   results per series, drift figures (default:
+                   <out>.wrackline/cache; safe to delete)
   --no-cache       compute everything afresh
   --site DIR       Astro project that renders the model (default: the built-in site)
   --render-all     render every page, even those whose inputs did not change
