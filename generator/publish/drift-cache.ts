@@ -1,8 +1,8 @@
 /**
  * A file store for the drift memo (generator/read/drift-memo.ts): the drift figures of the last
  * build, kept in the cache folder as `drift-figures.json` with the key they belong to and a
- * fingerprint of the reading code (the package version and the text of generator/drift/ and
- * generator/read/). Only the latest reading is kept. A missing, damaged or outdated file is
+ * fingerprint of the reading code (the package version and the text of generator/drift/,
+ * generator/read/ and what they import). Only the latest reading is kept. A missing, damaged or outdated file is
  * ignored and rewritten; deleting it is always safe.
  */
 import { createHash } from 'node:crypto';
@@ -13,14 +13,19 @@ import { compareCodeUnits } from './tree-hash.ts';
 
 export const driftCacheFile = 'drift-figures.json';
 
-/** Changes whenever the reading code or the package version changes. */
+/**
+ * Changes whenever the reading code or the package version changes: the drift and read folders
+ * and what they import from elsewhere in the project (the messages of errors.ts, the settings
+ * and scenario types, the indicator registry).
+ */
 export async function readingFingerprint(packageRoot: string, version: string): Promise<string> {
   const hash = createHash('sha256').update(`wrackline ${version}\n`);
-  for (const folder of ['generator/drift', 'generator/read']) {
-    const full = path.join(packageRoot, folder);
-    for (const name of (await readdir(full)).filter((item) => item.endsWith('.ts')).sort(compareCodeUnits)) {
-      hash.update(`${folder}/${name}\0`).update(await readFile(path.join(full, name)));
-    }
+  for (const item of ['generator/drift', 'generator/read', 'generator/scenario', 'generator/indicators', 'generator/errors.ts']) {
+    const full = path.join(packageRoot, item);
+    const files = item.endsWith('.ts')
+      ? [item]
+      : (await readdir(full)).filter((name) => name.endsWith('.ts')).sort(compareCodeUnits).map((name) => `${item}/${name}`);
+    for (const file of files) hash.update(`${file}\0`).update(await readFile(path.join(packageRoot, file)));
   }
   return hash.digest('hex');
 }
