@@ -8,6 +8,7 @@
 import { mkdirSync, renameSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import type { BulletinModelSet } from './assemble-model.ts';
+import { giveTurn } from '../event-loop.ts';
 
 /** JSON with object keys sorted at every depth (arrays keep their order). */
 export function stableJson(value: unknown): string {
@@ -49,7 +50,6 @@ function writeJson(path: string, value: unknown): void {
   renameSync(temporary, path);
 }
 
-const turn = (): Promise<void> => new Promise((resolve) => setImmediate(resolve));
 
 export async function writeModel(dir: string, set: BulletinModelSet): Promise<void> {
   madeDirs.clear();
@@ -59,7 +59,7 @@ export async function writeModel(dir: string, set: BulletinModelSet): Promise<vo
     writeJson(join(dir, 'regions', `${checkedName('season', region.season.id)}.json`), region);
   }
   for (const [i, bulletin] of set.bulletins.entries()) {
-    if (i % 32 === 31) await turn();
+    if (i % 32 === 31) await giveTurn();
     writeJson(
       join(dir, 'bulletins', checkedName('season', bulletin.season.id), `${checkedName('segment', bulletin.segment.id)}.json`),
       bulletin,

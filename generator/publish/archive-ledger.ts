@@ -19,6 +19,7 @@ import type { Bulletin, RegionSummary, SiteModel } from '../model/types.ts';
 import { PublishError } from './publish-error.ts';
 import { assertSlug, resolveInside } from './safe-path.ts';
 import { compareCodeUnits } from './tree-hash.ts';
+import { giveTurn } from '../event-loop.ts';
 
 export const ledgerFileName = 'archive-ledger.json';
 
@@ -151,7 +152,7 @@ export async function ledgerFromModel(modelDir: string): Promise<ArchiveLedger> 
     const files = (await readdir(folder).catch(() => [] as string[])).filter((name) => name.endsWith('.json')).sort(compareCodeUnits);
     for (const [i, name] of files.entries()) {
       // Let other work (a child process's output) through now and then.
-      if (i % 16 === 15) await new Promise((resolve) => setImmediate(resolve));
+      if (i % 16 === 15) await giveTurn();
       const bulletin = await readJson<Bulletin>(path.join(folder, name));
       assertSlug(bulletin.segment.id, `segment id in ${path.join('bulletins', season.id, name)}`);
       const page = bulletin.permalink.replace(/^\/+/, '');

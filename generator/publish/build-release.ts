@@ -32,6 +32,7 @@ import type { Progress } from '../progress/progress.ts';
 import { computeRenderKeys, missingAfterReuse, placeStaged, planRender, readRenderKeys, stageReused, writeRenderKeys } from './page-reuse.ts';
 import type { RenderKeys, RenderPlan } from './page-reuse.ts';
 import type { ValidationReport } from '../model/types.ts';
+import { giveTurn } from '../event-loop.ts';
 
 export interface BuildReleaseOptions {
   scenario: string;
@@ -71,7 +72,7 @@ export async function searchGlob(siteDir: string, files: readonly string[]): Pro
   const single: string[] = [];
   for (const [i, file] of files.entries()) {
     if (!file.endsWith('.html')) continue;
-    if (i % 64 === 63) await new Promise((resolve) => setImmediate(resolve));
+    if (i % 64 === 63) await giveTurn();
     if (!readFileSync(path.join(siteDir, file)).includes('data-pagefind-body')) continue;
     const slash = file.indexOf('/');
     if (slash === -1) single.push(file);

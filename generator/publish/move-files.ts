@@ -1,5 +1,5 @@
-/** Moving the files of one folder tree into another (same file system: one rename each). */
-import { mkdirSync, renameSync } from 'node:fs';
+/** Moving files of one folder tree into another (one rename each), and linking a file under a second name. */
+import { copyFileSync, linkSync, mkdirSync, renameSync } from 'node:fs';
 import path from 'node:path';
 import { listFiles } from './tree-hash.ts';
 
@@ -19,4 +19,15 @@ export async function moveFiles(from: string, to: string, keep: (file: string) =
     moved += 1;
   }
   return moved;
+}
+
+/** A second name for the same file; a copy where links cannot be made (another file system). */
+export function linkOrCopy(from: string, to: string): void {
+  try {
+    linkSync(from, to);
+  } catch (error) {
+    const code = (error as { code?: string }).code;
+    if (code !== 'EXDEV' && code !== 'EPERM' && code !== 'ENOTSUP') throw error;
+    copyFileSync(from, to);
+  }
 }

@@ -26,11 +26,13 @@
  * renders everything once (new fingerprint); later rebuilds rely on the key alone.
  */
 import { createHash } from 'node:crypto';
-import { copyFileSync, existsSync, linkSync, mkdirSync, readFileSync, renameSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, renameSync } from 'node:fs';
 import { readFile, readdir, writeFile } from 'node:fs/promises';
 import path from 'node:path';
+import { linkOrCopy } from './move-files.ts';
 import { compareCodeUnits } from './tree-hash.ts';
 import type { FileHash } from './tree-hash.ts';
+import { giveTurn } from '../event-loop.ts';
 
 export const renderKeysFileName = 'render-keys.json';
 /** Changes whenever the way keys are computed changes (old keys then never match). */
@@ -176,7 +178,7 @@ export async function computeRenderKeys(modelDir: string, fingerprint: string): 
   }
   const bulletins: { [id: string]: string } = {};
   for (const [i, entry] of files.entries()) {
-    if (i % 64 === 63) await new Promise((resolve) => setImmediate(resolve));
+    if (i % 64 === 63) await giveTurn();
     bulletins[entry.id] = sha256(shared, regionKeys.get(entry.season) ?? '', readFileSync(entry.file));
   }
   return { scheme: keyScheme, shared, current, bulletins };
@@ -255,7 +257,7 @@ export async function stageReused(
     const owner = ownerOf(entry.file, current);
     if (owner === null || !reuse.has(owner)) continue;
     // Let the rendering process's output flow now and then.
-    if (i % 64 === 63) await new Promise((resolve) => setImmediate(resolve));
+    if (i % 64 === 63) await giveTurn();
     const from = path.join(published, entry.file);
     const to = path.join(stageDir, entry.file);
     const dir = path.dirname(to);
@@ -263,13 +265,7 @@ export async function stageReused(
       mkdirSync(dir, { recursive: true });
       made.add(dir);
     }
-    try {
-      linkSync(from, to);
-    } catch (error) {
-      const code = (error as { code?: string }).code;
-      if (code !== 'EXDEV' && code !== 'EPERM' && code !== 'ENOTSUP') throw error;
-      copyFileSync(from, to);
-    }
+    linkOrCopy(from, to);
     const content = readFileSync(to);
     const sha256 = createHash('sha256').update(content).digest('hex');
     if (sha256 !== entry.sha256 || content.length !== entry.bytes) altered.push(entry);

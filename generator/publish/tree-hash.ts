@@ -8,6 +8,7 @@ import { createHash } from 'node:crypto';
 import { createReadStream, readFileSync, readdirSync } from 'node:fs';
 import { readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
+import { giveTurn } from '../event-loop.ts';
 
 export interface FileHash {
   file: string;
@@ -61,7 +62,7 @@ export async function hashTree(root: string, skip: ReadonlySet<string> = new Set
 export async function hashFilesIn(root: string, files: readonly string[]): Promise<FileHash[]> {
   const result: FileHash[] = [];
   for (const [i, file] of files.entries()) {
-    if (i % 64 === 63) await new Promise((resolve) => setImmediate(resolve));
+    if (i % 64 === 63) await giveTurn();
     const content = readFileSync(path.join(root, file));
     result.push({ file, sha256: createHash('sha256').update(content).digest('hex'), bytes: content.length });
   }

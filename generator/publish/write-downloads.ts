@@ -6,31 +6,22 @@
  *   seasons/<season>/<segment>/observations.csv  every observation behind it
  *   seasons/<season>/<segment>/results.csv       the trend results per indicator
  */
-import { copyFileSync, linkSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { observationsCsv, resultsCsv } from '../model/download-tables.ts';
 import type { Bulletin } from '../model/types.ts';
+import { linkOrCopy } from './move-files.ts';
 import { assertSlug } from './safe-path.ts';
+import { giveTurn } from '../event-loop.ts';
 
 export const downloadFiles = ['bulletin.json', 'observations.csv', 'results.csv'] as const;
-
-/** A second name for the same file; a copy where links cannot be made (another file system). */
-function linkOrCopy(from: string, to: string): void {
-  try {
-    linkSync(from, to);
-  } catch (error) {
-    const code = (error as { code?: string }).code;
-    if (code !== 'EXDEV' && code !== 'EPERM' && code !== 'ENOTSUP') throw error;
-    copyFileSync(from, to);
-  }
-}
 
 /** Writes the downloads of the "season/segment" bulletins `ids` under `siteDir`; returns the number of files. */
 export async function writeDownloads(modelDir: string, siteDir: string, ids: readonly string[]): Promise<number> {
   let files = 0;
   for (const [i, id] of ids.entries()) {
     // Synchronous file calls (far quicker for many small files); other work gets a turn now and then.
-    if (i % 16 === 15) await new Promise((resolve) => setImmediate(resolve));
+    if (i % 16 === 15) await giveTurn();
     const [season = '', segment = ''] = id.split('/');
     assertSlug(season, 'season id');
     assertSlug(segment, 'segment id');
