@@ -1,6 +1,7 @@
 // Optional search box for /search/: loads the static index that pagefind writes after the
-// build. Without JavaScript, or without the index, the plain list on the page stays the way in.
-// Results are written with textContent only (never as HTML).
+// build, in parts (search-index/parts.json lists them): the first part's search engine loads,
+// and the other parts are merged into it. Without JavaScript, or without the index, the plain
+// list on the page stays the way in. Results are written with textContent only (never as HTML).
 const box = document.getElementById('search-box');
 const input = document.getElementById('search-input');
 const status = document.getElementById('search-status');
@@ -10,10 +11,15 @@ async function start() {
   if (!box || !input || !status || !results) return;
   let engine;
   try {
-    const probe = await fetch('/pagefind/pagefind-entry.json', { method: 'GET' });
-    if (!probe.ok) return;
-    engine = await import('/pagefind/pagefind.js');
+    const listing = await fetch('/search-index/parts.json', { method: 'GET' });
+    if (!listing.ok) return;
+    const { parts } = await listing.json();
+    // Only paths on this site, as the build writes them.
+    const paths = (Array.isArray(parts) ? parts : []).map((part) => part && part.path).filter((p) => typeof p === 'string' && /^\/search-index\/part-\d+\/$/.test(p));
+    if (paths.length === 0) return;
+    engine = await import(`${paths[0]}pagefind.js`);
     await engine.init();
+    for (const more of paths.slice(1)) await engine.mergeIndex(more);
   } catch {
     return;
   }

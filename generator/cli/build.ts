@@ -11,10 +11,12 @@ import { commandWriters, parseCommandOptions, usageError } from './command-io.ts
 import type { ValidationReport } from '../model/types.ts';
 import { createProgress, formatCount, formatDuration } from '../progress/progress.ts';
 import type { Progress } from '../progress/progress.ts';
-import { indexWithPagefind, packageRoot } from '../publish/astro-render.ts';
+import { packageRoot } from '../publish/astro-render.ts';
+import { indexSearchParts } from '../publish/search-index.ts';
 import { renderSite } from '../publish/render-site.ts';
 import { openTrendCache, statisticsFingerprint } from '../publish/trend-cache.ts';
 import { openDriftCache, readingFingerprint } from '../publish/drift-cache.ts';
+import { modelFingerprint, openModelMemo } from '../publish/model-memo.ts';
 import { buildRelease } from '../publish/build-release.ts';
 import type { BuildSteps } from '../publish/build-steps.ts';
 import { PublishError } from '../publish/publish-error.ts';
@@ -32,7 +34,7 @@ Options:
   --scenario DIR   scenario folder holding datapackage.json (default: .)
   --out DIR        output folder for the site (default: dist)
   --cache DIR      where results reusable by the next build are kept: trend
-                   results per series, drift figures (default:
+                   results per series, drift figures, bulletin models (default:
                    <out>.wrackline/cache; safe to delete)
   --no-cache       compute everything afresh
   --site DIR       Astro project that renders the model (default: the built-in site)
@@ -68,7 +70,7 @@ export function formatReport(report: ValidationReport, limit = 20): string {
 export async function realSteps(siteRoot: string | undefined): Promise<BuildSteps> {
   const { loadScenario } = await import('../read/load-scenario.ts');
   const { buildModel, generatorVersion } = await import('../model/build-model.ts');
-  const { assembleModel } = await import('../model/assemble-model.ts');
+  const { assembleModelWithMemo } = await import('../model/assemble-with-memo.ts');
   const { statsTrendEngine } = await import('../model/trend-engine.ts');
   const { writeModel } = await import('../model/write-model.ts');
   return {
@@ -85,16 +87,21 @@ export async function realSteps(siteRoot: string | undefined): Promise<BuildStep
       if (options.cacheDir === null) return buildModel(scenario, { onProgress });
       const fingerprint = await statisticsFingerprint(packageRoot, generatorVersion);
       const cache = await openTrendCache(options.cacheDir, fingerprint, statsTrendEngine);
-      const set = assembleModel(scenario, cache.engine, { onProgress });
-      await cache.save();
+      const memo = await openModelMemo(options.cacheDir, await modelFingerprint(packageRoot, generatorVersion));
+      const made = assembleModelWithMemo(scenario, cache.engine, memo.memo, { onProgress });
+      await Promise.all([cache.save(), memo.save()]);
       const { hits, misses } = cache.stats();
-      options.log(`trend cache: ${formatCount(hits)} series reused, ${formatCount(misses)} computed`);
-      return set;
+      const { seriesReused, seriesEvaluated, bulletinsReused, bulletinsComposed } = made.counts;
+      options.log(
+        `reused from earlier builds: ${formatCount(bulletinsReused)} of ${formatCount(bulletinsReused + bulletinsComposed)} bulletins, ` +
+          `${formatCount(seriesReused)} of ${formatCount(seriesReused + seriesEvaluated)} series; trend cache: ${formatCount(hits)} series reused, ${formatCount(misses)} computed`,
+      );
+      return { site: made.site, regions: made.regions, bulletins: [], written: made.bulletins };
     },
     write: (dir, set) => writeModel(dir, set),
     render: ({ modelDir, outDir, onPage, only }) =>
       renderSite({ modelDir, outDir, onPage, ...(siteRoot === undefined ? {} : { siteRoot }), ...(only === undefined ? {} : { only }) }),
-    index: (siteDir, glob) => indexWithPagefind(siteDir, glob),
+    index: (siteDir, parts, scratchDir) => indexSearchParts(siteDir, parts, scratchDir),
     // Only the built-in site is known to honour the list of bulletins to render.
     ...(siteRoot === undefined ? { siteFingerprint: () => siteFingerprint(packageRoot, generatorVersion) } : {}),
   };

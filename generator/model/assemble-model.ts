@@ -8,6 +8,7 @@
  */
 import packageJson from '../../package.json' with { type: 'json' };
 import { defaultRiskRules } from '../risk/default-rules.ts';
+import type { RiskRule, ScenarioSettings } from '../scenario/settings.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
 import { composeBulletin } from './compose-bulletin.ts';
 import { composeRegion } from './compose-region.ts';
@@ -61,6 +62,12 @@ export function assembleModel(scenario: LoadedScenario, engine: TrendEngine, opt
     for (const segment of segments) bulletins.push(composeBulletin(scenario, segment, now, before, publication.date, { rules, publishedSeasons }));
   }
 
+  return { site: siteModel(scenario, rules, publications), regions, bulletins };
+}
+
+/** site.json: the region, the published seasons (the last one current), the inputs and the validation report. */
+export function siteModel(scenario: LoadedScenario, rules: readonly RiskRule[], publications: readonly ScenarioSettings['publications'][number][]): SiteModel {
+  const settings = scenario.settings;
   const last = publications[publications.length - 1];
   const site: SiteModel = {
     schemaVersion: 1,
@@ -79,5 +86,5 @@ export function assembleModel(scenario: LoadedScenario, engine: TrendEngine, opt
       falseDiscoveryRate: settings.trend.falseDiscoveryRate,
     },
   };
-  return { site, regions, bulletins };
+  return site;
 }

@@ -33,12 +33,26 @@ export function trendSlope(trend: TrendResult | null): number | null {
   return trend.sen?.slope ?? null;
 }
 
-export function decideDirection(trend: TrendResult | null, qValue: number | null, falseDiscoveryRate: number): Direction {
+/**
+ * The direction a series may claim if its q-value passes: depends on the trend alone, so it can
+ * be worked out once per series and kept (decideDirection = this, then the q-value check).
+ */
+export function directionIfClear(trend: TrendResult | null): Direction {
   if (!trend || trend.n === 0 || trend.insufficient) return 'too-little-data';
-  if (qValue === null || !(qValue < falseDiscoveryRate)) return 'no-clear-direction';
   const score = trendScore(trend);
   if (score === null || score === 0) return 'no-clear-direction';
   const slope = trendSlope(trend);
   if (slope !== null && (slope === 0 || Math.sign(slope) !== Math.sign(score))) return 'no-clear-direction';
   return score > 0 ? 'rising' : 'falling';
+}
+
+/** The claimed direction from `directionIfClear` and the series' q-value. */
+export function directionWithQ(ifClear: Direction, qValue: number | null, falseDiscoveryRate: number): Direction {
+  if (ifClear === 'too-little-data') return ifClear;
+  if (qValue === null || !(qValue < falseDiscoveryRate)) return 'no-clear-direction';
+  return ifClear;
+}
+
+export function decideDirection(trend: TrendResult | null, qValue: number | null, falseDiscoveryRate: number): Direction {
+  return directionWithQ(directionIfClear(trend), qValue, falseDiscoveryRate);
 }

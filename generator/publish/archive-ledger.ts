@@ -137,8 +137,25 @@ async function readRegion(modelDir: string, season: string): Promise<RegionSumma
   return null;
 }
 
+/**
+ * Entries that may be taken over from the ledger of the release on line. An entry depends on the
+ * bytes of the bulletin's model file alone, and that release's `bulletin.json` download is that
+ * file: a model file with the SHA-256 of the download on line has the entry on line.
+ */
+export interface LedgerReuse {
+  previous: ArchiveLedger;
+  /** SHA-256 of each bulletin model file, by "season/segment" */
+  modelHashes: ReadonlyMap<string, string>;
+  /** SHA-256 of each file of the release on line, by site path */
+  publishedHashes: ReadonlyMap<string, string>;
+}
+
 /** Builds the ledger of a model folder (site.json, regions, bulletins/<season>/<segment>.json). */
-export async function ledgerFromModel(modelDir: string): Promise<ArchiveLedger> {
+export async function ledgerFromModel(modelDir: string, reuse?: LedgerReuse): Promise<ArchiveLedger> {
+  const onLine = new Map<string, LedgerEntry>();
+  for (const season of reuse?.previous.seasons ?? []) {
+    for (const entry of season.entries) if (entry.segment !== null) onLine.set(`${season.season}/${entry.segment}`, entry);
+  }
   const site = await readJson<SiteModel>(path.join(modelDir, 'site.json'));
   const seasons: LedgerSeason[] = [];
   for (const season of site.seasons) {
@@ -153,6 +170,14 @@ export async function ledgerFromModel(modelDir: string): Promise<ArchiveLedger> 
     for (const [i, name] of files.entries()) {
       // Let other work (a child process's output) through now and then.
       if (i % 16 === 15) await giveTurn();
+      const segmentId = name.slice(0, -'.json'.length);
+      const known = onLine.get(`${season.id}/${segmentId}`);
+      const own = reuse?.modelHashes.get(`${season.id}/${segmentId}`);
+      if (reuse && known && own !== undefined && own === reuse.publishedHashes.get(`seasons/${season.id}/${segmentId}/bulletin.json`)) {
+        assertSlug(segmentId, `segment id in ${path.join('bulletins', season.id, name)}`);
+        entries.push(known);
+        continue;
+      }
       const bulletin = await readJson<Bulletin>(path.join(folder, name));
       assertSlug(bulletin.segment.id, `segment id in ${path.join('bulletins', season.id, name)}`);
       const page = bulletin.permalink.replace(/^\/+/, '');

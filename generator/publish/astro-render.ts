@@ -255,12 +255,3 @@ export async function renderWithAstro(options: RenderOptions): Promise<{ pages: 
     await rm(shardRoot, { recursive: true, force: true, maxRetries: 3 });
   }
 }
-
-/** Builds a pagefind search index of the pages `glob` matches into `<siteDir>/pagefind/`. */
-export async function indexWithPagefind(siteDir: string, glob = '**/*.{html}'): Promise<void> {
-  const pagefind = resolvePackageBin('pagefind', 'pagefind');
-  const result = await runNodeScript(pagefind, ['--site', path.resolve(siteDir), '--glob', glob], { cwd: packageRoot, env: { ...process.env } });
-  if (result.code !== 0) {
-    throw new Error(`pagefind exited with code ${result.code}. Its last output:\n${result.tail.map((line) => `  | ${line}`).join('\n')}`);
-  }
-}

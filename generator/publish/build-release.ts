@@ -12,7 +12,6 @@
  * - pages without the security policy or with inline script: refused (html-safety.ts);
  * - output paths: every model path and page path is a slug or checked to stay inside its root.
  */
-import { readFileSync } from 'node:fs';
 import { writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import type { BuildSteps, ModelSet } from './build-steps.ts';
@@ -29,10 +28,10 @@ import { assertSlug } from './safe-path.ts';
 import { compareCodeUnits, hashFile, hashFilesIn, listFiles, readManifest, treeDigest, writeManifest } from './tree-hash.ts';
 import type { FileHash } from './tree-hash.ts';
 import type { Progress } from '../progress/progress.ts';
-import { computeRenderKeys, missingAfterReuse, placeStaged, planRender, readRenderKeys, stageReused, writeRenderKeys } from './page-reuse.ts';
+import { computeRenderKeys, missingAfterReuse, modelFileHashes, placeStaged, planRender, readRenderKeys, stageReused, writeRenderKeys } from './page-reuse.ts';
 import type { RenderKeys, RenderPlan } from './page-reuse.ts';
 import type { ValidationReport } from '../model/types.ts';
-import { giveTurn } from '../event-loop.ts';
+import { linkParts, pagesToIndex, partsToTakeOver, planSearchParts, readSearchParts, searchIndexFolder, writeSearchParts } from './search-index.ts';
 
 export interface BuildReleaseOptions {
   scenario: string;
@@ -61,28 +60,6 @@ export type BuildOutcome =
       report: ValidationReport;
     };
 
-/**
- * The pages that ask to be in the search index (marked with data-pagefind-body), as one glob
- * for pagefind; null when no page asks. Pagefind leaves unmarked pages out whenever any page is
- * marked, so naming only the folders of the marked pages gives the same index without making it
- * read every other page.
- */
-export async function searchGlob(siteDir: string, files: readonly string[]): Promise<string | null> {
-  const folders = new Set<string>();
-  const single: string[] = [];
-  for (const [i, file] of files.entries()) {
-    if (!file.endsWith('.html')) continue;
-    if (i % 64 === 63) await giveTurn();
-    if (!readFileSync(path.join(siteDir, file)).includes('data-pagefind-body')) continue;
-    const slash = file.indexOf('/');
-    if (slash === -1) single.push(file);
-    else folders.add(file.slice(0, slash));
-  }
-  const parts = [...[...folders].sort().map((folder) => `${folder}/**/*.html`), ...single.sort()];
-  if (parts.length === 0) return null;
-  return parts.length === 1 ? (parts[0] as string) : `{${parts.join(',')}}`;
-}
-
 function corrections(scenario: LoadedScenario): Correction[] {
   return scenario.settings.corrections.map((correction) => ({
     season: correction.season,
@@ -97,6 +74,10 @@ function checkIds(set: ModelSet): void {
     assertSlug(bulletin.segment.id, 'segment id');
     assertSlug(bulletin.season.id, 'season id');
   }
+  for (const bulletin of set.written ?? []) {
+    assertSlug(bulletin.segmentId, 'segment id');
+    assertSlug(bulletin.seasonId, 'season id');
+  }
   for (const region of set.regions) assertSlug(region.season.id, 'season id');
 }
 
@@ -105,7 +86,15 @@ async function prepareModel(
   options: BuildReleaseOptions,
 ): Promise<
   | { kind: 'invalid'; report: ValidationReport }
-  | { kind: 'ready'; session: PublishSession; modelDir: string; corrections: Correction[]; report: ValidationReport }
+  | {
+      kind: 'ready';
+      session: PublishSession;
+      modelDir: string;
+      corrections: Correction[];
+      report: ValidationReport;
+      /** SHA-256 of the bulletin model files written from text (model memo), by "season/segment" */
+      knownHashes: Map<string, string>;
+    }
 > {
   const { progress, steps } = options;
   progress.start('reading', undefined, 'records');
@@ -120,7 +109,8 @@ async function prepareModel(
     onProgress: (done, total) => progress.update(done, total),
     log: (line) => progress.note(`  ${line}`),
   });
-  progress.update(set.bulletins.length, set.bulletins.length);
+  const count = set.bulletins.length + (set.written?.length ?? 0);
+  progress.update(count, count);
   progress.end();
   checkIds(set);
 
@@ -128,7 +118,8 @@ async function prepareModel(
   try {
     const modelDir = await session.workFolder('model');
     await steps.write(modelDir, set);
-    return { kind: 'ready', session, modelDir, corrections: corrections(scenario), report: scenario.report };
+    const knownHashes = new Map((set.written ?? []).map((b) => [`${b.seasonId}/${b.segmentId}`, b.sha256]));
+    return { kind: 'ready', session, modelDir, corrections: corrections(scenario), report: scenario.report, knownHashes };
   } catch (error) {
     await session.close();
     throw error;
@@ -147,7 +138,8 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     const published = await session.publishedFolder();
     const publishedManifest = published ? await readManifest(published) : null;
     // Which bulletins' pages to render; the others are taken over from the release on line.
-    const keys: RenderKeys | null = steps.siteFingerprint ? await computeRenderKeys(modelDir, await steps.siteFingerprint()) : null;
+    const modelHashes = await modelFileHashes(modelDir, prepared.knownHashes);
+    const keys: RenderKeys | null = steps.siteFingerprint ? await computeRenderKeys(modelDir, await steps.siteFingerprint(), modelHashes) : null;
     let plan: RenderPlan = { kind: 'all', reason: 'the renderer cannot render part of the site' };
     if (keys !== null) {
       if (options.renderAll) plan = { kind: 'all', reason: 'asked to render every page' };
@@ -164,7 +156,16 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     }
     progress.start('pages', undefined, 'pages');
     // The archive ledger needs only the model: it is worked out while the pages render.
-    const ledgerReady = ledgerFromModel(modelDir).then(
+    // Entries of bulletins whose model file is the download on line are taken over from its
+    // ledger (when that ledger is the one its manifest lists).
+    const previousLedger = published ? await readLedger(published) : null;
+    const ledgerOnLine = published && publishedManifest ? publishedManifest.files.find((entry) => entry.file === ledgerFileName) : undefined;
+    const ledgerAsListed = published !== null && ledgerOnLine !== undefined && (await hashFile(path.join(published, ledgerFileName)).catch(() => null))?.sha256 === ledgerOnLine.sha256;
+    const ledgerReuse =
+      previousLedger && publishedManifest && ledgerAsListed
+        ? { previous: previousLedger, modelHashes, publishedHashes: new Map(publishedManifest.files.map((entry) => [entry.file, entry.sha256])) }
+        : undefined;
+    const ledgerReady = ledgerFromModel(modelDir, ledgerReuse).then(
       (ledger) => ({ ledger }),
       (error: unknown) => ({ error }),
     );
@@ -200,19 +201,40 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     progress.end();
     if (options.afterRender) await options.afterRender(siteDir);
 
-    // The search index is built by its own process while this one hashes and checks the pages.
+    // The search index is built by pagefind processes while this one checks the pages.
     // Files taken over were hashed (and found unchanged) as they were staged.
     const pageFiles = await listFiles(siteDir);
     const broughtHashes = new Map(brought.map((entry) => [entry.file, entry]));
-    const glob = await searchGlob(siteDir, pageFiles);
     progress.start('checks', undefined, 'files');
-    if (glob !== null) progress.note('  checks: the search index is built meanwhile');
-    const indexed = glob === null ? Promise.resolve() : steps.index(siteDir, glob);
-    indexed.catch(() => {});
     const pagesHashed = [...(await hashFilesIn(siteDir, pageFiles.filter((file) => !broughtHashes.has(file)))), ...brought].sort((a, b) =>
       compareCodeUnits(a.file, b.file),
     );
     progress.update(pagesHashed.length);
+    const previousParts = published ? readSearchParts(published) : null;
+    const parts = planSearchParts(await pagesToIndex(siteDir, pageFiles, new Set(broughtHashes.keys()), previousParts));
+    const takenOver =
+      published && publishedManifest
+        ? partsToTakeOver(
+            previousParts,
+            parts,
+            new Map(pagesHashed.map((entry) => [entry.file, entry.sha256])),
+            new Map(publishedManifest.files.map((entry) => [entry.file, entry.sha256])),
+          )
+        : [];
+    const toIndex = parts.filter((part) => !takenOver.includes(part));
+    if (toIndex.length === parts.length && parts.length > 0) progress.note(`  checks: the search index (${parts.length} parts) is built meanwhile`);
+    else if (parts.length > 0) {
+      progress.note(`  checks: the search index is built meanwhile: ${toIndex.length} of ${parts.length} parts (the others taken over from the published release)`);
+    }
+    const indexed =
+      parts.length === 0
+        ? Promise.resolve()
+        : (async () => {
+            if (published && publishedManifest) linkParts(published, publishedManifest.files, siteDir, takenOver);
+            if (toIndex.length > 0) await steps.index(siteDir, toIndex, await session.workFolder('search'));
+            writeSearchParts(siteDir, parts);
+          })();
+    indexed.catch(() => {});
     // A page byte-identical to one in the release on line passed this same check when that
     // release was published: only new or changed pages are parsed again.
     const sameRules = publishedManifest?.['safetyRules'] === safetyRulesVersion;
@@ -223,7 +245,15 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     // What the indexer added (its own folder); pages it might have touched are hashed again.
     const before = new Set(pageFiles);
     const added = (await listFiles(siteDir)).filter((file) => !before.has(file));
-    const hashed = [...pagesHashed, ...(await hashFilesIn(siteDir, added))].sort((a, b) => compareCodeUnits(a.file, b.file));
+    const addedHashes = await hashFilesIn(siteDir, added);
+    const hashed = [...pagesHashed, ...addedHashes].sort((a, b) => compareCodeUnits(a.file, b.file));
+    // Index files taken over must be those of the release on line, like every file taken over.
+    const takenPrefixes = takenOver.map((part) => `${searchIndexFolder}/${part.name}/`);
+    const publishedHashes = new Map((publishedManifest?.files ?? []).map((entry) => [entry.file, entry.sha256]));
+    const alteredIndex = addedHashes.find((entry) => takenPrefixes.some((prefix) => entry.file.startsWith(prefix)) && publishedHashes.get(entry.file) !== entry.sha256);
+    if (alteredIndex) {
+      throw new PublishError(`search index reuse: ${alteredIndex.file} of the published release differs from its manifest; run again with --render-all`);
+    }
     problems.push(...(await siteProblems(siteDir, added)));
     progress.update(hashed.length);
     if (problems.length > 0) {
@@ -239,7 +269,7 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     const ledgerOutcome = await ledgerReady;
     if ('error' in ledgerOutcome) throw ledgerOutcome.error;
     const ledger = ledgerOutcome.ledger;
-    assertArchiveIntact(published ? await readLedger(published) : null, ledger, prepared.corrections);
+    assertArchiveIntact(previousLedger, ledger, prepared.corrections);
     await writeLedgerFile(siteDir, ledger);
     const ledgerHash = await hashFile(path.join(siteDir, ledgerFileName));
     const manifest = await writeManifest(siteDir, [...hashed, { file: ledgerFileName, ...ledgerHash }], { safetyRules: safetyRulesVersion });

@@ -4,11 +4,15 @@
  */
 import type { Bulletin, RegionSummary, SiteModel } from '../model/types.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
+import type { WrittenBulletin } from '../model/assemble-with-memo.ts';
+import type { SearchPart } from './search-index.ts';
 
 export interface ModelSet {
   site: SiteModel;
   regions: RegionSummary[];
   bulletins: Bulletin[];
+  /** Bulletins already written as model files (stable JSON), e.g. taken from the model memo. */
+  written?: WrittenBulletin[];
 }
 
 export interface BuildSteps {
@@ -24,8 +28,8 @@ export interface BuildSteps {
    * about every bulletin are always rendered); absent: render everything.
    */
   render(options: { modelDir: string; outDir: string; onPage: (done: number) => void; only?: string }): Promise<{ pages: number }>;
-  /** Builds the search index of the pages `glob` matches (relative to `siteDir`). */
-  index(siteDir: string, glob: string): Promise<void>;
+  /** Builds the search index of each part into `<siteDir>/search-index/<part>/` (search-index.ts); `scratchDir` is free to use. */
+  index(siteDir: string, parts: readonly SearchPart[], scratchDir: string): Promise<void>;
   /**
    * A hash of everything besides the model that pages depend on. Only a renderer that honours
    * `only` provides it; without it every build renders every page (see page-reuse.ts).

@@ -13,7 +13,7 @@
  * - the parts of its season's region summary a bulletin page reads: each segment's name, kind,
  *   level and geometry (locator map), the accumulation zones, the publisher, the region's name,
  *   and the regional trends' indicator ids and labels (the "not measured here" line);
- * - its own model file, byte for byte.
+ * - its own model file, byte for byte (through its SHA-256).
  * The keys are stored in the release (`render-keys.json`). A rebuild hands Astro only the
  * bulletins whose key changed (pages that list every bulletin — overview, season indexes, feed,
  * methods, search — are always rendered in full) and hard-links the other bulletins' files from
@@ -26,9 +26,10 @@
  * renders everything once (new fingerprint); later rebuilds rely on the key alone.
  */
 import { createHash } from 'node:crypto';
-import { existsSync, mkdirSync, readFileSync, renameSync } from 'node:fs';
+import { existsSync, mkdirSync, readFileSync, readdirSync, renameSync } from 'node:fs';
 import { readFile, readdir, writeFile } from 'node:fs/promises';
 import path from 'node:path';
+import { importedFiles } from './import-graph.ts';
 import { linkOrCopy } from './move-files.ts';
 import { compareCodeUnits } from './tree-hash.ts';
 import type { FileHash } from './tree-hash.ts';
@@ -36,7 +37,7 @@ import { giveTurn } from '../event-loop.ts';
 
 export const renderKeysFileName = 'render-keys.json';
 /** Changes whenever the way keys are computed changes (old keys then never match). */
-const keyScheme = 'wrackline-render-keys-1';
+const keyScheme = 'wrackline-render-keys-2';
 
 export interface RenderKeys {
   scheme: string;
@@ -73,36 +74,13 @@ async function walk(root: string, relative: string, out: string[]): Promise<void
 /** Everything the rendering of a page can depend on besides the model and installed packages. */
 export const siteInputs = ['site', 'public', 'astro.config.mjs', 'package.json', 'package-lock.json', 'tsconfig.json'];
 
-const importPattern = /(?:\bfrom\s*|\bimport\s*\(?\s*)['"](\.{1,2}\/[^'"]+)['"]/g;
-const typeOnly = /\b(?:import|export)\s+type\s[^;'"]*?from\s*['"][^'"]+['"]/g;
-const scanned = /\.(?:ts|mts|js|mjs|astro)$/;
-
 /**
  * Project files outside `siteInputs` that the site imports, directly or through each other
- * (relative import specifiers in .ts, .js, .mjs and .astro files, type-only imports left out;
- * packages are covered by package-lock.json). Relative paths from `root`, sorted.
+ * (see import-graph.ts). Relative paths from `root`, sorted.
  */
 export async function importedProjectFiles(root: string, start: readonly string[]): Promise<string[]> {
-  const seen = new Set<string>(start);
-  const queue = [...start];
-  const outside = new Set<string>();
   const inside = (file: string): boolean => siteInputs.some((item) => file === item || file.startsWith(`${item}/`));
-  while (queue.length > 0) {
-    const file = queue.pop() as string;
-    if (!scanned.test(file)) continue;
-    const text = await readFile(path.join(root, file), 'utf8').catch(() => null);
-    if (text === null) continue;
-    // type-only imports vanish when the code runs
-    const code = text.replace(typeOnly, '');
-    for (const match of code.matchAll(importPattern)) {
-      const target = path.relative(root, path.resolve(root, path.dirname(file), match[1] ?? '')).split(path.sep).join('/');
-      if (target.startsWith('..') || seen.has(target)) continue;
-      seen.add(target);
-      if (!inside(target)) outside.add(target);
-      queue.push(target);
-    }
-  }
-  return [...outside].sort(compareCodeUnits);
+  return (await importedFiles(root, start)).filter((file) => !inside(file));
 }
 
 export async function siteFingerprint(root: string, version: string): Promise<string> {
@@ -155,21 +133,48 @@ export function regionPageInputs(region: RegionJson): string {
   });
 }
 
-/** Render keys of every bulletin in a model folder written by writeModel. */
-export async function computeRenderKeys(modelDir: string, fingerprint: string): Promise<RenderKeys> {
-  const site = JSON.parse(await readFile(path.join(modelDir, 'site.json'), 'utf8')) as {
-    seasons?: { id: string; current?: boolean }[];
-  };
-  const seasons = site.seasons ?? [];
-  const current = seasons.find((s) => s.current)?.id ?? '';
+/** The bulletin model files of a model folder written by writeModel, by "season/segment", sorted. */
+function bulletinFiles(modelDir: string, seasons: readonly string[]): { id: string; season: string; file: string }[] {
   const files: { id: string; season: string; file: string }[] = [];
-  for (const season of seasons.map((s) => s.id).sort(compareCodeUnits)) {
+  for (const season of [...seasons].sort(compareCodeUnits)) {
     const dir = path.join(modelDir, 'bulletins', season);
-    const names = await readdir(dir).catch(() => [] as string[]);
+    const names = existsSync(dir) ? readdirSync(dir) : [];
     for (const name of names.filter((n) => n.endsWith('.json')).sort(compareCodeUnits)) {
       files.push({ id: `${season}/${name.slice(0, -'.json'.length)}`, season, file: path.join(dir, name) });
     }
   }
+  return files;
+}
+
+function modelSeasons(modelDir: string): { id: string; current?: boolean }[] {
+  const site = JSON.parse(readFileSync(path.join(modelDir, 'site.json'), 'utf8')) as { seasons?: { id: string; current?: boolean }[] };
+  return site.seasons ?? [];
+}
+
+/**
+ * SHA-256 of each bulletin model file, by "season/segment". `known` gives hashes already worked
+ * out from the same bytes (the model memo's); the other files are read and hashed.
+ */
+export async function modelFileHashes(modelDir: string, known: ReadonlyMap<string, string> = new Map()): Promise<Map<string, string>> {
+  const hashes = new Map<string, string>();
+  for (const [i, entry] of bulletinFiles(modelDir, modelSeasons(modelDir).map((s) => s.id)).entries()) {
+    const given = known.get(entry.id);
+    if (given !== undefined) {
+      hashes.set(entry.id, given);
+      continue;
+    }
+    if (i % 64 === 63) await giveTurn();
+    hashes.set(entry.id, createHash('sha256').update(readFileSync(entry.file)).digest('hex'));
+  }
+  return hashes;
+}
+
+/** Render keys of every bulletin in a model folder written by writeModel (`hashes`: modelFileHashes). */
+export async function computeRenderKeys(modelDir: string, fingerprint: string, hashes?: ReadonlyMap<string, string>): Promise<RenderKeys> {
+  const seasons = modelSeasons(modelDir);
+  const current = seasons.find((s) => s.current)?.id ?? '';
+  const files = bulletinFiles(modelDir, seasons.map((s) => s.id));
+  const fileHashes = hashes ?? (await modelFileHashes(modelDir));
   const shared = sha256(keyScheme, fingerprint, JSON.stringify(seasons), current, files.map((f) => f.id).join('\n'));
   const regionKeys = new Map<string, string>();
   for (const season of new Set(files.map((f) => f.season))) {
@@ -177,9 +182,10 @@ export async function computeRenderKeys(modelDir: string, fingerprint: string): 
     regionKeys.set(season, sha256(text === null ? 'no region' : regionPageInputs(JSON.parse(text) as RegionJson)));
   }
   const bulletins: { [id: string]: string } = {};
-  for (const [i, entry] of files.entries()) {
-    if (i % 64 === 63) await giveTurn();
-    bulletins[entry.id] = sha256(shared, regionKeys.get(entry.season) ?? '', readFileSync(entry.file));
+  for (const entry of files) {
+    const own = fileHashes.get(entry.id);
+    if (own === undefined) throw new Error(`render keys: no hash of the model file ${entry.file}`);
+    bulletins[entry.id] = sha256(shared, regionKeys.get(entry.season) ?? '', own);
   }
   return { scheme: keyScheme, shared, current, bulletins };
 }
@@ -276,22 +282,42 @@ export async function stageReused(
 
 /**
  * Moves staged files into `siteDir`, except where the render wrote the same file itself (a route
- * that does not follow the list: the fresh file is right). Renaming never changes a file's
- * content, so the release on line (linked, not copied) is never written to. Returns the listing
- * of what was placed.
+ * that does not follow the list: the fresh file is right). A staged folder that `siteDir` lacks
+ * altogether (the render wrote nothing there) moves as a whole, one rename for all its files.
+ * Renaming never changes a file's content, so the release on line (linked, not copied) is never
+ * written to. Returns the listing of what was placed.
  */
 export function placeStaged(stageDir: string, siteDir: string, staged: readonly FileHash[]): FileHash[] {
   const placed: FileHash[] = [];
-  const made = new Set<string>();
-  for (const entry of staged) {
-    const to = path.join(siteDir, entry.file);
-    if (existsSync(to)) continue;
-    const dir = path.dirname(to);
-    if (!made.has(dir)) {
-      mkdirSync(dir, { recursive: true });
-      made.add(dir);
+  const present = new Map<string, boolean>();
+  const moved = new Set<string>();
+  const inSite = (folder: string): boolean => {
+    let known = present.get(folder);
+    if (known === undefined) {
+      known = existsSync(path.join(siteDir, folder));
+      present.set(folder, known);
     }
-    renameSync(path.join(stageDir, entry.file), to);
+    return known;
+  };
+  for (const entry of staged) {
+    const parts = entry.file.split('/');
+    let done = false;
+    // The shallowest folder of this file that the site lacks moves with everything staged in it.
+    for (let depth = 1; depth < parts.length && !done; depth += 1) {
+      const folder = parts.slice(0, depth).join('/');
+      if (moved.has(folder)) done = true;
+      else if (!inSite(folder)) {
+        renameSync(path.join(stageDir, folder), path.join(siteDir, folder));
+        moved.add(folder);
+        present.set(folder, true);
+        done = true;
+      }
+    }
+    if (!done) {
+      const to = path.join(siteDir, entry.file);
+      if (existsSync(to)) continue;
+      renameSync(path.join(stageDir, entry.file), to);
+    }
     placed.push(entry);
   }
   return placed;
@@ -309,7 +335,7 @@ export function missingAfterReuse(listing: readonly FileHash[], present: Readonl
   return listing
     .map((entry) => entry.file)
     .filter((file) => {
-      if (present.has(file) || afterRender.has(file) || file.startsWith('pagefind/')) return false;
+      if (present.has(file) || afterRender.has(file) || file.startsWith('search-index/')) return false;
       const owner = ownerOf(file, current);
       return owner === null || !rendered.has(owner);
     });

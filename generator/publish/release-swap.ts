@@ -35,6 +35,7 @@ import { existsSync } from 'node:fs';
 import { lstat, mkdir, open, readFile, readdir, readlink, rename, rm, rmdir, stat, symlink, writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { PublishError } from './publish-error.ts';
+import { removeInWorker } from './remove-in-worker.ts';
 import { manifestFileName } from './tree-hash.ts';
 
 export interface PublishPlace {
@@ -202,10 +203,7 @@ export async function openPublishSession(out: string, log: (line: string) => voi
     if (entry.startsWith('retired-')) retired.push(entry);
   }
   // Releases retired by the last build are deleted while this one works (awaited in close()).
-  const deletingRetired = Promise.all(retired.map((entry) => rm(path.join(place.state, entry), { recursive: true, force: true, maxRetries: 3 }))).then(
-    () => undefined,
-    () => undefined,
-  );
+  const deletingRetired = removeInWorker(retired.map((entry) => path.join(place.state, entry)));
 
   const mine: string[] = [];
   let counter = 0;

@@ -9,7 +9,7 @@ import { renderIndicatorChart } from './chart.ts';
 import { prepareSegments, renderMap } from './map.ts';
 import type { PreparedSegments } from './map.ts';
 import type { LoadedModel } from './model.ts';
-import { bulletinsOf, pageBulletins, regionOf } from './model.ts';
+import { bulletinOf, bulletinsOf, pageBulletins, regionOf } from './model.ts';
 
 /** Is this bulletin of the current season (its drawings then appear on several pages)? */
 function shownTwice(model: LoadedModel, bulletin: Bulletin): boolean {
@@ -61,9 +61,11 @@ export function downloadPaths(bulletin: Bulletin): { json: string; observations:
  * taken from the first bulletin of the season that carries them. */
 export function seasonCautions(model: LoadedModel, seasonId: string): { shellfish: Caution[]; debris: Caution[] } {
   const list = bulletinsOf(model, seasonId);
+  const withShellfish = list.find((b) => b.cautions.shellfish);
+  const withDebris = list.find((b) => b.cautions.debris);
   return {
-    shellfish: list.find((b) => b.cautions.shellfish.length > 0)?.cautions.shellfish ?? [],
-    debris: list.find((b) => b.cautions.debris.length > 0)?.cautions.debris ?? [],
+    shellfish: withShellfish ? bulletinOf(withShellfish).cautions.shellfish : [],
+    debris: withDebris ? bulletinOf(withDebris).cautions.debris : [],
   };
 }
 
@@ -98,7 +100,7 @@ export function assertSlug(value: string, what: string): string {
   return value;
 }
 
-export function permalinkOf(bulletin: Bulletin): string {
+export function permalinkOf(bulletin: { season: { id: string }; segment: { id: string } }): string {
   return `/seasons/${assertSlug(bulletin.season.id, 'season id')}/${assertSlug(bulletin.segment.id, 'segment id')}/`;
 }
 

@@ -1,18 +1,20 @@
 /**
  * The bulletin model folder the generator wrote (WRACKLINE_MODEL, default
- * `.wrackline/model`), read once per build through the generator's own readModel and
- * indexed for the pages. Pages only render what is here.
+ * `.wrackline/model`; layout in generator/model/write-model.ts). Read once per build: the site
+ * file, the region summaries and the listings (what pages about many bulletins read of each);
+ * a whole bulletin is read when a page about it is rendered (`bulletinOf`). Pages only render
+ * what is here.
  */
 import { readFileSync } from 'node:fs';
-import { resolve } from 'node:path';
-import { readModel } from '../../generator/model/read-model.ts';
+import { join, resolve } from 'node:path';
+import type { BulletinListing } from '../../generator/model/listing.ts';
 import type { Bulletin, RegionSummary, SiteModel } from '../../generator/model/types.ts';
 
 export interface LoadedModel {
   site: SiteModel;
   regions: Map<string, RegionSummary>;
-  /** bulletins by season id, each sorted by segment name then id */
-  bulletins: Map<string, Bulletin[]>;
+  /** listings of the bulletins by season id, each sorted by segment name then id */
+  bulletins: Map<string, BulletinListing[]>;
 }
 
 let cached: Promise<LoadedModel> | null = null;
@@ -21,17 +23,47 @@ export function modelDir(): string {
   return resolve(process.env['WRACKLINE_MODEL'] ?? '.wrackline/model');
 }
 
-async function load(dir: string): Promise<LoadedModel> {
-  const set = await readModel(dir);
-  const regions = new Map<string, RegionSummary>();
-  for (const region of set.regions) regions.set(region.season.id, region);
-  const bulletins = new Map<string, Bulletin[]>();
-  for (const season of set.site.seasons) bulletins.set(season.id, []);
-  for (const bulletin of set.bulletins) bulletins.get(bulletin.season.id)?.push(bulletin);
-  for (const list of bulletins.values()) {
-    list.sort((a, b) => a.segment.name.localeCompare(b.segment.name, 'en') || (a.segment.id < b.segment.id ? -1 : a.segment.id > b.segment.id ? 1 : 0));
+const slug = /^[a-z0-9][a-z0-9_-]*$/i;
+
+function readJson<T>(file: string): T {
+  const text = readFileSync(file, 'utf8');
+  try {
+    return JSON.parse(text) as T;
+  } catch (error) {
+    throw new Error(`${file} is not valid JSON (${error instanceof Error ? error.message : String(error)})`);
   }
-  return { site: set.site, regions, bulletins };
+}
+
+function safeName(value: string, what: string): string {
+  if (!slug.test(value)) throw new Error(`${what} "${value}" is not a plain slug`);
+  return value;
+}
+
+async function load(dir: string): Promise<LoadedModel> {
+  const site = readJson<SiteModel>(join(dir, 'site.json'));
+  const regions = new Map<string, RegionSummary>();
+  const bulletins = new Map<string, BulletinListing[]>();
+  for (const season of site.seasons) {
+    const id = safeName(season.id, 'season id');
+    regions.set(id, readJson<RegionSummary>(join(dir, 'regions', `${id}.json`)));
+    const list = readJson<BulletinListing[]>(join(dir, 'listing', `${id}.json`));
+    list.sort((a, b) => a.segment.name.localeCompare(b.segment.name, 'en') || (a.segment.id < b.segment.id ? -1 : a.segment.id > b.segment.id ? 1 : 0));
+    bulletins.set(id, list);
+  }
+  return { site, regions, bulletins };
+}
+
+const whole = new Map<string, Bulletin>();
+/** The whole bulletin a listing stands for, read from its model file once per build. */
+export function bulletinOf(listing: { season: { id: string }; segment: { id: string } }): Bulletin {
+  const key = `${listing.season.id}/${listing.segment.id}`;
+  let bulletin = whole.get(key);
+  if (!bulletin) {
+    const file = join(modelDir(), 'bulletins', safeName(listing.season.id, 'season id'), `${safeName(listing.segment.id, 'segment id')}.json`);
+    bulletin = readJson<Bulletin>(file);
+    whole.set(key, bulletin);
+  }
+  return bulletin;
 }
 
 export function loadModel(): Promise<LoadedModel> {
@@ -52,7 +84,7 @@ export function currentSeason(model: LoadedModel): SiteModel['seasons'][number] 
   return current;
 }
 
-export function bulletinsOf(model: LoadedModel, seasonId: string): Bulletin[] {
+export function bulletinsOf(model: LoadedModel, seasonId: string): BulletinListing[] {
   return model.bulletins.get(seasonId) ?? [];
 }
 
@@ -69,11 +101,11 @@ let renderOnly: Set<string> | null | undefined;
  * JSON list of "season/segment" ids: a rebuild takes the other pages over from the published
  * release (generator/publish/page-reuse.ts).
  */
-export function pageBulletins(list: Bulletin[]): Bulletin[] {
+export function pageBulletins(list: readonly BulletinListing[]): Bulletin[] {
   if (renderOnly === undefined) {
     const file = process.env['WRACKLINE_RENDER_ONLY'];
     renderOnly = file ? new Set(JSON.parse(readFileSync(file, 'utf8')) as string[]) : null;
   }
   const only = renderOnly;
-  return only === null ? list : list.filter((b) => only.has(`${b.season.id}/${b.segment.id}`));
+  return (only === null ? list : list.filter((b) => only.has(`${b.season.id}/${b.segment.id}`))).map(bulletinOf);
 }

@@ -8,6 +8,7 @@ import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { computeRenderKeys, importedProjectFiles, missingAfterReuse, ownerOf, planRender, readRenderKeys, siteFingerprint } from '../../generator/publish/page-reuse.ts';
 import type { RenderKeys } from '../../generator/publish/page-reuse.ts';
+import { readSearchParts } from '../../generator/publish/search-index.ts';
 import { packageRoot, runCli } from './helpers/cli-build.ts';
 import { snapshot } from './helpers/tree.ts';
 
@@ -130,12 +131,12 @@ describe('render keys and the render plan', () => {
     expect(ownerOf('seasons/2026-summer/index.html', '2026-autumn')).toBeNull();
     expect(ownerOf('seasons/index.html', '2026-autumn')).toBeNull();
     expect(ownerOf('index.html', '2026-autumn')).toBeNull();
-    expect(ownerOf('pagefind/pagefind.js', '2026-autumn')).toBeNull();
+    expect(ownerOf('search-index/part-0/pagefind.js', '2026-autumn')).toBeNull();
   });
 });
 
 test('a published file that neither the render nor the reuse produced is reported (the build then renders all)', () => {
-  const listing = ['index.html', 'manifest.json', 'pagefind/a.js', 'charts/north-bay/index.html', 'embed/south-reef/beach-litter/index.html', 'segments/north-bay/index.html']
+  const listing = ['index.html', 'manifest.json', 'search-index/part-0/pagefind.js', 'charts/north-bay/index.html', 'embed/south-reef/beach-litter/index.html', 'segments/north-bay/index.html']
     .map((file) => ({ file, sha256: '0', bytes: 0 }));
   const present = new Set(['index.html', 'segments/north-bay/index.html']);
   // south-reef was rendered again and lost its beach-litter chart: expected, not missing
@@ -186,5 +187,14 @@ describe('rebuild of the demo after one survey changed', () => {
     const changed = 'segments/ostry-beach/index.html';
     expect((await stat(path.join(secondRelease, changed))).ino).not.toBe((await stat(path.join(firstRelease, changed))).ino);
     expect(await readFile(path.join(secondRelease, changed), 'utf8')).not.toBe(await readFile(path.join(firstRelease, changed), 'utf8'));
+
+    // The search index: the part holding the changed page was indexed again, the other taken over.
+    const parts = readSearchParts(secondRelease);
+    expect(parts?.length).toBe(2);
+    const holding = parts?.find((part) => part.pages.includes(changed));
+    const other = parts?.find((part) => !part.pages.includes(changed));
+    const entry = (part: { name: string } | undefined, release: string) => path.join(release, 'search-index', part?.name ?? '?', 'pagefind-entry.json');
+    expect((await stat(entry(other, secondRelease))).ino).toBe((await stat(entry(other, firstRelease))).ino);
+    expect((await stat(entry(holding, secondRelease))).ino).not.toBe((await stat(entry(holding, firstRelease))).ino);
   });
 });

@@ -6,7 +6,6 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterEach, beforeEach, expect, test } from 'vitest';
 import { dealBulletins, renderProcesses } from '../../generator/publish/astro-render.ts';
-import { searchGlob } from '../../generator/publish/build-release.ts';
 import { siteProblems, siteProblemsInParallel } from '../../generator/publish/html-safety.ts';
 import { writeDownloads } from '../../generator/publish/write-downloads.ts';
 import { observationsCsv, resultsCsv } from '../../generator/model/download-tables.ts';
@@ -29,24 +28,6 @@ test('bulletins are dealt in turn; a second process only for enough bulletins an
   expect(renderProcesses(4000, 2)).toBe(2);
   expect(renderProcesses(4000, 1)).toBe(1);
   expect(renderProcesses(4000, 8)).toBe(2);
-});
-
-test('the search glob names the folders (and root pages) of marked pages only', async () => {
-  const page = (marked: boolean): string => `<html><body><main${marked ? ' data-pagefind-body' : ''}>x</main></body></html>`;
-  const files: { [file: string]: string } = {
-    'index.html': page(false),
-    'segments/a/index.html': page(true),
-    'segments/b/index.html': page(true),
-    'seasons/2026-autumn/a/index.html': page(false),
-    'about.html': page(true),
-    'wrackline.css': 'main{}',
-  };
-  for (const [file, text] of Object.entries(files)) {
-    await mkdir(path.dirname(path.join(dir, file)), { recursive: true });
-    await writeFile(path.join(dir, file), text);
-  }
-  expect(await searchGlob(dir, Object.keys(files).sort())).toBe('{segments/**/*.html,about.html}');
-  expect(await searchGlob(dir, ['index.html', 'seasons/2026-autumn/a/index.html'])).toBeNull();
 });
 
 test('downloads: bulletin.json is the model file byte for byte, the CSVs are the tables of the model', async () => {

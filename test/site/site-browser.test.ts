@@ -19,6 +19,7 @@ import { tmpdir } from 'node:os';
 import { extname, join, normalize, resolve, sep } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
+import { indexSearchParts, planSearchParts, writeSearchParts } from '../../generator/publish/search-index.ts';
 
 const root = resolve(import.meta.dirname, '..', '..');
 const require = createRequire(import.meta.url);
@@ -71,7 +72,7 @@ function serve(dir: string): Promise<{ server: Server; origin: string }> {
   }));
 }
 
-function buildSite(): string {
+async function buildSite(): Promise<string> {
   const given = process.env['WRACKLINE_TEST_SITE'];
   if (given) return resolve(given);
   const modelFolder = process.env['WRACKLINE_TEST_MODEL'];
@@ -87,11 +88,10 @@ function buildSite(): string {
   const env = { ...process.env, WRACKLINE_MODEL: model, ASTRO_TELEMETRY_DISABLED: '1', TZ: 'UTC' };
   const command = existsSync('/usr/bin/flock') ? ['/usr/bin/flock', '/tmp/astro.lock', process.execPath] : [process.execPath];
   execFileSync(command[0]!, [...command.slice(1), astro, 'build', '--outDir', ownBuild], { cwd: root, env, stdio: 'pipe' });
-  // The search index, as the publish step makes it: `npx pagefind --site <outDir>`.
-  // pagefind's package "exports" hide its package.json from require.resolve: read it from disk
-  const pagefindDir = join(root, 'node_modules', 'pagefind');
-  const pagefind = join(pagefindDir, (JSON.parse(readFileSync(join(pagefindDir, 'package.json'), 'utf8')) as { bin: string }).bin);
-  execFileSync(process.execPath, [pagefind, '--site', ownBuild], { cwd: root, stdio: 'pipe' });
+  // The search index, as the publish step makes it (generator/publish/search-index.ts).
+  const parts = planSearchParts(htmlPages(ownBuild).filter((file) => readFileSync(join(ownBuild, file), 'utf8').includes('data-pagefind-body')));
+  await indexSearchParts(ownBuild, parts, mkdtempSync(join(tmpdir(), 'wrackline-search-parts-')));
+  writeSearchParts(ownBuild, parts);
   return ownBuild;
 }
 
@@ -122,7 +122,7 @@ describe.skipIf(!haveBrowser)('published site in a real browser', () => {
   let firstBulletin = '';
 
   beforeAll(async () => {
-    siteDir = buildSite();
+    siteDir = await buildSite();
     ({ server, origin } = await serve(siteDir));
     profileDir = mkdtempSync(join(tmpdir(), 'wrackline-chromium-'));
     context = await chromium.launchPersistentContext(profileDir, {
