@@ -17,7 +17,7 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { ownerOf } from './page-reuse.ts';
 import { moveFiles } from './move-files.ts';
-import { compareCodeUnits } from './tree-hash.ts';
+import { compareCodeUnits, listFiles } from './tree-hash.ts';
 
 /** The folder holding this package's package.json (two levels above generator/publish/). */
 export const packageRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
@@ -180,6 +180,19 @@ async function runAstro(run: AstroRun, scratch: string): Promise<number> {
   return pages;
 }
 
+/** A page of the site as Astro writes it: an HTML page or the feed. */
+function isPage(file: string): boolean {
+  return file.endsWith('.html') || file.endsWith('.xml');
+}
+
+/**
+ * The pages in a folder Astro wrote. Counted from the files, not from Astro's log (which feeds
+ * only the progress line): the count printed at the end must not depend on how a log was read.
+ */
+async function pageFiles(outDir: string): Promise<number> {
+  return (await listFiles(outDir)).filter(isPage).length;
+}
+
 /** Removes scratch folders (`.astro/render-<pid>-…`) left by builds that were killed. */
 async function removeStaleScratch(siteRoot: string): Promise<void> {
   const folder = path.join(siteRoot, '.astro');
@@ -217,7 +230,7 @@ export async function renderWithAstro(options: RenderOptions): Promise<{ pages: 
   const scratchOf = (i: number): string => path.join(siteRoot, '.astro', `render-${process.pid}-${Date.now().toString(36)}-${i}`);
   if (processes <= 1) {
     await runAstro({ siteRoot, modelDir: options.modelDir, outDir: options.outDir, only: options.only, onPage: count }, scratchOf(0));
-    return { pages };
+    return { pages: await pageFiles(options.outDir) };
   }
   const site = JSON.parse(await readFile(path.join(options.modelDir, 'site.json'), 'utf8')) as { seasons?: { id: string; current?: boolean }[] };
   const current = site.seasons?.find((s) => s.current)?.id ?? '';
@@ -250,7 +263,7 @@ export async function renderWithAstro(options: RenderOptions): Promise<{ pages: 
         return owner !== null && own.has(owner);
       });
     }
-    return { pages };
+    return { pages: await pageFiles(options.outDir) };
   } finally {
     await rm(shardRoot, { recursive: true, force: true, maxRetries: 3 });
   }
