@@ -11,7 +11,7 @@ import { topology } from 'topojson-server';
 import { feature } from 'topojson-client';
 import type { Feature, FeatureCollection, Geometry, Polygon } from 'geojson';
 import type { AccumulationZone, LevelId } from '../../generator/model/types.ts';
-import { escapeXml, zoneName } from './format.ts';
+import { escapeXml, formatNumber, zoneName } from './format.ts';
 import { levelPatternDefs, levelStyles } from './levels.ts';
 
 export interface MapSegment {
@@ -37,7 +37,16 @@ export interface MapOptions {
   highlight?: string | null;        // segment id for a locator map
   width?: number;                   // defaults to 640
   badges?: boolean;                 // numbered level badges; defaults to true under 80 segments
+  /**
+   * Where each segment's bulletin is (region maps): its line and badge become links, so a tap on
+   * a phone opens the bulletin. Left out of the tab order: the table of all segments below the
+   * map has the same links for the keyboard. Not used above `linkLimit` segments (page size).
+   */
+  linkOf?: (segmentId: string) => string;
 }
+
+/** Above this many segments the region map carries no links (each adds to every overview page). */
+export const linkLimit = 400;
 
 type Props = { id: string; name: string; level: LevelId; levelLabel: string };
 
@@ -83,12 +92,12 @@ const badgeRadius = 8;
  * highest level first, with a thin leader to the segment's centre; a badge that would overlap
  * another is left out (the table lists every segment and level).
  */
-function placeBadges(items: { centre: [number, number]; level: LevelId }[], width: number): string[] {
+function placeBadges(items: { centre: [number, number]; level: LevelId; open: (inner: string) => string }[], width: number): string[] {
   const placed: [number, number][] = [];
   const out: string[] = [];
   const order = [...items].sort((a, b) => levelStyles[b.level].rank - levelStyles[a.level].rank);
   const free = (x: number, y: number) => x > badgeRadius && x < width - badgeRadius && placed.every(([px, py]) => Math.hypot(px - x, py - y) >= 2 * badgeRadius + 2);
-  for (const { centre, level } of order) {
+  for (const { centre, level, open } of order) {
     if (!Number.isFinite(centre[0]) || !Number.isFinite(centre[1])) continue;
     const spot = [24, -24, 44, -44].map((dx) => [centre[0] + dx, centre[1]] as [number, number]).find(([x, y]) => free(x, y));
     if (!spot) continue;
@@ -96,7 +105,7 @@ function placeBadges(items: { centre: [number, number]; level: LevelId }[], widt
     const style = levelStyles[level];
     const [x, y] = [spot[0].toFixed(1), spot[1].toFixed(1)];
     const leader = `<path d="M${centre[0].toFixed(1)} ${centre[1].toFixed(1)}H${(spot[0] + (spot[0] > centre[0] ? -badgeRadius : badgeRadius)).toFixed(1)}" stroke="#1f2a33" stroke-width="0.8"/>`;
-    out.push(`<g class="badge">${leader}<circle cx="${x}" cy="${y}" r="${badgeRadius}" fill="${style.fill}" stroke="#1f2a33" stroke-width="1.2"/><text x="${x}" y="${y}" dy="0.35em" text-anchor="middle" font-size="10" font-weight="700" fill="${style.rank >= 3 ? '#fff' : '#1f2a33'}">${style.rank}</text></g>`);
+    out.push(open(`<g class="badge">${leader}<circle cx="${x}" cy="${y}" r="${badgeRadius}" fill="${style.fill}" stroke="#1f2a33" stroke-width="1.2"/><text x="${x}" y="${y}" dy="0.35em" text-anchor="middle" font-size="10" font-weight="700" fill="${style.rank >= 3 ? '#fff' : '#1f2a33'}">${style.rank}</text></g>`));
   }
   return out;
 }
@@ -166,7 +175,9 @@ export function renderMap(options: MapOptions): string {
   const parts: string[] = [];
   const tid = `${options.idPrefix}-title`;
   const did = `${options.idPrefix}-desc`;
-  parts.push(`<svg class="map" viewBox="0 0 ${width} ${height}" role="img" aria-labelledby="${tid} ${did}" preserveAspectRatio="xMidYMid meet">`);
+  const linkOf = options.linkOf && !highlight && allFeatures.length <= linkLimit ? options.linkOf : null;
+  // A map with links is a group of them (an image's parts are hidden from assistive technology).
+  parts.push(`<svg class="map" viewBox="0 0 ${width} ${height}" role="${linkOf ? 'group' : 'img'}" aria-labelledby="${tid} ${did}" preserveAspectRatio="xMidYMid meet">`);
   parts.push(`<title id="${tid}">${escapeXml(options.title)}</title><desc id="${did}">${escapeXml(options.description)}</desc>`);
   const pat = `${options.idPrefix}-zone`;
   parts.push(`<defs><pattern id="${pat}" width="7" height="7" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><rect width="7" height="7" fill="#dfe8ec"/><path d="M0 0V7" stroke="#5d7482" stroke-width="1.4"/></pattern>${features.some((f) => isArea(f.geometry)) ? levelPatternDefs().replace(/wl-pat-/g, `${options.idPrefix}-pat-`) : ''}</defs>`);
@@ -175,7 +186,7 @@ export function renderMap(options: MapOptions): string {
   for (const { zone, feature: f } of zones) {
     const d = path(f);
     if (!d) continue;
-    const label = `Offshore accumulation ${zoneName(zone.id).toLowerCase()}: about ${zone.particles} modelled particles within ${zone.radiusKm} km`;
+    const label = `Offshore accumulation ${zoneName(zone.id).toLowerCase()}: about ${formatNumber(zone.particles)} modelled particles within ${formatNumber(zone.radiusKm)} km`;
     parts.push(`<path d="${d}" fill="url(#${pat})" fill-opacity="${highlight ? 0.5 : 0.9}" stroke="#3d5563" stroke-width="1" stroke-dasharray="3 2"><title>${escapeXml(label)}</title></path>`);
     const c = projection([zone.lon, zone.lat]);
     if (c && !highlight) {
@@ -183,6 +194,9 @@ export function renderMap(options: MapOptions): string {
     }
   }
 
+  // Wraps a segment's drawing in a link to its bulletin (region maps with `linkOf`).
+  const linkFor = (id: string, name: string) => (inner: string): string =>
+    linkOf ? `<a href="${escapeXml(linkOf(id))}" tabindex="-1" aria-label="${escapeXml(name)}">${inner}</a>` : inner;
   const ordered = [...features].sort((a, b) => {
     if (highlight) return (a.properties.id === highlight ? 1 : 0) - (b.properties.id === highlight ? 1 : 0);
     return levelStyles[a.properties.level].rank - levelStyles[b.properties.level].rank;
@@ -191,7 +205,9 @@ export function renderMap(options: MapOptions): string {
     const d = path(f);
     if (!d) continue;
     const style = levelStyles[f.properties.level];
-    const title = `<title>${escapeXml(`${f.properties.name}: ${f.properties.levelLabel}, level ${style.rank} of 4`)}</title>`;
+    const name = `${f.properties.name}: ${f.properties.levelLabel}, level ${style.rank} of 4`;
+    const title = `<title>${escapeXml(name)}</title>`;
+    const open = linkFor(f.properties.id, name);
     const area = isArea(f.geometry);
     if (highlight && f.properties.id !== highlight) {
       parts.push(`<path d="${d}" fill="${area ? '#c9d3d8' : 'none'}" stroke="#8c9aa3" stroke-width="2.5" stroke-linecap="round">${title}</path>`);
@@ -201,11 +217,11 @@ export function renderMap(options: MapOptions): string {
     const w = isTarget ? 8 : style.width;
     const dash = !isTarget && style.dash ? ` stroke-dasharray="${style.dash}"` : '';
     if (area) {
-      parts.push(`<path d="${d}" fill="url(#${options.idPrefix}-pat-${style.rank})" stroke="${style.stroke}" stroke-width="1.5">${title}</path>`);
+      parts.push(open(`<path d="${d}" fill="url(#${options.idPrefix}-pat-${style.rank})" stroke="${style.stroke}" stroke-width="1.5">${title}</path>`));
     } else {
       // a white casing separates touching segments; left out on crowded maps to keep pages small
       if (features.length <= 150 || isTarget) parts.push(`<path d="${d}" fill="none" stroke="#fff" stroke-width="${w + 3}" stroke-linecap="round" stroke-linejoin="round"/>`);
-      parts.push(`<path d="${d}" fill="none" stroke="${isTarget ? '#1f2a33' : style.stroke}" stroke-width="${w}" stroke-linecap="round" stroke-linejoin="round"${dash}>${title}</path>`);
+      parts.push(open(`<path d="${d}" fill="none" stroke="${isTarget ? '#1f2a33' : style.stroke}" stroke-width="${w}" stroke-linecap="round" stroke-linejoin="round"${dash}>${title}</path>`));
     }
   }
 
@@ -219,7 +235,16 @@ export function renderMap(options: MapOptions): string {
       parts.push(`<circle cx="${c[0].toFixed(1)}" cy="${c[1].toFixed(1)}" r="${ring.toFixed(1)}" fill="none" stroke="#1f2a33" stroke-width="2" stroke-dasharray="4 3"/>`);
     }
   } else if (badges) {
-    parts.push(...placeBadges(ordered.map((f) => ({ centre: path.centroid(f), level: f.properties.level })), width));
+    parts.push(
+      ...placeBadges(
+        ordered.map((f) => ({
+          centre: path.centroid(f),
+          level: f.properties.level,
+          open: linkFor(f.properties.id, `${f.properties.name}: ${f.properties.levelLabel}, level ${levelStyles[f.properties.level].rank} of 4`),
+        })),
+        width,
+      ),
+    );
   }
 
   // Scale bar, bottom left: distance of 100 px at mid-height, rounded to a nice length.

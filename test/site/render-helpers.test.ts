@@ -59,6 +59,23 @@ describe('renderMap', () => {
     expect([...document.querySelectorAll('.badge text')].map((t) => t.textContent).sort()).toEqual(['1', '4']);
   });
 
+  it('links each segment and its badge to its bulletin when asked, outside the tab order', () => {
+    const svg = renderMap({ idPrefix: 'm', title: 't', description: 'd', segments: prepareSegments(segments), zones: [{ ...zone, radiusKm: 10.496393620584156, particles: 1234 }], linkOf: (id) => `/segments/${id}/?x=1&y=2` });
+    const { document } = parseHTML(`<!doctype html><html><body>${svg}</body></html>`);
+    // links inside an image would be hidden from assistive technology: the map is a group then
+    expect(document.querySelector('svg')?.getAttribute('role')).toBe('group');
+    const links = [...document.querySelectorAll('a')];
+    expect(links.map((a) => a.getAttribute('href')).sort()).toEqual(['/segments/a/?x=1&y=2', '/segments/a/?x=1&y=2', '/segments/b/?x=1&y=2', '/segments/b/?x=1&y=2']);
+    expect(links.every((a) => a.getAttribute('tabindex') === '-1')).toBe(true);
+    expect(links.find((a) => a.getAttribute('href')?.startsWith('/segments/a/'))?.getAttribute('aria-label')).toBe(`North ${hostile}: Heavy, level 4 of 4`);
+    expect(svg).not.toContain('<img');
+    // the zone's tooltip gives rounded figures, as the zone table does
+    expect([...document.querySelectorAll('title')].map((t) => t.textContent)).toContain('Offshore accumulation zone 1: about 1234 modelled particles within 10.5 km');
+    const plain = renderMap({ idPrefix: 'm', title: 't', description: 'd', segments: prepareSegments(segments) });
+    expect(plain).not.toContain('<a ');
+    expect(plain).toContain('role="img"');
+  });
+
   it('frames a locator map on the highlighted segment and ringed', () => {
     const svg = renderMap({ idPrefix: 'loc', title: 't', description: 'd', segments: prepareSegments(segments), highlight: 'b' });
     expect(svg).toContain('stroke-dasharray="4 3"');

@@ -19,7 +19,7 @@ import { tmpdir } from 'node:os';
 import { extname, join, normalize, resolve, sep } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
-import { indexSearchParts, planSearchParts, writeSearchParts } from '../../generator/publish/search-index.ts';
+import { indexSearchParts, planSearchParts, readSearchParts, writeSearchParts } from '../../generator/publish/search-index.ts';
 
 const root = resolve(import.meta.dirname, '..', '..');
 const require = createRequire(import.meta.url);
@@ -320,6 +320,30 @@ describe.skipIf(!haveBrowser)('published site in a real browser', () => {
     await page.fill('#search-input', name);
     await page.locator('#search-results a').first().waitFor({ timeout: 10_000 });
     expect(await page.locator('#search-results a').first().getAttribute('href')).toMatch(/^\/segments\/[^/]+\/$/);
+    // The index comes in parts merged in the browser: a place from each part is found.
+    const parts = readSearchParts(siteDir) ?? [];
+    expect(parts.length).toBeGreaterThanOrEqual(2);
+    for (const part of parts) {
+      const href = `/${(part.pages[0] ?? '').replace(/index\.html$/, '')}`;
+      const placeName = await page.locator(`.place-list a[href="${href}"]`).innerText();
+      await page.fill('#search-input', '');
+      await page.fill('#search-input', placeName);
+      await page.locator(`#search-results a[href="${href}"]`).waitFor({ timeout: 10_000 });
+    }
+    await page.close();
+    expect(consoleProblems).toEqual([]);
+  });
+
+  it('opens a bulletin when a segment is tapped on the overview map (phone)', async () => {
+    const { page } = await openPage('/');
+    await page.setViewportSize({ width: 390, height: 844 });
+    const link = page.locator('svg.map a').filter({ has: page.locator('.badge') }).first();
+    const href = await link.getAttribute('href');
+    expect(href).toMatch(/^\/segments\/[^/]+\/$/);
+    expect(await link.getAttribute('tabindex')).toBe('-1');
+    const name = (await link.getAttribute('aria-label'))?.split(':')[0];
+    await Promise.all([page.waitForURL(`${origin}${href}`), link.click()]);
+    expect(await page.locator('h1').first().innerText()).toBe(name);
     await page.close();
     expect(consoleProblems).toEqual([]);
   });
