@@ -78,6 +78,16 @@ async function insideRoot(root: string, file: string): Promise<boolean> {
   return !fromRoot.startsWith('..') && !path.isAbsolute(fromRoot);
 }
 
+/**
+ * Who may show a page inside a frame: a rule browsers take only from a response header, never from
+ * the page (see site/lib/csp.ts). The chart pages under /embed/ are made to be framed by other
+ * sites; every other page only by this one. The same headers a host should send (README).
+ */
+export function framingHeaders(urlPath: string): { [name: string]: string } {
+  if (urlPath.startsWith('/embed/')) return { 'Content-Security-Policy': 'frame-ancestors *' };
+  return { 'Content-Security-Policy': "frame-ancestors 'self'", 'X-Frame-Options': 'SAMEORIGIN' };
+}
+
 function send(response: ServerResponse, status: number, headers: { [name: string]: string }, body?: string): void {
   response.writeHead(status, { 'X-Content-Type-Options': 'nosniff', ...headers });
   response.end(body);
@@ -116,6 +126,7 @@ async function handle(root: string, request: IncomingMessage, response: ServerRe
     'Content-Length': String(info.size),
     'X-Content-Type-Options': 'nosniff',
     'Cache-Control': 'no-cache',
+    ...framingHeaders(url.pathname),
   });
   if (request.method === 'HEAD') {
     response.end();

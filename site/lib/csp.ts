@@ -8,6 +8,7 @@
  *   for every other path: Content-Security-Policy: frame-ancestors 'self'
  *                         X-Frame-Options: SAMEORIGIN   (for browsers without CSP level 2)
  * A header policy and the meta policy are both enforced; the header needs only that directive.
+ * `wrackline serve` sends these headers (generator/cli/serve.ts, framingHeaders).
  * `wasm` adds 'wasm-unsafe-eval' (lets WebAssembly compile, not JavaScript eval) for the
  * search page, whose optional index runs as WebAssembly.
  */

@@ -7,7 +7,7 @@ import { request } from 'node:http';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { fileForUrlPath, startServer } from '../../generator/cli/serve.ts';
+import { fileForUrlPath, framingHeaders, startServer } from '../../generator/cli/serve.ts';
 
 let work: string;
 let server: Server;
@@ -59,6 +59,16 @@ describe('serve', () => {
     expect(redirect.status).toBe(301);
     expect(redirect.headers.location).toBe('/seasons/a/');
     expect((await get('/style.css')).headers['content-type']).toBe('text/css; charset=utf-8');
+  });
+  // frame-ancestors is honoured only as a header, not in a meta element (W3C Content Security
+  // Policy Level 2, 2016, the frame-ancestors directive; section number 7.7 from memory);
+  // X-Frame-Options for older browsers (RFC 7034, 2013).
+  test('pages may be framed only by this site, the embed pages by any', async () => {
+    const home = await get('/');
+    expect(home.headers['content-security-policy']).toBe("frame-ancestors 'self'");
+    expect(home.headers['x-frame-options']).toBe('SAMEORIGIN');
+    expect(framingHeaders('/embed/north-bay/beach-litter/')).toEqual({ 'Content-Security-Policy': 'frame-ancestors *' });
+    expect(framingHeaders('/seasons/2026-autumn/north-bay/')['X-Frame-Options']).toBe('SAMEORIGIN');
   });
   test('unknown paths get the 404 page', async () => {
     expect(await get('/nothing/')).toMatchObject({ status: 404, body: '<p>not here</p>' });
