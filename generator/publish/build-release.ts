@@ -18,7 +18,7 @@ import type { BuildSteps, ModelSet } from './build-steps.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
 import type { ArchiveLedger } from './archive-ledger.ts';
 import { assertArchiveIntact, ledgerFileName, ledgerFromModel, readLedger } from './archive-ledger.ts';
-import type { Correction } from './archive-ledger.ts';
+import type { Correction, LedgerReuse } from './archive-ledger.ts';
 import { safetyRulesVersion, siteProblems, siteProblemsInParallel } from './html-safety.ts';
 import { collectGarbageNow } from './free-memory.ts';
 import { PublishError } from './publish-error.ts';
@@ -32,6 +32,7 @@ import { computeRenderKeys, missingAfterReuse, modelFileHashes, placeStaged, pla
 import type { RenderKeys, RenderPlan } from './page-reuse.ts';
 import type { ValidationReport } from '../model/types.ts';
 import { linkParts, pagesToIndex, partsToTakeOver, planSearchParts, readSearchParts, searchIndexFolder, writeSearchParts } from './search-index.ts';
+import type { SearchPart } from './search-index.ts';
 
 export interface BuildReleaseOptions {
   scenario: string;
@@ -156,15 +157,7 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     }
     progress.start('pages', undefined, 'pages');
     // The archive ledger needs only the model: it is worked out while the pages render.
-    // Entries of bulletins whose model file is the download on line are taken over from its
-    // ledger (when that ledger is the one its manifest lists).
-    const previousLedger = published ? await readLedger(published) : null;
-    const ledgerOnLine = published && publishedManifest ? publishedManifest.files.find((entry) => entry.file === ledgerFileName) : undefined;
-    const ledgerAsListed = published !== null && ledgerOnLine !== undefined && (await hashFile(path.join(published, ledgerFileName)).catch(() => null))?.sha256 === ledgerOnLine.sha256;
-    const ledgerReuse =
-      previousLedger && publishedManifest && ledgerAsListed
-        ? { previous: previousLedger, modelHashes, publishedHashes: new Map(publishedManifest.files.map((entry) => [entry.file, entry.sha256])) }
-        : undefined;
+    const { previous: previousLedger, reuse: ledgerReuse } = await ledgerOnLine(published, publishedManifest?.files ?? null, modelHashes);
     const ledgerReady = ledgerFromModel(modelDir, ledgerReuse).then(
       (ledger) => ({ ledger }),
       (error: unknown) => ({ error }),
@@ -210,45 +203,30 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
       compareCodeUnits(a.file, b.file),
     );
     progress.update(pagesHashed.length);
-    const previousParts = published ? readSearchParts(published) : null;
-    const parts = planSearchParts(await pagesToIndex(siteDir, pageFiles, new Set(broughtHashes.keys()), previousParts));
-    const takenOver =
-      published && publishedManifest
-        ? partsToTakeOver(
-            previousParts,
-            parts,
-            new Map(pagesHashed.map((entry) => [entry.file, entry.sha256])),
-            new Map(publishedManifest.files.map((entry) => [entry.file, entry.sha256])),
-          )
-        : [];
-    const toIndex = parts.filter((part) => !takenOver.includes(part));
-    if (toIndex.length === parts.length && parts.length > 0) progress.note(`  checks: the search index (${parts.length} parts) is built meanwhile`);
-    else if (parts.length > 0) {
-      progress.note(`  checks: the search index is built meanwhile: ${toIndex.length} of ${parts.length} parts (the others taken over from the published release)`);
-    }
-    const indexed =
-      parts.length === 0
-        ? Promise.resolve()
-        : (async () => {
-            if (published && publishedManifest) linkParts(published, publishedManifest.files, siteDir, takenOver);
-            if (toIndex.length > 0) await steps.index(siteDir, toIndex, await session.workFolder('search'));
-            writeSearchParts(siteDir, parts);
-          })();
-    indexed.catch(() => {});
+    const search = await startSearchIndex({
+      siteDir,
+      pageFiles,
+      pagesHashed,
+      takenOverPages: new Set(broughtHashes.keys()),
+      // --render-all builds everything afresh, the search index too
+      onLine: published && publishedManifest && !options.renderAll ? { release: published, files: publishedManifest.files } : null,
+      index: async (parts) => steps.index(siteDir, parts, await session.workFolder('search')),
+      note: (line) => progress.note(line),
+    });
     // A page byte-identical to one in the release on line passed this same check when that
     // release was published: only new or changed pages are parsed again.
     const sameRules = publishedManifest?.['safetyRules'] === safetyRulesVersion;
     const checkedBefore = new Set((sameRules ? (publishedManifest?.files ?? []) : []).map((entry) => entry.sha256));
     const toCheck = pagesHashed.filter((entry) => entry.file.endsWith('.html') && !checkedBefore.has(entry.sha256)).map((entry) => entry.file);
     const problems = await siteProblemsInParallel(siteDir, toCheck);
-    await indexed;
+    await search.done;
     // What the indexer added (its own folder); pages it might have touched are hashed again.
     const before = new Set(pageFiles);
     const added = (await listFiles(siteDir)).filter((file) => !before.has(file));
     const addedHashes = await hashFilesIn(siteDir, added);
     const hashed = [...pagesHashed, ...addedHashes].sort((a, b) => compareCodeUnits(a.file, b.file));
     // Index files taken over must be those of the release on line, like every file taken over.
-    const takenPrefixes = takenOver.map((part) => `${searchIndexFolder}/${part.name}/`);
+    const takenPrefixes = search.takenOver.map((part) => `${searchIndexFolder}/${part.name}/`);
     const publishedHashes = new Map((publishedManifest?.files ?? []).map((entry) => [entry.file, entry.sha256]));
     const alteredIndex = addedHashes.find((entry) => takenPrefixes.some((prefix) => entry.file.startsWith(prefix)) && publishedHashes.get(entry.file) !== entry.sha256);
     if (alteredIndex) {
@@ -294,6 +272,66 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
   }
 }
 
+/**
+ * The archive ledger of the release on line (null: none), and the entries that may be taken over
+ * from it: those of bulletins whose model file is the download on line (archive-ledger.ts,
+ * LedgerReuse), and only when that ledger is the file its manifest lists.
+ */
+async function ledgerOnLine(
+  published: string | null,
+  files: readonly FileHash[] | null,
+  modelHashes: ReadonlyMap<string, string>,
+): Promise<{ previous: ArchiveLedger | null; reuse: LedgerReuse | undefined }> {
+  const previous = published ? await readLedger(published) : null;
+  if (published === null || previous === null || files === null) return { previous, reuse: undefined };
+  const listed = files.find((entry) => entry.file === ledgerFileName);
+  const actual = await hashFile(path.join(published, ledgerFileName)).catch(() => null);
+  if (listed === undefined || actual?.sha256 !== listed.sha256) return { previous, reuse: undefined };
+  return { previous, reuse: { previous, modelHashes, publishedHashes: new Map(files.map((entry) => [entry.file, entry.sha256])) } };
+}
+
 async function writeLedgerFile(siteDir: string, ledger: ArchiveLedger): Promise<void> {
   await writeFile(path.join(siteDir, ledgerFileName), `${JSON.stringify(ledger, null, 2)}\n`);
+}
+
+/**
+ * Plans the search index parts (search-index.ts), links the parts that can be taken over from
+ * the release on line (`onLine`; null: none) and starts indexing the others. `done` settles when
+ * every part is in place and `search-index/parts.json` is written.
+ */
+async function startSearchIndex(input: {
+  siteDir: string;
+  pageFiles: readonly string[];
+  pagesHashed: readonly FileHash[];
+  takenOverPages: ReadonlySet<string>;
+  onLine: { release: string; files: readonly FileHash[] } | null;
+  index: (parts: readonly SearchPart[]) => Promise<void>;
+  note: (line: string) => void;
+}): Promise<{ takenOver: SearchPart[]; done: Promise<void> }> {
+  const { siteDir, onLine } = input;
+  const previous = onLine ? readSearchParts(onLine.release) : null;
+  const parts = planSearchParts(await pagesToIndex(siteDir, input.pageFiles, input.takenOverPages, previous));
+  const takenOver = onLine
+    ? partsToTakeOver(
+        previous,
+        parts,
+        new Map(input.pagesHashed.map((entry) => [entry.file, entry.sha256])),
+        new Map(onLine.files.map((entry) => [entry.file, entry.sha256])),
+      )
+    : [];
+  const toIndex = parts.filter((part) => !takenOver.includes(part));
+  if (parts.length > 0 && toIndex.length === parts.length) input.note(`  checks: the search index (${parts.length} parts) is built meanwhile`);
+  else if (parts.length > 0) {
+    input.note(`  checks: the search index is built meanwhile: ${toIndex.length} of ${parts.length} parts (the others taken over from the published release)`);
+  }
+  const done =
+    parts.length === 0
+      ? Promise.resolve()
+      : (async () => {
+          if (onLine) linkParts(onLine.release, onLine.files, siteDir, takenOver);
+          if (toIndex.length > 0) await input.index(toIndex);
+          writeSearchParts(siteDir, parts);
+        })();
+  done.catch(() => {});
+  return { takenOver, done };
 }

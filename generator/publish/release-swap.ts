@@ -36,7 +36,7 @@ import { lstat, mkdir, open, readFile, readdir, readlink, rename, rm, rmdir, sta
 import path from 'node:path';
 import { PublishError } from './publish-error.ts';
 import { removeInWorker } from './remove-in-worker.ts';
-import { manifestFileName } from './tree-hash.ts';
+import { hashFilesIn, listFiles, manifestFileName, readManifest } from './tree-hash.ts';
 
 export interface PublishPlace {
   /** Absolute output path (the link). */
@@ -145,6 +145,22 @@ export interface PublishSession {
  * Takes the output's lock (failing when a live build holds it), restores a link lost by a run
  * killed during the first conversion, and deletes work folders left by killed runs.
  */
+/**
+ * Whether `folder` holds exactly the files of the finished `tree` (its manifest's listing, byte for
+ * byte, and the same manifest): a release folder named by a digest may have been changed by hand.
+ */
+async function holdsTree(folder: string, tree: string): Promise<boolean> {
+  const wanted = await readManifest(tree);
+  if (wanted === null) return false;
+  const expected = new Set([...wanted.files.map((entry) => entry.file), manifestFileName]);
+  const present = await listFiles(folder);
+  if (present.length !== expected.size || present.some((file) => !expected.has(file))) return false;
+  const manifests = await Promise.all([readFile(path.join(folder, manifestFileName)), readFile(path.join(tree, manifestFileName))]);
+  if (!manifests[0].equals(manifests[1])) return false;
+  const hashes = await hashFilesIn(folder, wanted.files.map((entry) => entry.file));
+  return hashes.every((entry, i) => entry.sha256 === wanted.files[i]?.sha256 && entry.bytes === wanted.files[i]?.bytes);
+}
+
 export async function openPublishSession(out: string, log: (line: string) => void = () => {}): Promise<PublishSession> {
   const place = placeFor(out);
   const found = await inspectOutput(place);
@@ -224,14 +240,21 @@ export async function openPublishSession(out: string, log: (line: string) => voi
       if (now.kind === 'link' && now.release) return path.join(place.releases, now.release);
       return null;
     },
-    async publish(tree, releaseId) {
+    async publish(tree, digestId) {
       const before = await readState(place);
-      const release = path.join(place.releases, releaseId);
+      let releaseId = digestId;
+      let release = path.join(place.releases, releaseId);
       const existing = await stat(release).catch(() => null);
-      if (existing) {
-        // Same content digest: that release is already complete; keep it untouched.
+      if (existing && (await holdsTree(release, tree))) {
+        // Same content digest, and the folder still holds exactly that content: keep it untouched.
         await rm(tree, { recursive: true, force: true });
       } else {
+        // A folder of that name whose files were changed by hand is left as it is (a reader may
+        // be on it); the new tree gets a name of its own and the link moves to it.
+        for (let n = 2; existing && existsSync(release); n += 1) {
+          releaseId = `${digestId}-${n}`;
+          release = path.join(place.releases, releaseId);
+        }
         await rename(tree, release);
       }
       const now = await inspectOutput(place);

@@ -198,3 +198,32 @@ describe('rebuild of the demo after one survey changed', () => {
     expect((await stat(entry(holding, secondRelease))).ino).not.toBe((await stat(entry(holding, firstRelease))).ino);
   });
 });
+
+describe('a search index file changed by hand in the release on line', () => {
+  test('is refused with advice that works: --render-all builds the index afresh', { timeout: 900_000 }, async () => {
+    const scenario = path.join(work, 'scenario-hand');
+    await cp(path.join(packageRoot, 'content', 'demo'), scenario, { recursive: true });
+    const out = path.join(work, 'out-hand');
+    const cache = path.join(work, 'cache-hand');
+    const first = await runCli(['build', '--scenario', scenario, '--out', out, '--cache', cache]);
+    expect(first.code, first.stderr).toBe(0);
+    const release = await realpath(out);
+    const parts = readSearchParts(release) ?? [];
+    expect(parts.length).toBe(2);
+    // Someone edits an index file of the release on line; the next build would take that part over.
+    const edited = path.join(release, 'search-index', parts[0]?.name ?? '?', 'pagefind-entry.json');
+    await writeFile(edited, `${await readFile(edited, 'utf8')} `);
+    const refused = await runCli(['build', '--scenario', scenario, '--out', out, '--cache', cache]);
+    expect(refused.code).toBe(1);
+    expect(refused.stderr).toContain('search index reuse');
+    expect(refused.stderr).toContain('--render-all');
+    expect(await realpath(out)).toBe(release);
+    const again = await runCli(['build', '--scenario', scenario, '--out', out, '--cache', cache, '--render-all']);
+    expect(again.code, again.stderr).toBe(0);
+    // Same files as the first release: published under a name of its own, the edited folder left as it was.
+    const fixedRelease = await realpath(out);
+    expect(fixedRelease).toBe(`${release}-2`);
+    expect((await readFile(path.join(fixedRelease, 'search-index', parts[0]?.name ?? '?', 'pagefind-entry.json'), 'utf8')).endsWith(' ')).toBe(false);
+    expect((await readFile(edited, 'utf8')).endsWith(' ')).toBe(true);
+  });
+});
