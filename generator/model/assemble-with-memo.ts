@@ -18,7 +18,7 @@ import { defaultRiskRules } from '../risk/default-rules.ts';
 import type { LoadedScenario, Record as ScenarioRecord } from '../scenario/types.ts';
 import { siteModel, type AssembleModelOptions } from './assemble-model.ts';
 import { composeBulletin } from './compose-bulletin.ts';
-import { composeRegion } from './compose-region.ts';
+import { composeRegion, type RegionInputs } from './compose-region.ts';
 import { regionalTrend, segmentEvaluation } from './evaluate-season.ts';
 import type { IndicatorEvaluation, RegionalResult, SeasonEvaluation, SegmentEvaluation, TrendEngine } from './evaluation-types.ts';
 import { bulletinInputKey, recordText, regionalInputKey, seriesInputKey, type SeasonSide } from './input-keys.ts';
@@ -162,20 +162,8 @@ export function assembleModelWithMemo(scenario: LoadedScenario, engine: TrendEng
 
   const publishedSeasons = new Set(publications.map((p) => p.season));
   const segments = [...scenario.segments].sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
-  // The season as composeRegion reads it: every segment's level and directions.
-  const judged = (state: SeasonState): SeasonEvaluation => {
-    const out = new Map<string, SegmentEvaluation>();
-    for (const [id, verdict] of state.verdict.segments) {
-      out.set(id, {
-        segmentId: id,
-        indicators: verdict.indicators.map((v) => ({ indicator: v.indicator, direction: v.direction }) as IndicatorEvaluation),
-        drift: verdict.drift,
-        level: verdict.level,
-        levelInputs: verdict.levelInputs,
-      });
-    }
-    return { season: state.context.season, segments: out, regional: state.regional, zones: state.zones };
-  };
+  // The season as composeRegion reads it: every segment's level and directions (the verdicts).
+  const judged = (state: SeasonState): RegionInputs => ({ season: state.context.season, segments: state.verdict.segments, regional: state.regional, zones: state.zones });
   const side = (state: SeasonState, segmentId: string): SeasonSide => ({
     seasonId: state.context.seasonId,
     seriesKeys: indicatorIds.map((indicator) => state.keys.get(seriesKey(indicator, segmentId)) as string),

@@ -10,7 +10,7 @@ import { getIndicator } from '../indicators/index.ts';
 import { levelScale } from '../risk/levels.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
 import type { RegionalResult, SeasonEvaluation } from './evaluate-season.ts';
-import type { Direction, IndicatorId, RegionalTrend, RegionSummary } from './types.ts';
+import type { Direction, IndicatorId, LevelResult, RegionalTrend, RegionSummary } from './types.ts';
 
 export function regionalTrendSentence(subject: string, unit: string, result: RegionalResult | null, segments: number, falseDiscoveryRate: number): string {
   const lower = lowerFirst(subject);
@@ -24,7 +24,15 @@ export function regionalTrendSentence(subject: string, unit: string, result: Reg
   return `Across ${places}, we cannot tell if ${lower} is going up or down.`;
 }
 
-export function composeRegion(scenario: LoadedScenario, now: SeasonEvaluation, previous: SeasonEvaluation | null, published: string): RegionSummary {
+/** What composeRegion reads of a season's evaluation (a SeasonEvaluation is one). */
+export interface RegionInputs {
+  season: SeasonEvaluation['season'];
+  segments: ReadonlyMap<string, { level: LevelResult; indicators: readonly { indicator: IndicatorId; direction: Direction }[] }>;
+  regional: SeasonEvaluation['regional'];
+  zones: SeasonEvaluation['zones'];
+}
+
+export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previous: RegionInputs | null, published: string): RegionSummary {
   const settings = scenario.settings;
   const segments = [...scenario.segments].sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
   const rows = segments.map((segment) => {
