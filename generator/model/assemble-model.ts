@@ -33,26 +33,41 @@ function byId<T extends { id: string }>(a: T, b: T): number {
   return a.id < b.id ? -1 : a.id > b.id ? 1 : 0;
 }
 
-export function assembleModel(scenario: LoadedScenario, engine: TrendEngine, options: AssembleModelOptions = {}): BulletinModelSet {
+/**
+ * What a model covers: the rule table in force, the publications whose season is defined, the
+ * seasons to evaluate (each published one and the one before it, in order), the published season
+ * ids, and the segments sorted by id. Shared by assembleModel and assembleModelWithMemo.
+ */
+export function modelScope(scenario: LoadedScenario): {
+  rules: readonly RiskRule[];
+  publications: ScenarioSettings['publications'][number][];
+  wanted: string[];
+  publishedSeasons: Set<string>;
+  segments: LoadedScenario['segments'];
+} {
   const settings = scenario.settings;
   const rules = settings.riskRules.length > 0 ? settings.riskRules : defaultRiskRules;
   const publications = settings.publications.filter((p) => seasonRef(p.season, settings.seasons) !== null);
-
   const wanted: string[] = [];
   for (const publication of publications) {
     const before = previousSeasonId(publication.season, settings.seasons);
     for (const id of [before, publication.season]) if (id && !wanted.includes(id)) wanted.push(id);
   }
+  const publishedSeasons = new Set(publications.map((p) => p.season));
+  return { rules, publications, wanted, publishedSeasons, segments: [...scenario.segments].sort(byId) };
+}
+
+export function assembleModel(scenario: LoadedScenario, engine: TrendEngine, options: AssembleModelOptions = {}): BulletinModelSet {
+  const settings = scenario.settings;
+  const { rules, publications, wanted, publishedSeasons, segments } = modelScope(scenario);
   const evaluations = new Map<string, SeasonEvaluation>();
   wanted.forEach((id, i) => {
     evaluations.set(id, evaluateSeason(scenario, id, rules, engine));
     options.onProgress?.('evaluate', i + 1, wanted.length);
   });
 
-  const publishedSeasons = new Set(publications.map((p) => p.season));
   const regions: RegionSummary[] = [];
   const bulletins: Bulletin[] = [];
-  const segments = [...scenario.segments].sort(byId);
   for (const publication of publications) {
     const now = evaluations.get(publication.season);
     if (!now) continue;

@@ -14,9 +14,8 @@
  */
 import { createHash } from 'node:crypto';
 import { indicatorIds } from '../indicators/index.ts';
-import { defaultRiskRules } from '../risk/default-rules.ts';
 import type { LoadedScenario, Record as ScenarioRecord } from '../scenario/types.ts';
-import { siteModel, type AssembleModelOptions } from './assemble-model.ts';
+import { modelScope, siteModel, type AssembleModelOptions } from './assemble-model.ts';
 import { composeBulletin } from './compose-bulletin.ts';
 import { composeRegion, type RegionInputs } from './compose-region.ts';
 import { regionalTrend, segmentEvaluation } from './evaluate-season.ts';
@@ -24,7 +23,7 @@ import type { IndicatorEvaluation, RegionalResult, SeasonEvaluation, SegmentEval
 import { bulletinInputKey, recordText, regionalInputKey, seriesInputKey, type SeasonSide } from './input-keys.ts';
 import { judgeSeason, summarizeSeries, type SeasonVerdict, type SeriesSummary } from './judge-season.ts';
 import { evaluateSeries, seasonContext, seasonSeries, seriesKey, seriesRecords, type SeasonContext, type SeasonSeries, type SeriesId } from './season-series.ts';
-import { previousSeasonId, seasonRef } from './seasons.ts';
+import { previousSeasonId } from './seasons.ts';
 import type { IndicatorId, RegionSummary, SiteModel } from './types.ts';
 import { listingOf, type BulletinListing } from './listing.ts';
 import { stableJson } from './write-model.ts';
@@ -81,15 +80,8 @@ function sha256(text: string): string {
 export function assembleModelWithMemo(scenario: LoadedScenario, engine: TrendEngine, memo: ModelMemo, options: AssembleModelOptions = {}): MemoModelSet {
   const settings = scenario.settings;
   const settingsText = sha256(JSON.stringify(settings));
-  const rules = settings.riskRules.length > 0 ? settings.riskRules : defaultRiskRules;
-  const publications = settings.publications.filter((p) => seasonRef(p.season, settings.seasons) !== null);
+  const { rules, publications, wanted, publishedSeasons, segments } = modelScope(scenario);
   const counts = { seriesEvaluated: 0, seriesReused: 0, bulletinsComposed: 0, bulletinsReused: 0 };
-
-  const wanted: string[] = [];
-  for (const publication of publications) {
-    const before = previousSeasonId(publication.season, settings.seasons);
-    for (const id of [before, publication.season]) if (id && !wanted.includes(id)) wanted.push(id);
-  }
 
   const texts = new Map<ScenarioRecord, string>();
   const textOf = (record: ScenarioRecord): string => {
@@ -160,8 +152,6 @@ export function assembleModelWithMemo(scenario: LoadedScenario, engine: TrendEng
     options.onProgress?.('evaluate', i + 1, wanted.length);
   });
 
-  const publishedSeasons = new Set(publications.map((p) => p.season));
-  const segments = [...scenario.segments].sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
   // The season as composeRegion reads it: every segment's level and directions (the verdicts).
   const judged = (state: SeasonState): RegionInputs => ({ season: state.context.season, segments: state.verdict.segments, regional: state.regional, zones: state.zones });
   const side = (state: SeasonState, segmentId: string): SeasonSide => ({

@@ -158,13 +158,20 @@ export function seriesKey(indicator: IndicatorId, segmentId: string): string {
   return `${indicator}\u0000${segmentId}`;
 }
 
-export function seasonContext(scenario: LoadedScenario, seasonId: string): SeasonContext {
-  const settings = scenario.settings;
-  const season = seasonRef(seasonId, settings.seasons);
-  if (!season) throw new Error(`evaluateSeason: season ${seasonId} matches no season definition`);
-  const assessment = new Set(assessmentSeasons(seasonId, settings));
-  const segments = [...scenario.segments].sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+interface RecordIndex {
+  byKey: Map<string, ScenarioRecord[]>;
+  monitored: Map<IndicatorId, MonitoredSpan>;
+}
 
+/**
+ * The records by series and each indicator's monitored span, worked out once per list of records
+ * and season definitions (every season of a build reads the same index; nothing changes it). A
+ * list that grew or shrank, or other season definitions, are indexed again.
+ */
+const indexes = new WeakMap<readonly ScenarioRecord[], { length: number; seasons: unknown; index: RecordIndex }>();
+function recordIndex(scenario: LoadedScenario): RecordIndex {
+  const known = indexes.get(scenario.records);
+  if (known && known.length === scenario.records.length && known.seasons === scenario.settings.seasons) return known.index;
   const byKey = new Map<string, ScenarioRecord[]>();
   const monitored = new Map<IndicatorId, MonitoredSpan>();
   for (const record of scenario.records) {
@@ -172,7 +179,7 @@ export function seasonContext(scenario: LoadedScenario, seasonId: string): Seaso
     const list = byKey.get(key);
     if (list) list.push(record);
     else byKey.set(key, [record]);
-    const ref = seasonRef(record.season, settings.seasons);
+    const ref = seasonRef(record.season, scenario.settings.seasons);
     if (!ref) continue;
     const m = monitored.get(record.indicator);
     if (!m) monitored.set(record.indicator, { first: record.season, last: record.season, firstStart: ref.start, lastStart: ref.start });
@@ -181,6 +188,22 @@ export function seasonContext(scenario: LoadedScenario, seasonId: string): Seaso
       if (ref.start > m.lastStart) Object.assign(m, { last: record.season, lastStart: ref.start });
     }
   }
+  const index = { byKey, monitored };
+  indexes.set(scenario.records, { length: scenario.records.length, seasons: scenario.settings.seasons, index });
+  return index;
+}
+
+export function seasonContext(scenario: LoadedScenario, seasonId: string): SeasonContext {
+  const settings = scenario.settings;
+  const season = seasonRef(seasonId, settings.seasons);
+  if (!season) throw new Error(`evaluateSeason: season ${seasonId} matches no season definition`);
+  const assessment = new Set(assessmentSeasons(seasonId, settings));
+  const segments = [...scenario.segments].sort((a, b) => (a.id < b.id ? -1 : a.id > b.id ? 1 : 0));
+
+  const index = recordIndex(scenario);
+  const byKey = index.byKey;
+  // Copies: monitoringStart below changes them for this season only.
+  const monitored = new Map([...index.monitored].map(([indicator, span]) => [indicator, { ...span }]));
 
   // When the scenario says when monitoring began, every season from then to this one is monitored.
   const startSeason = settings.monitoringStart ? seasonOfDate(settings.monitoringStart, settings.seasons) : null;
