@@ -28,7 +28,7 @@ export interface ErrorData {
 /** Shows a value in a message: quoted, control characters made visible, long text shortened. */
 export function quoteValue(value: string | null | undefined): string {
   if (value === null || value === undefined) return '(nothing)';
-  const visible = value.replace(/[\u0000-\u001f\u007f]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
+  const visible = value.replace(/[\u0000-\u001f\u007f\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
   const short = visible.length > 80 ? `${visible.slice(0, 77)}...` : visible;
   return `"${short}"`;
 }
@@ -457,6 +457,80 @@ export class InputValidationError extends Error {
     this.issue = issue;
   }
 }
+
+// ---------------------------------------------------------------------------------------------
+// Hostile and oversized inputs: links out of the folder, polluting keys, bounds, hidden bytes
+// ---------------------------------------------------------------------------------------------
+
+export const ResourceOutsideScenario = {
+  name: 'ResourceOutsideScenario',
+  title: 'Resource resolves outside the scenario folder',
+  message: (file: string, resolved: string) =>
+    `${file}: this path leads through a symbolic link to ${resolved}, outside the scenario folder; it was not read`,
+  hint: 'Copy the file into the scenario folder; links may only point to places inside it',
+} satisfies ErrorData;
+
+export const KeyForbidden = {
+  name: 'KeyForbidden',
+  title: 'Key that could alter objects is not allowed',
+  message: (file: string, path: string) =>
+    `${file}, at ${path}: the keys __proto__, constructor and prototype are not allowed in scenario files; the file was not used`,
+  hint: 'Remove the key; no setting or property of Wrackline has that name',
+} satisfies ErrorData;
+
+export const JsonTooDeep = {
+  name: 'JsonTooDeep',
+  title: 'JSON nested too deeply or too large',
+  message: (file: string, reason: string) => `${file}: ${reason}; the file was not read`,
+  hint: 'Scenario JSON files are shallow; look for a broken export or a file that is not what its name says',
+} satisfies ErrorData;
+
+export const InputTooLarge = {
+  name: 'InputTooLarge',
+  title: 'File larger than Wrackline reads',
+  message: (file: string, row: number | null, reason: string) => `${file}${row === null ? '' : ` row ${row}`}, column (all): ${reason}; reading stopped here`,
+  hint: 'Check that the file is the table it claims to be; split genuinely huge tables or aggregate them first',
+} satisfies ErrorData;
+
+export const LineTooLong = {
+  name: 'LineTooLong',
+  title: 'Line longer than any table row',
+  message: (file: string, row: number, limit: string) =>
+    `${file} row ${row}, column (all): the row is longer than ${limit} (no line end found); reading stopped here`,
+  hint: 'Check the line ends and quotes of the file; a row of a monitoring table is a few hundred characters',
+} satisfies ErrorData;
+
+export const InvalidUtf8 = {
+  name: 'InvalidUtf8',
+  title: 'Bytes that are not UTF-8',
+  message: (file: string, row: number | null, column: string, value: string) =>
+    `${file}${row === null ? '' : ` row ${row}`}, column ${column}: ${quoteValue(value)} holds bytes that are not valid UTF-8 (shown as \u{fffd}); the record was left out`,
+  hint: 'Save the file as UTF-8; a spreadsheet export in another encoding changes letters such as é or ø',
+} satisfies ErrorData;
+
+export const NulInText = {
+  name: 'NulInText',
+  title: 'NUL byte in a text value',
+  message: (file: string, row: number | null, column: string, value: string) =>
+    `${file}${row === null ? '' : ` row ${row}`}, column ${column}: ${quoteValue(value)} holds a NUL byte (\u0000); the record was left out`,
+  hint: 'A NUL byte means the file is binary or was cut badly; export the table again',
+} satisfies ErrorData;
+
+export const HeaderDuplicateColumn = {
+  name: 'HeaderDuplicateColumn',
+  title: 'Column named twice in the header',
+  message: (file: string, column: string, first: number, second: number) =>
+    `${file} row 1, column ${column}: columns ${first} and ${second} are both named ${column}; it is unclear which one holds the values, so the table was not read`,
+  hint: 'Rename or remove one of the two columns',
+} satisfies ErrorData;
+
+export const BidiControlInText = {
+  name: 'BidiControlInText',
+  title: 'Invisible direction control in a text value',
+  message: (file: string, row: number | null, column: string, value: string, codes: string) =>
+    `${file}${row === null ? '' : ` row ${row}`}, column ${column}: ${quoteValue(value)} holds the invisible direction control ${codes}, which can make text read in another order than written; it is kept and shown isolated from the text around it`,
+  hint: 'Remove the control character unless the name really mixes right-to-left and left-to-right writing',
+} satisfies ErrorData;
 
 export interface IssueInput {
   file: string;

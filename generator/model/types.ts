@@ -219,6 +219,8 @@ export interface ValidationReport {
   ok: boolean;                      // no errors
   files: { file: string; read: number; kept: number; excluded: number }[];
   issues: ValidationIssue[];
+  /** Causes with more issues than the reader keeps one by one: how many more were only counted. */
+  omitted?: { file: string; code: string; column: string | null; count: number; severity: 'error' | 'warning'; excluded: boolean }[];
 }
 
 export interface SiteModel {

@@ -16,21 +16,29 @@ import type { TransformCallback } from 'node:stream';
 import { createGunzip } from 'node:zlib';
 import { parse } from 'csv-parse';
 import {
+  BidiControlInText,
   ByteOrderMark,
   CsvUnreadable,
   DelimiterMismatch,
   DuplicateKey,
   FileEmpty,
+  HeaderDuplicateColumn,
   HeaderLooksLikeData,
   HeaderMissingColumn,
   HeaderUnknownColumn,
+  InputTooLarge,
+  InvalidUtf8,
+  LineTooLong,
   MarkupInText,
   NoDataRows,
+  NulInText,
   QuoteNotClosed,
   RowTruncated,
   RowWrongLength,
   WindowsLineEnds,
 } from '../errors.ts';
+import { bidiControls } from './bidi-controls.ts';
+import { ExpansionGuard, InputBoundExceeded, maxRecordChars, maxRecordLabel } from './input-bounds.ts';
 import type { IssueLog } from './issue-log.ts';
 import { containsMarkup } from './markup.ts';
 import type { Dialect } from './package-descriptor.ts';
@@ -78,13 +86,24 @@ function countDelimiters(line: string): Map<string, number> {
 
 function openStream(path: string, compression: string | null, onBytes: (n: number) => void): NodeJS.ReadableStream {
   const raw = createReadStream(path, { highWaterMark: 256 * 1024 });
-  raw.on('data', (chunk: Buffer | string) => onBytes(typeof chunk === 'string' ? Buffer.byteLength(chunk) : chunk.length));
+  let compressed = 0;
+  raw.on('data', (chunk: Buffer | string) => {
+    const n = typeof chunk === 'string' ? Buffer.byteLength(chunk) : chunk.length;
+    compressed += n;
+    onBytes(n);
+  });
   if (compression === 'gz' || compression === 'gzip') {
     const gunzip = createGunzip();
+    const guard = new ExpansionGuard(() => compressed);
     raw.on('error', (error) => gunzip.destroy(error));
-    return raw.pipe(gunzip);
+    gunzip.on('error', (error) => guard.destroy(error));
+    guard.on('error', () => raw.destroy());
+    return raw.pipe(gunzip).pipe(guard);
   }
-  return raw;
+  const guard = new ExpansionGuard(null);
+  raw.on('error', (error) => guard.destroy(error));
+  guard.on('error', () => raw.destroy());
+  return raw.pipe(guard);
 }
 
 /** Reads the first bytes (decompressed) to look at the header line. */
@@ -200,6 +219,7 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
       relax_quotes: true,
       skip_empty_lines: true,
       info: true,
+      max_record_size: maxRecordChars,
     }),
   );
   lastByte.on('error', (error: Error) => parser.destroy(error));
@@ -221,6 +241,20 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
       return false;
     }
     columnIndex = new Map();
+    let usable = true;
+    const firstAt = new Map<string, number>();
+    names.forEach((n, i) => {
+      const first = firstAt.get(n);
+      if (first === undefined) {
+        firstAt.set(n, i);
+        return;
+      }
+      const isKnown = known.has(n);
+      log.add(HeaderDuplicateColumn, HeaderDuplicateColumn.message(file, n, first + 1, i + 1), {
+        file, row: 1, column: n, value: n, expected: 'each column named once', severity: isKnown ? 'error' : 'warning', excluded: isKnown,
+      });
+      if (isKnown) usable = false;
+    });
     names.forEach((n, i) => {
       if (known.has(n) && !columnIndex?.has(n)) columnIndex?.set(n, i);
       else if (!known.has(n)) {
@@ -228,7 +262,6 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
       }
     });
     headerLength = cells.length;
-    let usable = true;
     for (const rule of rules) {
       if (columnIndex.has(rule.name)) continue;
       const essential = options.essentialColumns.includes(rule.name) || rule.required;
@@ -256,6 +289,12 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
     for (const rule of rules) {
       const index = columnIndex?.get(rule.name);
       const raw = index === undefined ? '' : (cells[index] ?? '');
+      const hidden = raw.includes('\ufffd') ? InvalidUtf8 : raw.includes('\0') ? NulInText : null;
+      if (hidden !== null) {
+        bad = true;
+        log.add(hidden, hidden.message(file, line, rule.name, raw), { file, row: line, column: rule.name, value: raw, expected: 'UTF-8 text without control bytes', severity: 'warning', excluded: true });
+        continue;
+      }
       const result = parseCell(raw, rule, options.missingValues, dialect.decimalChar, file, line);
       if (!result.ok) {
         bad = true;
@@ -267,6 +306,12 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
       if (rule.type !== 'integer' && rule.type !== 'number' && typeof result.value === 'string' && containsMarkup(result.value)) {
         log.add(MarkupInText, MarkupInText.message(file, line, rule.name, result.value), {
           file, row: line, column: rule.name, value: result.value, expected: 'plain text', severity: 'warning', excluded: false,
+        });
+      }
+      const controls = typeof result.value === 'string' ? bidiControls(result.value) : [];
+      if (typeof result.value === 'string' && controls.length > 0) {
+        log.add(BidiControlInText, BidiControlInText.message(file, line, rule.name, result.value, controls.join(', ')), {
+          file, row: line, column: rule.name, value: result.value, expected: 'text without direction controls', severity: 'warning', excluded: false,
         });
       }
     }
@@ -292,9 +337,12 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
     else counts.excluded++;
   };
 
+  // Line where the last complete record ended: a record that cannot be finished starts after it.
+  let lastEnd = 0;
   try {
     for await (const item of parser as AsyncIterable<{ record: string[]; info: { lines: number } }>) {
       const cells = item.record;
+      lastEnd = item.info.lines;
       // The record's first line: its end line minus line breaks inside quoted cells.
       const inner = cells.reduce((n, c) => n + (c.match(/\n/g)?.length ?? 0), 0);
       const line = item.info.lines - inner;
@@ -316,12 +364,19 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
   } catch (error) {
     if (held) handleRecord(held.cells, held.line, false);
     const code = (error as { code?: string }).code;
-    const errorLine = (error as { lines?: number }).lines ?? counts.read + 1;
     const reason = error instanceof Error ? error.message : String(error);
-    const entry = code === 'CSV_QUOTE_NOT_CLOSED' ? QuoteNotClosed : CsvUnreadable;
-    log.add(entry, entry.message(file, errorLine, reason), {
-      file, row: errorLine, column: null, value: null, expected: 'well-formed CSV to the end of the file', severity: 'error', excluded: true,
-    });
+    const place = { file, row: lastEnd + 1, column: null, value: null, severity: 'error', excluded: true } as const;
+    if (error instanceof InputBoundExceeded) {
+      log.add(InputTooLarge, InputTooLarge.message(file, lastEnd + 1, reason), { ...place, expected: 'a table of ordinary size' });
+    } else if (code === 'CSV_MAX_RECORD_SIZE') {
+      log.add(LineTooLong, LineTooLong.message(file, lastEnd + 1, maxRecordLabel), { ...place, expected: `rows shorter than ${maxRecordLabel}` });
+    } else if (code === 'CSV_QUOTE_NOT_CLOSED') {
+      // Reported where the quoted cell opens, not where the file ends.
+      log.add(QuoteNotClosed, QuoteNotClosed.message(file, lastEnd + 1, reason), { ...place, expected: 'well-formed CSV to the end of the file' });
+    } else {
+      const errorLine = (error as { lines?: number }).lines ?? counts.read + 1;
+      log.add(CsvUnreadable, CsvUnreadable.message(file, errorLine, reason), { ...place, row: errorLine, expected: 'well-formed CSV to the end of the file' });
+    }
   }
   if (counts.read === 0 && !tableRejected && columnIndex !== null) {
     log.add(NoDataRows, NoDataRows.message(file), { file, row: 2, column: null, value: null, expected: 'at least one data row', severity: 'warning', excluded: false });

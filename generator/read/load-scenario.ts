@@ -7,9 +7,9 @@
  * a build; warnings don't). Throws ScenarioError only when the folder or datapackage.json cannot
  * be read at all.
  */
-import { stat } from 'node:fs/promises';
+import { realpath, stat } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
-import { InputValidationError, NoUsableRows, ResourceFileMissing, ResourceInvalid, ScenarioError, ScenarioFolderUnreadable, SettingsInvalid } from '../errors.ts';
+import { InputValidationError, NoUsableRows, ResourceFileMissing, ResourceInvalid, ResourceOutsideScenario, ScenarioError, ScenarioFolderUnreadable, SettingsInvalid } from '../errors.ts';
 import { readDrift } from '../drift/drift-model.ts';
 import { driftLogEntries, driftMemoKey, replayDriftLog, type DriftMemo } from './drift-memo.ts';
 import { indicatorDefinitions } from '../indicators/index.ts';
@@ -24,6 +24,7 @@ import type { ResourceEntry } from './package-descriptor.ts';
 import { readPackageDescriptor } from './package-descriptor.ts';
 import { readSettings } from './read-settings.ts';
 import { readSegments } from './read-segments.ts';
+import { placeInFolder } from './inside-folder.ts';
 import { seasonRange } from './season-calendar.ts';
 
 export interface LoadOptions {
@@ -94,9 +95,17 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
   // Every listed file must exist; each becomes an input with its digest.
   const inputs: InputFile[] = [];
   const present: ResourceEntry[] = [];
+  const realRoot = await realpath(root);
   for (const resource of descriptor.resources) {
     const path = join(root, resource.path);
     try {
+      const placement = await placeInFolder(realRoot, resource.path);
+      if (!placement.inside) {
+        log.add(ResourceOutsideScenario, ResourceOutsideScenario.message(resource.path, placement.real), {
+          file: resource.path, row: null, column: null, value: resource.path, expected: 'a file inside the scenario folder', severity: 'error', excluded: true,
+        });
+        continue;
+      }
       const info = await stat(path);
       if (!info.isFile()) throw new Error('not a file');
       const digest = await fileDigest(path);
@@ -163,7 +172,8 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
         log,
         onProgress: (done, total) => progress(`reading ${resource.path}`, done, total),
       });
-      records.push(...read);
+      // One by one: spreading a large array into push() overflows the call stack.
+      for (const record of read) records.push(record);
     } catch (error) {
       if (error instanceof InputValidationError) log.push(error.issue);
       else throw error;

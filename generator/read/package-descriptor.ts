@@ -10,11 +10,12 @@
 import { readFile } from 'node:fs/promises';
 import { isAbsolute, normalize } from 'node:path';
 import { z } from 'zod';
-import { PackageDescriptorUnreadable, ResourceInvalid, ScenarioError } from '../errors.ts';
+import { KeyForbidden, PackageDescriptorUnreadable, ResourceInvalid, ScenarioError } from '../errors.ts';
 import { isIndicatorId } from '../indicators/index.ts';
 import type { IndicatorId } from '../model/types.ts';
 import type { IssueLog } from './issue-log.ts';
 import { formatZodPath } from './zod-issues.ts';
+import { parseBoundedJson } from './json-input.ts';
 
 export const resourceRoles = ['settings', 'segments', 'indicator', 'drift-positions', 'drift-trajectories', 'drift-arrivals'] as const;
 export type ResourceRole = (typeof resourceRoles)[number];
@@ -125,13 +126,12 @@ export async function readPackageDescriptor(descriptorPath: string, displayName:
     const reason = error instanceof Error ? error.message : String(error);
     throw new ScenarioError(PackageDescriptorUnreadable, PackageDescriptorUnreadable.message(displayName, reason));
   }
-  let json: unknown;
-  try {
-    json = JSON.parse(text.replace(/^\ufeff/, ''));
-  } catch (error) {
-    const reason = error instanceof Error ? error.message : String(error);
-    throw new ScenarioError(PackageDescriptorUnreadable, PackageDescriptorUnreadable.message(displayName, reason));
+  const outcome = parseBoundedJson(text);
+  if (!outcome.ok) throw new ScenarioError(PackageDescriptorUnreadable, PackageDescriptorUnreadable.message(displayName, outcome.reason));
+  if (outcome.forbidden.length > 0) {
+    throw new ScenarioError(PackageDescriptorUnreadable, KeyForbidden.message(displayName, outcome.forbidden.join(', ')));
   }
+  const json = outcome.value;
   if (typeof json !== 'object' || json === null || Array.isArray(json) || !Array.isArray((json as { resources?: unknown }).resources)) {
     throw new ScenarioError(PackageDescriptorUnreadable, PackageDescriptorUnreadable.message(displayName, 'no "resources" array'));
   }

@@ -16,9 +16,12 @@ import { geoArea, geoLength } from 'd3-geo';
 import { feature as topologyFeature } from 'topojson-client';
 import type { Topology } from 'topojson-specification';
 import {
+  BidiControlInText,
   CoordinateOutOfRange,
   GeometryInvalid,
   GeometrySelfIntersects,
+  JsonTooDeep,
+  KeyForbidden,
   MarkupInText,
   SegmentIdDuplicate,
   SegmentPropertyInvalid,
@@ -29,6 +32,8 @@ import type { Segment } from '../scenario/types.ts';
 import { earthRadiusKm } from '../drift/geodesy.ts';
 import type { IssueLog } from './issue-log.ts';
 import { containsMarkup } from './markup.ts';
+import { parseBoundedJson } from './json-input.ts';
+import { bidiControls } from './bidi-controls.ts';
 
 export const segmentKinds: readonly SegmentKind[] = ['beach', 'bay', 'harbour', 'estuary', 'island-shore', 'rocky-shore', 'lagoon'];
 export const shellfishUses: readonly ShellfishUse[] = ['farmed', 'gathered', 'farmed-and-gathered', 'none'];
@@ -276,6 +281,10 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
       if (typeof text === 'string' && containsMarkup(text)) {
         log.add(MarkupInText, MarkupInText.message(file, row, column, text), { file, row, column, value: text, expected: 'plain text', severity: 'warning', excluded: false });
       }
+      const controls = typeof text === 'string' ? bidiControls(text) : [];
+      if (typeof text === 'string' && controls.length > 0) {
+        log.add(BidiControlInText, BidiControlInText.message(file, row, column, text, controls.join(', ')), { file, row, column, value: text, expected: 'text without direction controls', severity: 'warning', excluded: false });
+      }
     }
     const geometry = raw['geometry'];
     let checked: GeometryCheck | null = null;
@@ -344,15 +353,26 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
 }
 
 export async function readSegments(absolutePath: string, file: string, log: IssueLog): Promise<Segment[]> {
-  let json: unknown;
+  let outcome;
   try {
-    json = JSON.parse((await readFile(absolutePath, 'utf8')).replace(/^\ufeff/, ''));
+    outcome = parseBoundedJson(await readFile(absolutePath, 'utf8'));
   } catch (error) {
-    const reason = error instanceof Error ? error.message : String(error);
-    log.add(SegmentsUnreadable, SegmentsUnreadable.message(file, reason), { file, row: 1, column: null, value: null, expected: 'GeoJSON or TopoJSON', severity: 'error', excluded: true });
+    outcome = { ok: false as const, kind: 'syntax' as const, reason: error instanceof Error ? error.message : String(error) };
+  }
+  if (!outcome.ok || outcome.forbidden.length > 0) {
+    if (!outcome.ok && outcome.kind === 'syntax') {
+      log.add(SegmentsUnreadable, SegmentsUnreadable.message(file, outcome.reason), { file, row: 1, column: null, value: null, expected: 'GeoJSON or TopoJSON', severity: 'error', excluded: true });
+    } else if (!outcome.ok) {
+      log.add(JsonTooDeep, JsonTooDeep.message(file, outcome.reason), { file, row: null, column: null, value: null, expected: 'GeoJSON or TopoJSON nested at most a few levels deep', severity: 'error', excluded: true });
+    } else {
+      for (const path of outcome.forbidden) {
+        log.add(KeyForbidden, KeyForbidden.message(file, path), { file, row: null, column: path, value: path.split(/[.[]/).pop() ?? null, expected: 'no key named __proto__, constructor or prototype', severity: 'error', excluded: true });
+      }
+    }
     log.countsFor(file);
     return [];
   }
+  const json = outcome.value;
   const features = toFeatures(json);
   if ('reason' in features) {
     log.add(SegmentsUnreadable, SegmentsUnreadable.message(file, features.reason), { file, row: 1, column: null, value: null, expected: 'GeoJSON FeatureCollection or TopoJSON Topology', severity: 'error', excluded: true });

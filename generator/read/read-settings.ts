@@ -6,10 +6,11 @@
 import { readFile } from 'node:fs/promises';
 import { parse as parseYaml } from 'yaml';
 import { z } from 'zod';
-import { SettingUnknown, SettingsInvalid, SettingsUnreadable } from '../errors.ts';
+import { JsonTooDeep, KeyForbidden, SettingUnknown, SettingsInvalid, SettingsUnreadable } from '../errors.ts';
 import type { ScenarioSettings } from '../scenario/settings.ts';
 import { settingsSchema } from '../scenario/settings.ts';
 import type { IssueLog } from './issue-log.ts';
+import { checkParsedValue, parseBoundedJson } from './json-input.ts';
 import { formatZodPath } from './zod-issues.ts';
 
 function valueAt(json: unknown, path: readonly (string | number)[]): unknown {
@@ -84,16 +85,33 @@ export function isYamlSettings(file: string, format: string | null = null): bool
 }
 
 export async function readSettings(absolutePath: string, file: string, log: IssueLog, format: string | null = null): Promise<ScenarioSettings | null> {
-  let json: unknown;
-  try {
-    const text = (await readFile(absolutePath, 'utf8')).replace(/^\ufeff/, '');
-    json = isYamlSettings(file, format) ? parseYaml(text) : JSON.parse(text);
-  } catch (error) {
-    const reason = error instanceof Error ? error.message : String(error);
+  const unreadable = (reason: string): null => {
     log.add(SettingsUnreadable, SettingsUnreadable.message(file, reason), {
       file, row: null, column: null, value: null, expected: 'a JSON object of settings', severity: 'error', excluded: true,
     });
     return null;
+  };
+  let outcome;
+  try {
+    const text = (await readFile(absolutePath, 'utf8')).replace(/^\ufeff/, '');
+    outcome = isYamlSettings(file, format) ? checkParsedValue(parseYaml(text, { maxAliasCount: 100 })) : parseBoundedJson(text);
+  } catch (error) {
+    return unreadable(error instanceof Error ? error.message : String(error));
   }
-  return validateSettings(json, file, log);
+  if (!outcome.ok) {
+    if (outcome.kind === 'syntax') return unreadable(outcome.reason);
+    log.add(JsonTooDeep, JsonTooDeep.message(file, outcome.reason), {
+      file, row: null, column: null, value: null, expected: `settings nested at most a few levels deep`, severity: 'error', excluded: true,
+    });
+    return null;
+  }
+  if (outcome.forbidden.length > 0) {
+    for (const path of outcome.forbidden) {
+      log.add(KeyForbidden, KeyForbidden.message(file, path), {
+        file, row: null, column: path, value: path.split(/[.[]/).pop() ?? null, expected: 'no key named __proto__, constructor or prototype', severity: 'error', excluded: true,
+      });
+    }
+    return null;
+  }
+  return validateSettings(outcome.value, file, log);
 }

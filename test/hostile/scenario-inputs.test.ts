@@ -1,0 +1,179 @@
+// Broken and hostile inputs at the reader: each test is named after the case it holds. The
+// scenario is the small invented fixture (test/fixtures/inputs/base); the hostile parts are made
+// here. What counts as a bidirectional control character: Unicode Standard Annex #9 (Unicode
+// Bidirectional Algorithm), table 4 "Bidirectional character types" (LRE, RLE, PDF, LRO, RLO,
+// LRI, RLI, FSI, PDI) and Unicode Technical Report #36 section 2.1 (bidirectional spoofing).
+import { mkdirSync, mkdtempSync, readFileSync, symlinkSync, writeFileSync } from 'node:fs';
+import { tmpdir } from 'node:os';
+import { join } from 'node:path';
+import { gzipSync } from 'node:zlib';
+import { describe, expect, test } from 'vitest';
+import { loadScenario } from '../../generator/read/load-scenario.ts';
+import { baseScenario, beachHeader, expectIssue, resourceNamed, scenarioCopy } from '../read/fixture-scenario.ts';
+
+const beach = 'tables/beach-litter.csv';
+
+function outsideFolder(): string {
+  return mkdtempSync(join(tmpdir(), 'wrackline-outside-'));
+}
+
+function countsOf(scenario: Awaited<ReturnType<typeof loadScenario>>, file: string) {
+  return scenario.report.files.find((f) => f.file === file);
+}
+
+describe('escapes: nothing is read outside the scenario folder', () => {
+  test('symlinked resource file outside the scenario is refused and its content never quoted', async () => {
+    const outside = outsideFolder();
+    const secret = 'survey_id,segment_id,date,surveyed_length_m,items,plastic_items,area_m2\nSECRET-ROW,north-beach,2026-01-15,100,999,,\n';
+    writeFileSync(join(outside, 'private.csv'), secret);
+    const dir = scenarioCopy({ files: { [beach]: null } });
+    symlinkSync(join(outside, 'private.csv'), join(dir, beach));
+    const scenario = await loadScenario(dir);
+    expectIssue(scenario.report.issues, { code: 'ResourceOutsideScenario', file: beach, severity: 'error', excluded: true });
+    expect(JSON.stringify(scenario.report)).not.toContain('SECRET-ROW');
+    expect(scenario.records.some((r) => r.source.file === beach)).toBe(false);
+    expect(scenario.inputs.some((i) => i.file === beach)).toBe(false);
+    expect(scenario.report.ok).toBe(false);
+  });
+
+  test('symlinked resource folder outside the scenario is refused and check fails', async () => {
+    const outside = outsideFolder();
+    const dir = scenarioCopy();
+    mkdirSync(join(outside, 'tables'));
+    writeFileSync(join(outside, 'tables', 'beach-litter.csv'), readFileSync(join(baseScenario, beach)));
+    const linked = join(dir, 'linked');
+    symlinkSync(join(outside, 'tables'), linked, 'dir');
+    writeFileSync(join(dir, 'datapackage.json'), readFileSync(join(dir, 'datapackage.json'), 'utf8').replace('"tables/beach-litter.csv"', '"linked/beach-litter.csv"'));
+    const scenario = await loadScenario(dir);
+    expectIssue(scenario.report.issues, { code: 'ResourceOutsideScenario', file: 'linked/beach-litter.csv', severity: 'error' });
+    expect(scenario.report.ok).toBe(false);
+  });
+
+  test('a link that stays inside the scenario folder is still read', async () => {
+    const dir = scenarioCopy();
+    mkdirSync(join(dir, 'alias'));
+    symlinkSync(join(dir, beach), join(dir, 'alias', 'beach.csv'));
+    writeFileSync(join(dir, 'datapackage.json'), readFileSync(join(dir, 'datapackage.json'), 'utf8').replace('"tables/beach-litter.csv"', '"alias/beach.csv"'));
+    const scenario = await loadScenario(dir);
+    expect(scenario.report.issues).toEqual([]);
+    expect(countsOf(scenario, 'alias/beach.csv')?.kept).toBe(5);
+  });
+
+  test('settings with a __proto__ key are refused and nothing is polluted', async () => {
+    const settings = JSON.parse(readFileSync(join(baseScenario, 'scenario.json'), 'utf8')) as { [key: string]: unknown };
+    const text = JSON.stringify(settings).replace('"invented":true', '"invented":true,"__proto__":{"polluted":"yes"},"drift":{"constructor":{"prototype":{"polluted":"yes"}}}').replace(/,"drift":\{"arrivalDistanceKm[^}]*\}/, '');
+    const dir = scenarioCopy({ files: { 'scenario.json': text } });
+    const scenario = await loadScenario(dir);
+    const issue = expectIssue(scenario.report.issues, { code: 'KeyForbidden', file: 'scenario.json', column: '$.__proto__', severity: 'error' });
+    expect(issue.message).toContain('__proto__, constructor and prototype');
+    expectIssue(scenario.report.issues, { code: 'KeyForbidden', file: 'scenario.json', column: '$.drift.constructor', severity: 'error' });
+    expect(({} as { polluted?: string }).polluted).toBeUndefined();
+    expect(Object.getPrototypeOf(scenario.settings)).toBe(Object.prototype);
+    expect((scenario.settings as unknown as { polluted?: string }).polluted).toBeUndefined();
+  });
+
+  test('a __proto__ key in a segment property or the data package is refused', async () => {
+    const segments = readFileSync(join(baseScenario, 'segments.geojson'), 'utf8').replace('"place": "Invented Town"', '"place": "Invented Town", "__proto__": {"admin": true}');
+    const scenario = await loadScenario(scenarioCopy({ files: { 'segments.geojson': segments } }));
+    expectIssue(scenario.report.issues, { code: 'KeyForbidden', file: 'segments.geojson', severity: 'error' });
+  });
+
+  test('a right-to-left override in a segment name is flagged at check', async () => {
+    const segments = readFileSync(join(baseScenario, 'segments.geojson'), 'utf8').replace('"North Beach"', '"North \u202eBeach"');
+    const scenario = await loadScenario(scenarioCopy({ files: { 'segments.geojson': segments } }));
+    const issue = expectIssue(scenario.report.issues, { code: 'BidiControlInText', file: 'segments.geojson', severity: 'warning' });
+    expect(issue.message).toContain('U+202E');
+  });
+
+  test('a bidirectional control character in a table text cell is flagged', async () => {
+    const dir = scenarioCopy({ files: { [beach]: `${beachHeader}\nBL-\u20661,north-beach,2026-01-15,100,25,,\n` } });
+    const scenario = await loadScenario(dir);
+    expectIssue(scenario.report.issues, { code: 'BidiControlInText', file: beach, row: 2, column: 'survey_id', severity: 'warning' });
+  });
+});
+
+describe('losses: nothing disappears without a word', () => {
+  test('invalid UTF-8 in a cell is named at its row and column', async () => {
+    const bytes = Buffer.concat([Buffer.from(`${beachHeader}\nBL-1,north-beach,2026-01-15,100,25,,\nBL-`), Buffer.from([0xff, 0xfe]), Buffer.from(',north-beach,2026-01-16,100,25,,\n')]);
+    const scenario = await loadScenario(scenarioCopy({ files: { [beach]: bytes } }));
+    const issue = expectIssue(scenario.report.issues, { code: 'InvalidUtf8', file: beach, row: 3, column: 'survey_id', excluded: true });
+    expect(issue.severity).toBe('warning');
+    expect(countsOf(scenario, beach)).toEqual({ file: beach, read: 2, kept: 1, excluded: 1 });
+  });
+
+  test('a NUL byte in a text cell is named at its row and column', async () => {
+    const scenario = await loadScenario(scenarioCopy({ files: { [beach]: `${beachHeader}\nBL-1,north-beach,2026-01-15,100,25,,\nBL-\u00002,north-beach,2026-01-16,100,25,,\n` } }));
+    expectIssue(scenario.report.issues, { code: 'NulInText', file: beach, row: 3, column: 'survey_id', excluded: true });
+    expect(countsOf(scenario, beach)).toEqual({ file: beach, read: 2, kept: 1, excluded: 1 });
+  });
+
+  test('a duplicated column header is an error naming both columns', async () => {
+    const scenario = await loadScenario(scenarioCopy({ files: { [beach]: `${beachHeader},items\nBL-1,north-beach,2026-01-15,100,25,,,40\n` } }));
+    const issue = expectIssue(scenario.report.issues, { code: 'HeaderDuplicateColumn', file: beach, row: 1, column: 'items', severity: 'error', excluded: true });
+    expect(issue.message).toContain('columns 5 and 8');
+    expect(scenario.report.ok).toBe(false);
+  });
+});
+
+describe('crashes and hangs: bounded reading', () => {
+  test('a 125,000-row table is read without a stack overflow', async () => {
+    const rows: string[] = [beachHeader];
+    for (let i = 0; i < 125_000; i++) rows.push(`BL-${i},north-beach,2026-0${1 + (i % 8)}-15,100,${i % 50},,`);
+    const scenario = await loadScenario(scenarioCopy({ files: { [beach]: `${rows.join('\n')}\n` } }));
+    expect(countsOf(scenario, beach)).toEqual({ file: beach, read: 125_000, kept: 125_000, excluded: 0 });
+    expect(scenario.records.filter((r) => r.indicator === 'beach-litter')).toHaveLength(125_000);
+  }, 120_000);
+
+  test('deeply nested JSON in settings ends with a clear error naming the file', async () => {
+    const deep = `{"region":${'['.repeat(200_000)}${']'.repeat(200_000)}}`;
+    const scenario = await loadScenario(scenarioCopy({ files: { 'scenario.json': deep } }));
+    const issue = expectIssue(scenario.report.issues, { code: 'JsonTooDeep', file: 'scenario.json', severity: 'error' });
+    expect(issue.message).toMatch(/nested deeper than \d+ levels/);
+  });
+
+  test('deeply nested JSON in segments ends with a clear error naming the file', async () => {
+    const deep = `{"type":"FeatureCollection","features":[{"type":"Feature","properties":{"id":"a","name":"A","kind":"beach","shellfish":"none","x":${'{"a":'.repeat(200_000)}1${'}'.repeat(200_000)}},"geometry":null}]}`;
+    const scenario = await loadScenario(scenarioCopy({ files: { 'segments.geojson': deep } }));
+    expectIssue(scenario.report.issues, { code: 'JsonTooDeep', file: 'segments.geojson', severity: 'error' });
+  });
+
+  test('an unclosed quote is reported on the row where it opens', async () => {
+    const rows = [beachHeader];
+    for (let i = 1; i <= 4; i++) rows.push(`BL-${i},north-beach,2026-01-1${i},100,25,,`);
+    rows.push('"BL-5,north-beach,2026-01-20,100,25,,');
+    for (let i = 6; i <= 700; i++) rows.push(`BL-${i},north-beach,2026-01-15,100,25,,`);
+    const scenario = await loadScenario(scenarioCopy({ files: { [beach]: `${rows.join('\n')}\n` } }));
+    expectIssue(scenario.report.issues, { code: 'QuoteNotClosed', file: beach, row: 6, severity: 'error' });
+  });
+
+  test('a gzip bomb stops at the expansion bound with a clear error', async () => {
+    const body = Buffer.from(`${'A'.repeat(1023)}\n`.repeat(100 * 1024));
+    const bomb = gzipSync(Buffer.concat([Buffer.from(`${beachHeader}\n`), body]), { level: 9 });
+    const dir = scenarioCopy({ descriptor: (d) => { resourceNamed(d, 'beach-litter')['path'] = 'tables/beach-litter.csv.gz'; } });
+    writeFileSync(join(dir, 'tables/beach-litter.csv.gz'), bomb);
+    const before = process.memoryUsage().rss;
+    const scenario = await loadScenario(dir);
+    const issue = expectIssue(scenario.report.issues, { code: 'InputTooLarge', file: 'tables/beach-litter.csv.gz', severity: 'error' });
+    expect(issue.message).toMatch(/expands more than/);
+    expect(process.memoryUsage().rss - before).toBeLessThan(400 * 1024 * 1024);
+  }, 60_000);
+
+  test('a table whose every row is bad keeps the first issues per cause in full and counts the rest', async () => {
+    const rows = [beachHeader];
+    for (let i = 0; i < 5000; i++) rows.push(`BL-${i},north-beach,2026-01-15,100,many,,`);
+    const scenario = await loadScenario(scenarioCopy({ files: { [beach]: `${rows.join('\n')}\n` } }));
+    const wrongType = scenario.report.issues.filter((i) => i.code === 'ValueWrongType' && i.file === beach);
+    expect(wrongType.filter((i) => i.row !== null)).toHaveLength(1000);
+    const summary = wrongType.filter((i) => i.row === null);
+    expect(summary).toHaveLength(1);
+    expect(summary[0]?.message).toContain('4,000 more records left out for the same reason (ValueWrongType)');
+    expect(scenario.report.omitted).toEqual([{ file: beach, code: 'ValueWrongType', column: 'items', count: 4000, severity: 'warning', excluded: true }]);
+    expect(countsOf(scenario, beach)).toEqual({ file: beach, read: 5000, kept: 0, excluded: 5000 });
+  });
+
+  test('a 10 MB line with no newline stops at the line bound with a clear error', async () => {
+    const scenario = await loadScenario(scenarioCopy({ files: { [beach]: `${beachHeader}\nBL-1,north-beach,2026-01-15,100,25,,\n${'x'.repeat(10 * 1024 * 1024)}` } }));
+    const issue = expectIssue(scenario.report.issues, { code: 'LineTooLong', file: beach, row: 3, severity: 'error' });
+    expect(issue.message).toContain('1 MB');
+  }, 30_000);
+});
