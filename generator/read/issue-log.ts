@@ -35,8 +35,8 @@ export interface OmittedIssues {
 
 export const defaultPerCauseLimit = 1000;
 
-function causeKey(item: { code: string; file: string; column: string | null }): string {
-  return `${item.code}\u0000${item.file}\u0000${item.column ?? ''}`;
+function causeKey(item: { code?: string | undefined; file: string; column: string | null }): string {
+  return `${item.code ?? ''}\u0000${item.file}\u0000${item.column ?? ''}`;
 }
 
 export class IssueLog {
@@ -72,7 +72,7 @@ export class IssueLog {
       return;
     }
     const example = this.issues.find((i) => causeKey(i) === key) ?? item;
-    this.omitted.set(key, { file: item.file, code: item.code, column: item.column, count: 1, severity: item.severity, excluded: item.excluded, example });
+    this.omitted.set(key, { file: item.file, code: item.code ?? 'unnamed', column: item.column, count: 1, severity: item.severity, excluded: item.excluded, example });
   }
 
   /** Issues of capped causes that were counted but not kept. */
