@@ -21,6 +21,7 @@ import { buildRelease } from '../publish/build-release.ts';
 import type { BuildSteps } from '../publish/build-steps.ts';
 import { PublishError } from '../publish/publish-error.ts';
 import { placeFor } from '../publish/release-swap.ts';
+import { outputPlaceProblem, plainWriteFailure } from '../publish/output-place.ts';
 import { siteFingerprint } from '../publish/page-reuse.ts';
 
 export const buildHelp = `Usage: wrackline build [options]
@@ -154,6 +155,12 @@ export async function runBuild(argv: string[], options: RunBuildOptions = {}): P
   if (out === path.parse(out).root || scenario === out || scenario.startsWith(`${out}${path.sep}`)) {
     return usageError(stderr, 'build', new Error(`--out ${out} would replace the scenario or the file system root; choose a folder of its own`));
   }
+  // Before anything is created (the cache lives beside the output): refuse a place we must not use.
+  const placeProblem = await outputPlaceProblem(out);
+  if (placeProblem !== null) {
+    stderr(`wrackline build: ${placeProblem}`);
+    return 2;
+  }
   const cache = values['no-cache'] ? null : path.resolve(values.cache ?? path.join(placeFor(out).state, 'cache'));
   const progress = options.progress ?? createProgress({ quiet: values.quiet === true });
   const started = performance.now();
@@ -179,6 +186,11 @@ export async function runBuild(argv: string[], options: RunBuildOptions = {}): P
     }
     if (error instanceof Error && error.name === 'ScenarioError') {
       stderr(`wrackline build: ${error.message}`);
+      return 2;
+    }
+    const writeFailure = plainWriteFailure(error, out);
+    if (writeFailure !== null) {
+      stderr(`wrackline build: ${writeFailure}`);
       return 2;
     }
     if (errorCode(error) === 'ENOENT' || errorCode(error) === 'EACCES') {

@@ -173,7 +173,8 @@ export async function openPublishSession(out: string, log: (line: string) => voi
       2,
     );
   }
-  if (found.kind === 'folder' && !existsSync(place.state)) {
+  // Checked whether or not the state folder exists: the cache may have created it already.
+  if (found.kind === 'folder') {
     const entries = await readdir(place.out);
     if (entries.length > 0 && !(await isOurPublishedFolder(place.out))) {
       throw new PublishError(
