@@ -98,7 +98,7 @@ export async function outputPlaceProblem(out: string): Promise<string | null> {
   if (found.kind === 'folder') {
     const entries = await readdir(absolute);
     if (entries.length > 0 && !(await publishedByUs(absolute))) {
-      return `refusing to use ${absolute}: it is a folder of ${entries.length.toLocaleString('en-GB')} item(s) not published by this tool (no wrackline manifest.json), and publishing would replace it. Remove it or choose another --out`;
+      return `refusing to replace ${absolute}: it is a folder of ${entries.length.toLocaleString('en-GB')} item(s) not published by this tool (no wrackline manifest.json), and publishing would replace it. Remove it or choose another --out`;
     }
   }
   return null;
