@@ -14,3 +14,14 @@ export function bidiControls(text: string): string[] {
   if (!found) return [];
   return [...new Set(found)].map((c) => `U+${(c.codePointAt(0) ?? 0).toString(16).toUpperCase().padStart(4, '0')}`);
 }
+
+/**
+ * The text as an isolate when it holds direction controls: wrapped in FIRST STRONG ISOLATE
+ * (U+2068) and POP DIRECTIONAL ISOLATE (U+2069), the plain-text form of HTML's <bdi> (UAX #9,
+ * rule X6a: a PDI ends every embedding and override opened inside the isolate). Wherever the
+ * text is then shown — a heading, a sentence, a page title, the feed — an override inside it
+ * cannot reorder the words around it. Text without controls is returned unchanged.
+ */
+export function isolateBidi(text: string): string {
+  return bidiControls(text).length === 0 ? text : `\u2068${text}\u2069`;
+}

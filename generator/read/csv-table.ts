@@ -37,7 +37,7 @@ import {
   RowWrongLength,
   WindowsLineEnds,
 } from '../errors.ts';
-import { bidiControls } from './bidi-controls.ts';
+import { bidiControls, isolateBidi } from './bidi-controls.ts';
 import { ExpansionGuard, InputBoundExceeded, maxRecordChars, maxRecordLabel } from './input-bounds.ts';
 import type { IssueLog } from './issue-log.ts';
 import { containsMarkup } from './markup.ts';
@@ -301,14 +301,14 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
         log.add(result.problem.entry, result.problem.message, { file, row: line, column: rule.name, value: raw, expected: result.problem.expected, severity: 'warning', excluded: true });
         continue;
       }
-      row.values[rule.name] = result.value;
+      const controls = typeof result.value === 'string' ? bidiControls(result.value) : [];
+      row.values[rule.name] = typeof result.value === 'string' && controls.length > 0 ? isolateBidi(result.value) : result.value;
       row.censored[rule.name] = result.censored;
       if (rule.type !== 'integer' && rule.type !== 'number' && typeof result.value === 'string' && containsMarkup(result.value)) {
         log.add(MarkupInText, MarkupInText.message(file, line, rule.name, result.value), {
           file, row: line, column: rule.name, value: result.value, expected: 'plain text', severity: 'warning', excluded: false,
         });
       }
-      const controls = typeof result.value === 'string' ? bidiControls(result.value) : [];
       if (typeof result.value === 'string' && controls.length > 0) {
         log.add(BidiControlInText, BidiControlInText.message(file, line, rule.name, result.value, controls.join(', ')), {
           file, row: line, column: rule.name, value: result.value, expected: 'text without direction controls', severity: 'warning', excluded: false,

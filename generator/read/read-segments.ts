@@ -33,7 +33,7 @@ import { earthRadiusKm } from '../drift/geodesy.ts';
 import type { IssueLog } from './issue-log.ts';
 import { containsMarkup } from './markup.ts';
 import { parseBoundedJson } from './json-input.ts';
-import { bidiControls } from './bidi-controls.ts';
+import { bidiControls, isolateBidi } from './bidi-controls.ts';
 
 export const segmentKinds: readonly SegmentKind[] = ['beach', 'bay', 'harbour', 'estuary', 'island-shore', 'rocky-shore', 'lagoon'];
 export const shellfishUses: readonly ShellfishUse[] = ['farmed', 'gathered', 'farmed-and-gathered', 'none'];
@@ -339,10 +339,10 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
     }
     segments.push({
       id,
-      name: String(name),
+      name: isolateBidi(String(name)),
       kind: kind as SegmentKind,
       shellfish: shellfish as ShellfishUse,
-      place,
+      place: place === null ? null : isolateBidi(place),
       lengthKm,
       geometry: shape,
       bbox: [west, south, east, north],

@@ -6,11 +6,12 @@
 import { readFile } from 'node:fs/promises';
 import { parse as parseYaml } from 'yaml';
 import { z } from 'zod';
-import { JsonTooDeep, KeyForbidden, SettingUnknown, SettingsInvalid, SettingsUnreadable } from '../errors.ts';
+import { BidiControlInText, JsonTooDeep, KeyForbidden, SettingUnknown, SettingsInvalid, SettingsUnreadable } from '../errors.ts';
 import type { ScenarioSettings } from '../scenario/settings.ts';
 import { settingsSchema } from '../scenario/settings.ts';
 import type { IssueLog } from './issue-log.ts';
 import { checkParsedValue, parseBoundedJson } from './json-input.ts';
+import { bidiControls, isolateBidi } from './bidi-controls.ts';
 import { formatZodPath } from './zod-issues.ts';
 
 function valueAt(json: unknown, path: readonly (string | number)[]): unknown {
@@ -113,5 +114,22 @@ export async function readSettings(absolutePath: string, file: string, log: Issu
     }
     return null;
   }
-  return validateSettings(outcome.value, file, log);
+  return validateSettings(isolateSettingText(outcome.value, file, log, '$'), file, log);
+}
+
+/** Every text setting holding direction controls is reported and kept as an isolate (bidi-controls.ts). */
+function isolateSettingText(value: unknown, file: string, log: IssueLog, path: string): unknown {
+  if (typeof value === 'string') {
+    const controls = bidiControls(value);
+    if (controls.length === 0) return value;
+    log.add(BidiControlInText, BidiControlInText.message(file, null, path, value, controls.join(', ')), {
+      file, row: null, column: path, value, expected: 'text without direction controls', severity: 'warning', excluded: false,
+    });
+    return isolateBidi(value);
+  }
+  if (Array.isArray(value)) return value.map((item, i) => isolateSettingText(item, file, log, `${path}[${i}]`));
+  if (value === null || typeof value !== 'object') return value;
+  const copy: { [key: string]: unknown } = {};
+  for (const [key, item] of Object.entries(value)) copy[key] = isolateSettingText(item, file, log, `${path}.${key}`);
+  return copy;
 }

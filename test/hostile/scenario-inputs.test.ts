@@ -83,6 +83,16 @@ describe('escapes: nothing is read outside the scenario folder', () => {
     const scenario = await loadScenario(scenarioCopy({ files: { 'segments.geojson': segments } }));
     const issue = expectIssue(scenario.report.issues, { code: 'BidiControlInText', file: 'segments.geojson', severity: 'warning' });
     expect(issue.message).toContain('U+202E');
+    // Kept as written, inside FIRST STRONG ISOLATE … POP DIRECTIONAL ISOLATE (UAX #9, X6a).
+    expect(scenario.segments.find((s) => s.id === 'north-beach')?.name).toBe('\u2068North \u202eBeach\u2069');
+    expect(scenario.segments.find((s) => s.id === 'harbour-mouth')?.name).toBe('Harbour Mouth');
+  });
+
+  test('a right-to-left override in a setting is flagged and isolated', async () => {
+    const settings = readFileSync(join(baseScenario, 'scenario.json'), 'utf8').replace('"Test Coast (invented)"', '"Test \u202eCoast"');
+    const scenario = await loadScenario(scenarioCopy({ files: { 'scenario.json': settings } }));
+    expectIssue(scenario.report.issues, { code: 'BidiControlInText', file: 'scenario.json', column: '$.region.name', severity: 'warning' });
+    expect(scenario.settings.region.name).toBe('\u2068Test \u202eCoast\u2069');
   });
 
   test('a bidirectional control character in a table text cell is flagged', async () => {

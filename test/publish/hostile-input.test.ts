@@ -37,8 +37,10 @@ beforeAll(async () => {
   const segments = JSON.parse(await readFile(segmentsFile, 'utf8')) as {
     features: { properties: { id: string; name: string; place?: string | null } }[];
   };
-  const [first, second] = segments.features;
-  if (!first || !second) throw new Error('the demo needs two segments');
+  const [first, second, third] = segments.features;
+  if (!first || !second || !third) throw new Error('the demo needs three segments');
+  // A right-to-left override (U+202E) that would reverse the text after it (Unicode TR #36 §2.1).
+  third.properties.name = `${third.properties.name} \u202eStrand`;
   first.properties.name = `${scriptTag} Head`;
   first.properties.place = attributeBreak;
   second.properties.name = `${scriptUrl} Sands`;
@@ -87,6 +89,19 @@ afterAll(async () => {
 describe('hostile input', () => {
   test('the hostile scenario builds (the text is data, not a reason to fail)', () => {
     expect(build.code, build.stderr).toBe(0);
+  });
+
+  test('a right-to-left override in a segment name never reaches a page outside an isolate', async () => {
+    const files = (await listFiles(out)).filter((file) => /\.(html|xml|json)$/.test(file));
+    let pagesWithOverride = 0;
+    for (const file of files) {
+      const text = await readFile(path.join(out, file), 'utf8');
+      if (!text.includes('\u202e')) continue;
+      pagesWithOverride++;
+      // Strip every isolate (U+2068 … U+2069); no override may be left outside one.
+      expect(text.replace(/\u2068[^\u2068\u2069]*\u2069/g, '').includes('\u202e'), `${file} shows U+202E outside an isolate`).toBe(false);
+    }
+    expect(pagesWithOverride).toBeGreaterThan(3);
   });
 
   test.skipIf(!existsSync(chromiumPath))('in Chromium nothing executes and the text shows literally', { timeout: 600_000 }, async () => {
