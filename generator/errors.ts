@@ -430,6 +430,22 @@ export const PositionsOutsideSeasons = {
   hint: 'Check the season definitions in scenario.json cover all twelve months',
 } satisfies ErrorData;
 
+export const PositionsOutsidePeriod = {
+  name: 'PositionsOutsidePeriod',
+  title: 'Positions dated outside the scenario',
+  message: (file: string, count: number, first: string, start: string, end: string) =>
+    `${file} row (several), column time: ${count} position(s) are dated outside ${start} to ${end} (first: ${first}); they were left out`,
+  hint: 'Check the time units and reference date of the drift-model output; positions must fall between the monitoring start and the publication date',
+} satisfies ErrorData;
+
+export const DriftFarFromCoast = {
+  name: 'DriftFarFromCoast',
+  title: 'Drift positions nowhere near the coast',
+  message: (file: string, box: string, coast: string) =>
+    `${file} row (several), column lon/lat: every position lies in ${box}, more than 10 degrees from the segments (${coast}); longitude and latitude may be in radians or swapped; the file was not used`,
+  hint: 'Write positions as longitude and latitude in degrees (WGS84), longitude first',
+} satisfies ErrorData;
+
 // ---------------------------------------------------------------------------------------------
 // Error classes
 // ---------------------------------------------------------------------------------------------

@@ -135,6 +135,14 @@ export function decodeTrajectories(dataset: NetcdfDataset, file: string, log: Is
   if (!lat) throw notTrajectory(file, 'lat', 'no latitude variable (standard_name "latitude" or units "degrees_north")');
   if (!time) throw notTrajectory(file, 'time', 'no time variable (standard_name "time" or units "<unit> since <date>")');
   if (lon.dimensions.join() !== lat.dimensions.join()) throw notTrajectory(file, 'lat', `longitude ${JSON.stringify(lon.dimensions)} and latitude ${JSON.stringify(lat.dimensions)} have different dimensions`);
+  // CF Conventions §4.1: longitude in degrees_east, latitude in degrees_north (or their listed
+  // spellings); anything else (radians, metres of a projection) would place particles wrongly.
+  for (const [variable, axis, pattern] of [[lon, 'longitude', /^degrees?_?(east|e)$/i], [lat, 'latitude', /^degrees?_?(north|n)$/i]] as const) {
+    const declared = text(variable.attributes['units']);
+    if (declared !== null && !pattern.test(declared.trim())) {
+      throw notTrajectory(file, variable.name, `${axis} units are ${JSON.stringify(declared)}; expected degrees_${axis === 'longitude' ? 'east' : 'north'} (CF conventions, section 4.1)`);
+    }
+  }
   const units = parseTimeUnits(text(time.attributes['units']) ?? '');
   if ('reason' in units) throw notTrajectory(file, time.name, units.reason);
   checkCalendar(time, file);

@@ -22,6 +22,7 @@ import { readArrivalsTable } from './arrivals-table.ts';
 import { DriftTally } from './drift-tally.ts';
 import { readTrajectoryFile } from './trajectory-file.ts';
 import { readPositionsCsv } from './positions-csv.ts';
+import { DriftPeriodGuard } from './drift-period.ts';
 import { seasonRange } from '../read/season-calendar.ts';
 
 export interface DriftInput {
@@ -65,6 +66,7 @@ export async function readDrift(input: DriftInput): Promise<DriftResult | null> 
   if (positions.length + trajectories.length + tables.length === 0) return null;
 
   const mainTally = new DriftTally(segments, settings.seasons, settings.drift.arrivalDistanceKm);
+  const period = new DriftPeriodGuard(settings, segments);
   const useTrajectories = positions.length === 0;
   // Positions in months no season covers are counted, not listed one by one (files are huge).
   const reportOutside = (file: string, before: number): void => {
@@ -85,9 +87,10 @@ export async function readDrift(input: DriftInput): Promise<DriftResult | null> 
       delimiter: resource.dialect.delimiter,
       log,
       onProgress: (done, total) => input.onProgress?.(`reading ${resource.path}`, done, total),
-      onPosition: (particle, timeMs, lon, lat, ashore) => mainTally.add(particle, timeMs, lon, lat, ashore),
+      onPosition: (particle, timeMs, lon, lat, ashore) => period.admit(timeMs, lon, lat) && mainTally.add(particle, timeMs, lon, lat, ashore),
     });
     reportOutside(resource.path, before);
+    period.report(resource.path, log);
   }
   for (const [fileNumber, { resource, absolutePath }] of trajectories.entries()) {
     input.onProgress?.(`reading ${resource.path}`, 0);
@@ -97,8 +100,9 @@ export async function readDrift(input: DriftInput): Promise<DriftResult | null> 
     try {
       // Trajectory numbers restart in every file: an offset per file keeps particles distinct.
       const offset = fileNumber * 100_000_000;
-      await readTrajectoryFile(absolutePath, resource.path, log, (p) => (tally ? tally.add(p.particle + offset, p.timeMs, p.lon, p.lat, p.ashore) : true));
+      await readTrajectoryFile(absolutePath, resource.path, log, (p) => period.admit(p.timeMs, p.lon, p.lat) && (tally ? tally.add(p.particle + offset, p.timeMs, p.lon, p.lat, p.ashore) : true));
       reportOutside(resource.path, before);
+      period.report(resource.path, log);
     } catch (error) {
       if (!(error instanceof InputValidationError)) throw error;
       log.push(error.issue);

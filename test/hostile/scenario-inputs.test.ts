@@ -9,6 +9,8 @@ import { join } from 'node:path';
 import { gzipSync } from 'node:zlib';
 import { describe, expect, test } from 'vitest';
 import { loadScenario } from '../../generator/read/load-scenario.ts';
+import { writeNetcdf3 } from '../../generator/drift/netcdf3-writer.ts';
+import { contiguousSpec, sampleTrajectories } from '../drift/cf-fixtures.ts';
 import { baseScenario, beachHeader, expectIssue, resourceNamed, scenarioCopy } from '../read/fixture-scenario.ts';
 
 const beach = 'tables/beach-litter.csv';
@@ -186,4 +188,47 @@ describe('crashes and hangs: bounded reading', () => {
     const issue = expectIssue(scenario.report.issues, { code: 'LineTooLong', file: beach, row: 3, severity: 'error' });
     expect(issue.message).toContain('1 MB');
   }, 30_000);
+});
+
+describe('losses: drift output that cannot be this scenario is named, not kept', () => {
+  const positions = 'drift/positions.csv';
+  const header = 'particle,time,lon,lat,status';
+
+  test('drift positions dated 1826 or in the future are left out and counted', async () => {
+    const original = readFileSync(join(baseScenario, positions), 'utf8').trim().split('\n');
+    const rows = [...original, '7,1826-09-10T00:00:00Z,-0.2,50.05,drifting', '7,1826-09-11T00:00:00Z,-0.1,50.05,drifting', '8,2999-09-11T00:00:00Z,-0.1,50.05,drifting'];
+    const scenario = await loadScenario(scenarioCopy({ files: { [positions]: `${rows.join('\n')}\n` } }));
+    const issue = expectIssue(scenario.report.issues, { code: 'PositionsOutsidePeriod', file: positions, severity: 'warning', excluded: true });
+    expect(issue.message).toContain('3 position(s) are dated outside 2020-01-01 to 2026-12-01 (first: 1826-09-10)');
+    const counts = countsOf(scenario, positions);
+    expect(counts?.read).toBe(original.length - 1 + 3);
+    expect(counts?.excluded).toBe(3);
+  });
+
+  test('drift positions in radians are refused as far from the coast', async () => {
+    const original = readFileSync(join(baseScenario, positions), 'utf8').trim().split('\n').slice(1);
+    const radians = original.map((line) => {
+      const [particle, time, lon, lat, status] = line.split(',');
+      return [particle, time, (Number(lon) * Math.PI / 180).toFixed(6), (Number(lat) * Math.PI / 180).toFixed(6), status].join(',');
+    });
+    const scenario = await loadScenario(scenarioCopy({ files: { [positions]: `${[header, ...radians].join('\n')}\n` } }));
+    const issue = expectIssue(scenario.report.issues, { code: 'DriftFarFromCoast', file: positions, severity: 'error' });
+    expect(issue.message).toContain('may be in radians');
+    expect(scenario.report.ok).toBe(false);
+  });
+
+  test('a trajectory file with longitude units in radians is refused (CF units attribute)', async () => {
+    const spec = contiguousSpec(sampleTrajectories);
+    for (const variable of spec.variables) {
+      if (variable.name === 'lon') variable.attributes = [{ name: 'standard_name', value: 'longitude' }, { name: 'units', value: 'radians' }];
+    }
+    const dir = scenarioCopy({ descriptor: (d) => {
+      d.resources = d.resources.filter((r) => r['role'] !== 'drift-positions');
+      d.resources.push({ name: 'trajectories', role: 'drift-trajectories', path: 'drift/run.nc', format: 'netcdf' });
+    } });
+    writeFileSync(join(dir, 'drift/run.nc'), writeNetcdf3(spec));
+    const scenario = await loadScenario(dir);
+    const issue = expectIssue(scenario.report.issues, { code: 'NetcdfNotTrajectory', file: 'drift/run.nc', severity: 'error' });
+    expect(issue.message).toContain('longitude units are "radians"; expected degrees_east');
+  });
 });
