@@ -12,6 +12,7 @@
 import type { ErrorData, IssueInput } from '../errors.ts';
 import { issue } from '../errors.ts';
 import type { ValidationIssue, ValidationReport } from '../model/types.ts';
+import { bidiControls, isolateBidi } from './bidi-controls.ts';
 
 export interface FileCounts {
   file: string;
@@ -55,7 +56,9 @@ export class IssueLog {
   }
 
   /** Adds an issue raised elsewhere (e.g. carried by an InputValidationError); capped like add(). */
-  push(item: ValidationIssue): void {
+  push(raw: ValidationIssue): void {
+    // A value or message holding direction controls is shown as an isolate (bidi-controls.ts).
+    const item = bidiControls(`${raw.value ?? ''}${raw.message}`).length === 0 ? raw : { ...raw, value: raw.value === null ? null : isolateBidi(raw.value), message: isolateBidi(raw.message) };
     if (item.severity === 'error') this.errors = true;
     const key = causeKey(item);
     const seen = this.kept.get(key) ?? 0;

@@ -159,7 +159,7 @@ describe('crashes and hangs: bounded reading', () => {
   });
 
   test('a gzip bomb stops at the expansion bound with a clear error', async () => {
-    const body = Buffer.from(`${'A'.repeat(1023)}\n`.repeat(100 * 1024));
+    const body = Buffer.from(`${'A'.repeat(256 * 1024 - 1)}\n`.repeat(400));
     const bomb = gzipSync(Buffer.concat([Buffer.from(`${beachHeader}\n`), body]), { level: 9 });
     const dir = scenarioCopy({ descriptor: (d) => { resourceNamed(d, 'beach-litter')['path'] = 'tables/beach-litter.csv.gz'; } });
     writeFileSync(join(dir, 'tables/beach-litter.csv.gz'), bomb);
@@ -168,7 +168,7 @@ describe('crashes and hangs: bounded reading', () => {
     const issue = expectIssue(scenario.report.issues, { code: 'InputTooLarge', file: 'tables/beach-litter.csv.gz', severity: 'error' });
     expect(issue.message).toMatch(/expands more than/);
     expect(process.memoryUsage().rss - before).toBeLessThan(400 * 1024 * 1024);
-  }, 60_000);
+  }, 240_000);
 
   test('a table whose every row is bad keeps the first issues per cause in full and counts the rest', async () => {
     const rows = [beachHeader];
