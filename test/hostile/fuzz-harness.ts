@@ -223,11 +223,27 @@ export interface FuzzTally {
   examples: string[];
 }
 
-/** Runs `runs` generated inputs of one reader from a seed and counts the outcomes. */
-export async function fuzzReader(kind: ReaderKind, runs: number, seed: number): Promise<FuzzTally> {
+/**
+ * Runs `runs` generated inputs of one reader from a seed and counts the outcomes. Reading a small
+ * scenario mostly waits on the file system, so `concurrency` trials run at once (each in its own
+ * folder).
+ */
+export async function fuzzReader(kind: ReaderKind, runs: number, seed: number, concurrency = 1): Promise<FuzzTally> {
   const tally: FuzzTally = { kind, tried: 0, exits: {}, crashes: 0, escapes: 0, losses: 0, examples: [] };
   const inputs = fc.sample(inputsFor(kind), { numRuns: runs, seed });
-  for (const input of inputs) {
+  let next = 0;
+  const worker = async (): Promise<void> => {
+    while (next < inputs.length) {
+      const input = inputs[next++] as FuzzInput;
+      await trialInto(tally, kind, input);
+    }
+  };
+  await Promise.all(Array.from({ length: Math.max(1, concurrency) }, worker));
+  return tally;
+}
+
+async function trialInto(tally: FuzzTally, kind: ReaderKind, input: FuzzInput): Promise<void> {
+  {
     const outcome = await runTrial(kind, input);
     tally.tried++;
     tally.exits[String(outcome.exit)] = (tally.exits[String(outcome.exit)] ?? 0) + 1;
@@ -240,5 +256,4 @@ export async function fuzzReader(kind: ReaderKind, runs: number, seed: number): 
       tally.examples.push(`${problem.split('\n').slice(0, 4).join(' | ')}\n      input: ${shown}${input.kind === 'bytes' && input.gzip ? ' (gzip)' : ''}`);
     }
   }
-  return tally;
 }
