@@ -78,6 +78,8 @@ describe('escapes: nothing is read outside the scenario folder', () => {
     const segments = readFileSync(join(baseScenario, 'segments.geojson'), 'utf8').replace('"place": "Invented Town"', '"place": "Invented Town", "__proto__": {"admin": true}');
     const scenario = await loadScenario(scenarioCopy({ files: { 'segments.geojson': segments } }));
     expectIssue(scenario.report.issues, { code: 'KeyForbidden', file: 'segments.geojson', severity: 'error' });
+    const descriptor = readFileSync(join(baseScenario, 'datapackage.json'), 'utf8').replace('"profile": "data-package",', '"profile": "data-package", "__proto__": {"resources": []},');
+    await expect(loadScenario(scenarioCopy({ files: { 'datapackage.json': descriptor } }))).rejects.toThrow(/datapackage\.json, at \$\.__proto__: the keys __proto__, constructor and prototype are not allowed/);
   });
 
   test('a right-to-left override in a segment name is flagged at check', async () => {
