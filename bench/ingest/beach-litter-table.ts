@@ -54,7 +54,7 @@ async function writeTable(file: string): Promise<void> {
     const items = random.integer(0, 199);
     buffer += `BL-${i},${segments[i % 3]},${date},100,${items},${Math.floor(items * 0.7)},\n`;
     if (buffer.length > 1 << 20) {
-      if (!out.write(buffer)) await new Promise((resolve) => out.once('drain', resolve));
+      if (!out.write(buffer)) await new Promise<void>((resolve) => out.once('drain', () => resolve()));
       buffer = '';
     }
   }
