@@ -19,6 +19,8 @@ import {
   DuplicateKey,
   FileEmpty,
   HeaderMissingColumn,
+  InputTooLarge,
+  LineTooLong,
   NoDataRows,
   RowTruncated,
   RowWrongLength,
@@ -28,6 +30,7 @@ import {
   ValueWrongType,
 } from '../errors.ts';
 import type { IssueLog } from '../read/issue-log.ts';
+import { ExpansionGuard, InputBoundExceeded, maxRecordChars, maxRecordLabel } from '../read/input-bounds.ts';
 import { ParticleTable } from './particle-table.ts';
 
 export const positionStatuses = ['drifting', 'ashore'] as const;
@@ -170,6 +173,11 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
     raw.on('error', (error) => gunzip.destroy(error));
     stream = raw.pipe(gunzip);
   }
+  // Bounded: decompressed size against compressed size, and total size (input-bounds.ts).
+  const guard = new ExpansionGuard(stream === raw ? null : () => bytesRead);
+  stream.on('error', (error: Error) => guard.destroy(error));
+  guard.on('error', () => raw.destroy());
+  stream = stream.pipe(guard);
   stream.setEncoding('utf8');
 
   let header: string[] | null = null;
@@ -385,9 +393,22 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
         nl = text.indexOf('\n', start);
       }
       rest = text.slice(start);
+      if (rest.length > maxRecordChars) {
+        log.add(LineTooLong, LineTooLong.message(file, lineNo + 1, maxRecordLabel), {
+          file, row: lineNo + 1, column: null, value: null, expected: `rows shorter than ${maxRecordLabel}`, severity: 'error', excluded: true,
+        });
+        raw.destroy();
+        return;
+      }
     }
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
+    if (error instanceof InputBoundExceeded) {
+      log.add(InputTooLarge, InputTooLarge.message(file, lineNo + 1, reason), {
+        file, row: lineNo + 1, column: null, value: null, expected: 'a file of ordinary size', severity: 'error', excluded: true,
+      });
+      return;
+    }
     log.add(CsvUnreadable, CsvUnreadable.message(file, lineNo + 1, reason), {
       file, row: lineNo + 1, column: null, value: null, expected: 'a complete, readable (gzip) CSV file', severity: 'error', excluded: true,
     });

@@ -234,3 +234,19 @@ describe('losses: drift output that cannot be this scenario is named, not kept',
     expect(issue.message).toContain('longitude units are "radians"; expected degrees_east');
   });
 });
+
+describe('crashes and hangs: drift positions are bounded too', () => {
+  const positions = 'drift/positions.csv';
+  test('a drift positions line of 10 MB with no newline stops at the line bound', async () => {
+    const scenario = await loadScenario(scenarioCopy({ files: { [positions]: `particle,time,lon,lat,status\n1,2026-09-10T00:00:00Z,-0.2,50.05,drifting\n${'9'.repeat(10 * 1024 * 1024)}` } }));
+    expectIssue(scenario.report.issues, { code: 'LineTooLong', file: positions, row: 3, severity: 'error' });
+  }, 60_000);
+
+  test('a gzip bomb as drift positions stops at the expansion bound', async () => {
+    const bomb = gzipSync(Buffer.from(`particle,time,lon,lat,status\n${`${'1'.repeat(256 * 1024 - 1)}\n`.repeat(400)}`), { level: 9 });
+    const dir = scenarioCopy({ descriptor: (d) => { resourceNamed(d, 'drift-positions')['path'] = 'drift/positions.csv.gz'; } });
+    writeFileSync(join(dir, 'drift/positions.csv.gz'), bomb);
+    const issue = expectIssue((await loadScenario(dir)).report.issues, { code: 'InputTooLarge', file: 'drift/positions.csv.gz', severity: 'error' });
+    expect(issue.message).toMatch(/expands more than 200 times/);
+  }, 240_000);
+});
