@@ -14,7 +14,7 @@
  * - loss: a file's read ≠ kept + excluded, records left out with no issue marked excluded for
  *   their file, or records kept that are not counted as kept.
  */
-import { cpSync, mkdtempSync, readdirSync, readFileSync, rmSync, statSync, symlinkSync, writeFileSync } from 'node:fs';
+import { cpSync, lstatSync, mkdtempSync, readdirSync, readFileSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
@@ -93,8 +93,10 @@ function jsonDocuments(original: string): fc.Arbitrary<Uint8Array> {
       for (const part of path.slice(0, -1)) parent = parent !== null && typeof parent === 'object' ? (parent as { [key: string]: unknown })[part as string] : undefined;
       if (parent === null || typeof parent !== 'object') continue;
       const key = path[path.length - 1] as string;
-      if (asForbidden && !Array.isArray(parent)) Object.defineProperty(parent as object, fc.sample(fc.constantFrom('__proto__', 'constructor', 'prototype'), 1)[0] as string, { value, enumerable: true, configurable: true, writable: true });
-      else (parent as { [key: string]: unknown })[key] = value;
+      // A copy: fast-check hands out the same constant objects again, which would make cycles.
+      const fresh: unknown = structuredClone(value);
+      if (asForbidden && !Array.isArray(parent)) Object.defineProperty(parent as object, fc.sample(fc.constantFrom('__proto__', 'constructor', 'prototype'), 1)[0] as string, { value: fresh, enumerable: true, configurable: true, writable: true });
+      else (parent as { [key: string]: unknown })[key] = fresh;
     }
     return text(JSON.stringify(copy));
   });
@@ -132,7 +134,8 @@ function treeState(dir: string): string {
   const walk = (folder: string): void => {
     for (const name of readdirSync(folder).sort()) {
       const full = join(folder, name);
-      const info = statSync(full, { throwIfNoEntry: false });
+      // Links are not followed: the folder outside is not part of the scenario.
+      const info = lstatSync(full, { throwIfNoEntry: false });
       if (info?.isDirectory()) walk(full);
       else entries.push(`${full}:${info?.size ?? 'link'}:${info?.mtimeMs ?? 0}`);
     }
@@ -150,6 +153,8 @@ function outside(): string {
     const original = readFileSync(join(baseScenario, targetOf[kind]), 'utf8');
     const leaked = kind === 'csv' || kind === 'drift' ? original.replace(/\n([^,\n]*),/, `\n${secret},`) : original.replace(/"name": "[^"]*"/, `"name": "${secret}"`);
     writeFileSync(join(outsideFolder, targetOf[kind].replace('/', '-')), leaked);
+    // The same file under its own name, for a linked folder (tables/ or drift/ pointing here).
+    if (targetOf[kind].includes('/')) writeFileSync(join(outsideFolder, targetOf[kind].split('/')[1] as string), leaked);
   }
   return outsideFolder;
 }
@@ -174,7 +179,6 @@ export async function runTrial(kind: ReaderKind, input: FuzzInput): Promise<Tria
         const folder = join(dir, targetOf[kind].split('/')[0] as string);
         rmSync(folder, { recursive: true });
         symlinkSync(outside(), folder, 'dir');
-        writeFileSync(join(outside(), targetOf[kind].split('/')[1] as string), readFileSync(leak));
       } else symlinkSync(leak, target);
     } else if (input.gzip) {
       writeFileSync(`${target}.gz`, gzipSync(input.content));
