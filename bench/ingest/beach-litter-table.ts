@@ -6,7 +6,7 @@
  * each as its own process. Prints wall time and the peak memory of the command's process tree
  * (the sum of VmRSS of the process and its children, sampled every 100 ms).
  *
- *   npx tsx bench/ingest/beach-litter-table.ts [--rows 5000000] [--skip-build] [--keep]
+ *   npx tsx bench/ingest/beach-litter-table.ts [--rows 5000000] [--skip-check] [--skip-build] [--keep]
  *
  * The rows are synthetic: three invented segments, dates spread over 2020–2026, seeded counts.
  */
@@ -18,7 +18,7 @@ import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import { createSeededRandom } from '../../generator/random/seeded-random.ts';
 
-const { values } = parseArgs({ options: { rows: { type: 'string', default: '5000000' }, 'skip-build': { type: 'boolean', default: false }, keep: { type: 'boolean', default: false } } });
+const { values } = parseArgs({ options: { rows: { type: 'string', default: '5000000' }, 'skip-check': { type: 'boolean', default: false }, 'skip-build': { type: 'boolean', default: false }, keep: { type: 'boolean', default: false } } });
 const rows = Number(values.rows);
 const root = path.resolve(fileURLToPath(new URL('../..', import.meta.url)));
 const work = mkdtempSync(path.join(tmpdir(), 'wrackline-bench-table-'));
@@ -84,9 +84,11 @@ await writeTable(table);
 console.log(`machine: ${cpus().length} cores, load ${loadavg().map((l) => l.toFixed(1)).join(' ')}`);
 console.log(`table: ${rows.toLocaleString('en-GB')} rows, ${(statSync(table).size / 1024 / 1024).toFixed(0)} MB, written in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 t0 = performance.now();
-const check = await run(['check', '--scenario', scenario]);
-console.log(`check: exit ${check.code}, ${check.seconds.toFixed(1)} s, peak ${check.peakMiB.toFixed(0)} MiB`);
-if (check.code !== 0) console.log(check.tail);
+if (!values['skip-check']) {
+  const check = await run(['check', '--scenario', scenario]);
+  console.log(`check: exit ${check.code}, ${check.seconds.toFixed(1)} s, peak ${check.peakMiB.toFixed(0)} MiB`);
+  if (check.code !== 0) console.log(check.tail);
+}
 if (!values['skip-build']) {
   const build = await run(['build', '--scenario', scenario, '--out', path.join(work, 'site'), '--no-cache']);
   console.log(`build: exit ${build.code}, ${build.seconds.toFixed(1)} s, peak ${build.peakMiB.toFixed(0)} MiB (process tree)`);
