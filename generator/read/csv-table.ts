@@ -61,6 +61,8 @@ export interface CsvTableOptions {
   onProgress?: (bytesRead: number, bytesTotal: number) => void;
   /** Called for each row whose cells passed; returns whether the row was kept. It logs its own reasons. */
   onRow: (row: TableRow) => 'kept' | 'excluded';
+  /** Told of each row left out here (bad cells, duplicate id), with the cells that did parse. */
+  onLeftOut?: (row: TableRow) => void;
 }
 
 const candidateDelimiters = [',', ';', '\t', '|'];
@@ -259,7 +261,9 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
       const result = parseCell(raw, rule, options.missingValues, dialect.decimalChar, file, line);
       if (!result.ok) {
         bad = true;
-        log.add(result.problem.entry, result.problem.message, { file, row: line, column: rule.name, value: raw, expected: result.problem.expected, severity: 'warning', excluded: true });
+        log.add(result.problem.entry, result.problem.message, {
+          file, row: line, column: rule.name, value: raw, expected: result.problem.expected, severity: 'warning', excluded: true, ...(result.problem.hint === undefined ? {} : { hint: result.problem.hint }),
+        });
         continue;
       }
       row.values[rule.name] = result.value;
@@ -272,6 +276,7 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
     }
     if (bad) {
       counts.excluded++;
+      options.onLeftOut?.(row);
       return;
     }
     if (options.primaryKey.length > 0) {
@@ -284,6 +289,7 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
           file, row: line, column, value, expected: 'a unique id', severity: 'warning', excluded: true,
         });
         counts.excluded++;
+        options.onLeftOut?.(row);
         return;
       }
       seenKeys.set(key, line);

@@ -20,6 +20,8 @@ import { fileDigest } from './file-digest.ts';
 import type { ScenarioPeriod } from './indicator-table.ts';
 import { readIndicatorTable } from './indicator-table.ts';
 import { IssueLog } from './issue-log.ts';
+import { guardLosses } from './loss-guard.ts';
+import type { SeriesRows, TableRows } from './loss-guard.ts';
 import type { ResourceEntry } from './package-descriptor.ts';
 import { readPackageDescriptor } from './package-descriptor.ts';
 import { readSettings } from './read-settings.ts';
@@ -34,6 +36,8 @@ export interface LoadOptions {
   onProgress?(phase: string, done: number, total?: number): void;
   /** Drift figures remembered from an earlier build with the same drift inputs (drift-memo.ts). */
   driftMemo?: DriftMemo;
+  /** Every warning counts as an error (`--strict`). */
+  strict?: boolean;
 }
 
 const descriptorName = 'datapackage.json';
@@ -143,14 +147,18 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
   progress('segments', 0);
   const segmentsResource = single('segments');
   const segmentsFile = segmentsResource?.path ?? 'segments.geojson';
-  const segments: Segment[] = segmentsResource ? await readSegments(join(root, segmentsResource.path), segmentsResource.path, log) : [];
+  const leftOutSegments = new Set<string>();
+  const segments: Segment[] = segmentsResource ? await readSegments(join(root, segmentsResource.path), segmentsResource.path, log, leftOutSegments) : [];
   const segmentIds = new Set(segments.map((s) => s.id));
 
   const records: ScenarioRecord[] = [];
+  const tableRows: TableRows[] = [];
   const tables = present.filter((r) => r.role === 'indicator' && r.indicator !== null);
   for (const resource of tables) {
     if (resource.indicator === null) continue;
     progress(`reading ${resource.path}`, 0);
+    const seriesRows = new Map<string, SeriesRows>();
+    tableRows.push({ file: resource.path, series: seriesRows });
     try {
       const read = await readIndicatorTable({
         resource,
@@ -159,8 +167,10 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
         settings,
         period,
         segmentIds,
+        leftOutSegments,
         segmentsFile,
         log,
+        seriesRows,
         onProgress: (done, total) => progress(`reading ${resource.path}`, done, total),
       });
       records.push(...read);
@@ -199,6 +209,8 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
       });
     }
   }
+  guardLosses(tableRows, log.report().files, settings, settingsResource?.path ?? 'scenario.json', log);
+  if (options.strict) log.makeWarningsErrors();
   progress('done', 1, 1);
 
   return { dir: root, settings, segments, records, drift, inputs, report: log.report() };
