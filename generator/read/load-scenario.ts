@@ -9,7 +9,7 @@
  */
 import { stat } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
-import { InputValidationError, NoUsableRows, ResourceFileMissing, ResourceInvalid, ScenarioError, ScenarioFolderUnreadable, SettingsInvalid } from '../errors.ts';
+import { InputValidationError, NoUsableRows, RuleWithoutData, ResourceFileMissing, ResourceInvalid, ScenarioError, ScenarioFolderUnreadable, SettingsInvalid } from '../errors.ts';
 import { readDrift } from '../drift/drift-model.ts';
 import { driftLogEntries, driftMemoKey, replayDriftLog, type DriftMemo } from './drift-memo.ts';
 import { indicatorDefinitions } from '../indicators/index.ts';
@@ -209,7 +209,18 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
       });
     }
   }
-  guardLosses(tableRows, log.report().files, settings, settingsResource?.path ?? 'scenario.json', log);
+  const settingsFile = settingsResource?.path ?? 'scenario.json';
+  guardLosses(tableRows, log.report().files, settings, settingsFile, log);
+  // A rule about an indicator with no data can never match: say so rather than keep it silently.
+  const withData = new Set<string>(records.map((r) => r.indicator));
+  if (drift !== null) withData.add('drift-arrivals');
+  settings.riskRules.forEach((rule, i) => {
+    if (withData.has(rule.indicator)) return;
+    const path = `$.riskRules[${i}].indicator`;
+    log.add(RuleWithoutData, RuleWithoutData.message(settingsFile, path, rule.id, rule.indicator), {
+      file: settingsFile, row: null, column: path, value: rule.indicator, expected: 'an indicator the scenario has data for', severity: 'warning', excluded: false,
+    });
+  });
   if (options.strict) log.makeWarningsErrors();
   progress('done', 1, 1);
 
