@@ -82,7 +82,7 @@ export function guardLosses(tables: readonly TableRows[], counts: readonly FileC
     for (const [segment, rows] of table.series) {
       if (rows.read === 0 || rows.kept > 0) continue;
       log.add(SeriesLoss, SeriesLoss.message(table.file, segment, rows.read, causesOf(log, table.file, rows.leftOut)), {
-        file: table.file, row: null, column: 'segment_id', value: segment, expected: 'at least one row kept for each segment that has rows', severity: 'error', excluded: false,
+        file: table.file, row: null, column: null, value: segment, expected: 'at least one row kept for each segment that has rows', severity: 'error', excluded: false,
         hint: `Fix the rows of ${segment} listed as warnings; to accept the loss on purpose, list the table in ${settingsFile}: "leftOutAllowed": [{ "table": "${table.file}", "share": …, "reason": "…" }]`,
       });
     }
