@@ -96,7 +96,7 @@ test('init → five segments and two tables → check and build pass, with no dr
   expect(checked.code).toBe(0);
 
   const out = path.join(work, 'site');
-  const built = await runCli(['build', '--scenario', scenario, '--out', out], { CI: '' });
+  const built = await runCli(['build', '--scenario', scenario, '--out', out], { CI: '' }, { lock: false });
   expect(built.code, built.stderr).toBe(0);
   // The warnings grouped by cause, and the exact command that lists them.
   expect(built.stderr + built.stdout).toMatch(/Warnings by cause:\n\s+1\s+GeometrySelfIntersects/);
