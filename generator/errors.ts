@@ -281,7 +281,7 @@ export const DecimalCommaFound = {
   title: 'Decimal comma not declared',
   message: (file: string, row: number, column: string, value: string) =>
     `${file} row ${row}, column ${column}: ${quoteValue(value)} uses a decimal comma, but the dialect does not declare one; expected a number with a decimal point`,
-  hint: 'Add "decimalChar": "," to the dialect in datapackage.json',
+  hint: 'If every number of the table uses a decimal comma, declare "decimalChar": "," in the dialect (usually with "delimiter": ";"); if only some rows do, write those with a decimal point: declaring it would leave out every row written with a point',
 } satisfies ErrorData;
 
 export const DateBeforeScenario = {
@@ -322,6 +322,38 @@ export const UnknownSegment = {
   message: (file: string, row: number, column: string, value: string, segmentsFile: string) =>
     `${file} row ${row}, column ${column}: ${quoteValue(value)} is not a segment id in ${segmentsFile}; expected an existing segment id`,
   hint: 'Segment ids are lower-case slugs; check spelling or add the segment',
+} satisfies ErrorData;
+
+export const SegmentLeftOut = {
+  name: 'SegmentLeftOut',
+  title: 'Rows of a segment that was left out',
+  message: (file: string, rows: number, segment: string, firstRow: number) =>
+    `${file} row ${firstRow}, column segment_id: ${rows} row(s) for segment ${quoteValue(segment)} not used: the segment was left out, see its error above`,
+  hint: 'Fix the segment in the segments file; its rows are used again once it is',
+} satisfies ErrorData;
+
+export const TableLoss = {
+  name: 'TableLoss',
+  title: 'Too many rows of a table left out',
+  message: (file: string, excluded: number, read: number, causes: string, allowed: string) =>
+    `${file}: ${excluded} of ${read} row(s) left out (${causes}); more than the ${allowed} allowed, so nothing is published`,
+  hint: 'Fix the rows (see the warnings), or accept the loss on purpose in scenario.json',
+} satisfies ErrorData;
+
+export const SeriesLoss = {
+  name: 'SeriesLoss',
+  title: 'Every row of a series left out',
+  message: (file: string, segment: string, excluded: number, causes: string) =>
+    `${file}: all ${excluded} row(s) for segment ${quoteValue(segment)} left out (${causes}); the segment would be shown as not measured, so nothing is published`,
+  hint: 'Fix the rows (see the warnings), or accept the loss on purpose in scenario.json',
+} satisfies ErrorData;
+
+export const RuleWithoutData = {
+  name: 'RuleWithoutData',
+  title: 'Risk rule about an indicator with no data',
+  message: (file: string, path: string, rule: string, indicator: string) =>
+    `${file} at ${path}: risk rule ${quoteValue(rule)} is about ${indicator}, but the scenario has no ${indicator} data; the rule can never match`,
+  hint: 'Remove the rule, or add the table (or drift model) it needs to datapackage.json',
 } satisfies ErrorData;
 
 export const DuplicateKey = {
@@ -385,8 +417,9 @@ export const CoordinateOutOfRange = {
 export const GeometrySelfIntersects = {
   name: 'GeometrySelfIntersects',
   title: 'Geometry crosses itself',
-  message: (file: string, feature: number, where: string) => `${file} row ${feature}, column geometry: the line crosses itself near ${where}`,
-  hint: 'Redraw the segment so its line does not cross itself',
+  message: (file: string, feature: number, segment: string, where: string, detail: string) =>
+    `${file} row ${feature}, column geometry: segment ${quoteValue(segment)} crosses itself at ${where} (${detail}); it is kept, measured and drawn as given`,
+  hint: 'Usually a digitising slip; redraw the line there so it does not cross itself. The segment is published meanwhile',
 } satisfies ErrorData;
 
 // ---------------------------------------------------------------------------------------------
@@ -556,6 +589,8 @@ export interface IssueInput {
   expected: string;
   severity: 'error' | 'warning';
   excluded: boolean;
+  /** A hint fitting this very case, instead of the catalogue entry's general one. */
+  hint?: string;
 }
 
 /** Builds a report entry from a catalogue entry's message and the place it concerns. */
@@ -570,6 +605,6 @@ export function issue(entry: ErrorData, message: string, input: IssueInput): Val
     severity: input.severity,
     excluded: input.excluded,
     code: entry.name,
-    hint: entry.hint,
+    hint: input.hint ?? entry.hint,
   };
 }

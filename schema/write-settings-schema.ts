@@ -7,6 +7,33 @@ import { readFile, writeFile } from 'node:fs/promises';
 import { fileURLToPath } from 'node:url';
 import { zodToJsonSchema } from 'zod-to-json-schema';
 import { settingsSchema } from '../generator/scenario/settings.ts';
+import { settingsDocs } from '../generator/scenario/settings-docs.ts';
+
+type SchemaNode = { [key: string]: unknown };
+
+/**
+ * Gives every property its description and example from settings-docs.ts (paths with [] for the
+ * items of a list). Throws when a property has no entry, so a new setting cannot go undocumented.
+ */
+export function addDocs(node: SchemaNode, path: string): void {
+  const properties = node['properties'] as { [name: string]: SchemaNode } | undefined;
+  if (properties) {
+    for (const [name, child] of Object.entries(properties)) {
+      const childPath = path === '' ? name : `${path}.${name}`;
+      const doc = settingsDocs[childPath];
+      if (!doc) throw new Error(`schema/scenario.schema.json: setting ${childPath} has no description in generator/scenario/settings-docs.ts`);
+      child['description'] = doc.description;
+      child['examples'] = [doc.example];
+      addDocs(child, childPath);
+    }
+  }
+  const items = node['items'] as SchemaNode | undefined;
+  if (items && typeof items === 'object') addDocs(items, `${path}[]`);
+  for (const key of ['anyOf', 'oneOf', 'allOf']) {
+    const options = node[key] as SchemaNode[] | undefined;
+    if (Array.isArray(options)) for (const option of options) addDocs(option, path);
+  }
+}
 
 export const settingsSchemaPath = fileURLToPath(new URL('./scenario.schema.json', import.meta.url));
 
@@ -19,6 +46,8 @@ export function settingsJsonSchemaText(): string {
     effectStrategy: 'input',
     target: 'jsonSchema7',
   });
+  const root = (schema as { definitions: { [name: string]: SchemaNode } }).definitions['WracklineScenarioSettings'];
+  if (root) addDocs(root, '');
   const document = {
     $id: 'wrackline/scenario.schema.json',
     title: 'Wrackline scenario settings (scenario.json)',

@@ -1,7 +1,7 @@
 /**
  * `wrackline build`: read, check, compute, render and publish a scenario's site.
  *
- *   wrackline build [--scenario DIR] [--out DIR] [--cache DIR] [--no-cache] [--site DIR] [--render-all] [--quiet]
+ *   wrackline build [--scenario DIR] [--out DIR] [--cache DIR] [--no-cache] [--site DIR] [--render-all] [--strict] [--quiet]
  *
  * Exit codes: 0 published (or already up to date), 1 invalid data or a refused publication
  * (archive, safety), 2 bad usage, an unreadable scenario folder, or an output we must not replace.
@@ -41,13 +41,39 @@ Options:
   --site DIR       Astro project that renders the model (default: the built-in site)
   --render-all     render every page, even those whose inputs did not change
                    (by default they are taken over from the published release)
+  --strict         treat every warning as an error: publish only a scenario
+                   with no record left out
   --quiet          print only errors (also when the CI variable is set)
   -h, --help       show this help
 
 Exit codes: 0 published, 1 invalid data or refused publication, 2 bad usage or unreadable input`;
 
+/** A word for a shell command line: quoted when it holds anything but safe characters. */
+function shellWord(text: string): string {
+  return /^[\w./-]+$/.test(text) ? text : `'${text.replace(/'/g, `'\\''`)}'`;
+}
+
+/** Warnings grouped by cause, most frequent first, with the command that lists each one. */
+export function formatWarningGroups(report: ValidationReport, checkCommand: string): string {
+  const groups = new Map<string, { count: number; leftOut: number; example: string }>();
+  for (const item of report.issues) {
+    if (item.severity !== 'warning') continue;
+    const code = item.code ?? 'other';
+    const group = groups.get(code) ?? { count: 0, leftOut: 0, example: item.message };
+    group.count++;
+    if (item.excluded) group.leftOut++;
+    groups.set(code, group);
+  }
+  const lines = ['  Warnings by cause:'];
+  for (const [code, group] of [...groups.entries()].sort((a, b) => b[1].count - a[1].count)) {
+    lines.push(`    ${formatCount(group.count).padStart(6)}  ${code}${group.leftOut > 0 ? ` (${formatCount(group.leftOut)} left out)` : ''}, e.g. ${group.example}`);
+  }
+  lines.push(`  See every one: ${checkCommand}`);
+  return lines.join('\n');
+}
+
 /** A readable summary of a validation report with errors (at most `limit` issues shown). */
-export function formatReport(report: ValidationReport, limit = 20): string {
+export function formatReport(report: ValidationReport, limit = 20, checkCommand = 'npx wrackline check'): string {
   const errors = report.issues.filter((item) => item.severity === 'error');
   const warnings = report.issues.length - errors.length;
   const lines = [`The scenario has ${errors.length} error(s) and ${warnings} warning(s); nothing was built or published.`];
@@ -58,17 +84,19 @@ export function formatReport(report: ValidationReport, limit = 20): string {
     // Reader messages usually start with their own place ("file row 3, column x: …"); keep them whole.
     if (item.message.startsWith(item.file)) {
       lines.push(`  - ${item.message} (expected ${item.expected})`);
-      continue;
+    } else {
+      const value = item.value === null ? '' : ` value ${JSON.stringify(item.value)};`;
+      lines.push(`  - ${where}:${value} ${item.message} (expected ${item.expected})`);
     }
-    const value = item.value === null ? '' : ` value ${JSON.stringify(item.value)};`;
-    lines.push(`  - ${where}:${value} ${item.message} (expected ${item.expected})`);
+    if (item.code === 'TableLoss' || item.code === 'SeriesLoss') lines.push(`      hint: ${item.hint}`);
   }
-  if (errors.length > limit) lines.push(`  … and ${errors.length - limit} more errors (run \`wrackline check\` for all of them)`);
+  if (errors.length > limit) lines.push(`  … and ${errors.length - limit} more errors`);
+  if (errors.length > 0) lines.push(`See every problem: ${checkCommand}`);
   return lines.join('\n');
 }
 
 /** The real steps: scenario reader, model builder (with the trend cache), model writer, Astro, pagefind. */
-export async function realSteps(siteRoot: string | undefined): Promise<BuildSteps> {
+export async function realSteps(siteRoot: string | undefined, strict = false): Promise<BuildSteps> {
   const { loadScenario } = await import('../read/load-scenario.ts');
   const { buildModel, generatorVersion } = await import('../model/build-model.ts');
   const { assembleModelWithMemo } = await import('../model/assemble-with-memo.ts');
@@ -76,9 +104,9 @@ export async function realSteps(siteRoot: string | undefined): Promise<BuildStep
   const { writeModel } = await import('../model/write-model.ts');
   return {
     load: async (dir, onProgress, cacheDir) => {
-      if (cacheDir === null) return loadScenario(dir, { onProgress });
+      if (cacheDir === null) return loadScenario(dir, { onProgress, strict });
       const driftMemo = openDriftCache(cacheDir, await readingFingerprint(packageRoot, generatorVersion));
-      const scenario = await loadScenario(dir, { onProgress, driftMemo });
+      const scenario = await loadScenario(dir, { onProgress, driftMemo, strict });
       // Remembered only for a scenario that passed: an invalid one leaves nothing beside the output.
       if (scenario.report.ok) await driftMemo.save();
       return scenario;
@@ -135,6 +163,7 @@ export async function runBuild(argv: string[], options: RunBuildOptions = {}): P
         'no-cache': { type: 'boolean' },
         site: { type: 'string' },
         'render-all': { type: 'boolean' },
+        strict: { type: 'boolean' },
         quiet: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
@@ -165,18 +194,20 @@ export async function runBuild(argv: string[], options: RunBuildOptions = {}): P
   const progress = options.progress ?? createProgress({ quiet: values.quiet === true });
   const started = performance.now();
   try {
-    const steps = options.steps ?? (await realSteps(values.site === undefined ? undefined : path.resolve(values.site)));
+    const steps = options.steps ?? (await realSteps(values.site === undefined ? undefined : path.resolve(values.site), values.strict === true));
     const outcome = await buildRelease({ scenario, out, cache, progress, steps, renderAll: values['render-all'] === true, log: (line) => progress.note(`  ${line}`) });
+    const checkCommand = `npx wrackline check --scenario ${shellWord(path.relative(process.cwd(), scenario) || '.')}`;
     if (outcome.kind === 'invalid') {
-      stderr(formatReport(outcome.report));
+      stderr(formatReport(outcome.report, 20, checkCommand));
       return 1;
     }
     const warnings = outcome.report.issues.filter((item) => item.severity === 'warning').length;
     progress.note(
       `Published ${formatCount(outcome.pages)} pages (${formatCount(outcome.files)} files) to ${out}` +
         `${outcome.unchanged ? ' (unchanged: same content as the published site)' : ''}` +
-        `${warnings > 0 ? `; ${warnings} warning(s), see \`wrackline check\`` : ''} in ${formatDuration(performance.now() - started)}`,
+        `${warnings > 0 ? `; ${warnings} warning(s)` : ''} in ${formatDuration(performance.now() - started)}`,
     );
+    if (warnings > 0) progress.note(formatWarningGroups(outcome.report, checkCommand));
     return 0;
   } catch (error) {
     progress.end();

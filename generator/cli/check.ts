@@ -3,7 +3,7 @@
  * and prints the validation report: a table of records read, kept and left out per file, then
  * every error and warning with its place, value, expectation and a hint.
  *
- *   wrackline check [--scenario DIR] [--json] [--limit N] [--quiet]
+ *   wrackline check [--scenario DIR] [--strict] [--json] [--limit N] [--quiet]
  *
  * Exit codes: 0 no errors (warnings allowed), 1 the scenario has errors, 2 bad usage or an
  * unreadable scenario folder.
@@ -22,6 +22,7 @@ prints what was read, what was left out and why. Nothing is computed or written.
 
 Options:
   --scenario DIR   scenario folder holding datapackage.json (default: .)
+  --strict         treat every warning as an error
   --json           print the validation report as JSON on standard output
   --limit N        show at most N problems of each severity (default: 200; 0 = all)
   --quiet          no progress line
@@ -99,6 +100,7 @@ export async function runCheck(argv: string[], io: CheckIo = {}): Promise<number
       options: {
         scenario: { type: 'string' },
         json: { type: 'boolean' },
+        strict: { type: 'boolean' },
         limit: { type: 'string' },
         quiet: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
@@ -125,6 +127,7 @@ export async function runCheck(argv: string[], io: CheckIo = {}): Promise<number
   let report: ValidationReport;
   try {
     const scenario = await loadScenario(scenarioDir, {
+      strict: values.strict === true,
       onProgress(name, done, total) {
         // File phases count bytes: shown in kB.
         const inBytes = name.startsWith('reading ');

@@ -24,6 +24,10 @@ const commands: { [name: string]: CommandEntry } = {
     summary: 'validate a scenario only; exit 1 when it has errors',
     load: async () => (await import('./check.ts')).runCheck,
   },
+  init: {
+    summary: 'write a new, empty scenario to fill in with your own data',
+    load: async () => (await import('./init.ts')).runInit,
+  },
   trend: {
     summary: "trend statistics for one series in a CSV file (Mann–Kendall, Sen's slope)",
     load: async () => (await import('./trend.ts')).runTrend,
@@ -57,6 +61,7 @@ export function mainHelp(): string {
     '  -V, --version   print the version',
     '',
     'Examples:',
+    '  wrackline init my-coast',
     '  wrackline check --scenario content/demo',
     '  wrackline build --scenario content/demo --out dist',
     '  wrackline trend series.csv --seasonal --json',

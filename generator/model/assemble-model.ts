@@ -38,6 +38,13 @@ function byId<T extends { id: string }>(a: T, b: T): number {
  * seasons to evaluate (each published one and the one before it, in order), the published season
  * ids, and the segments sorted by id. Shared by assembleModel and assembleModelWithMemo.
  */
+/** Indicators the scenario has data for: its monitoring records, and drift arrivals when a drift model was read. */
+export function indicatorsWithData(scenario: Pick<LoadedScenario, 'records' | 'drift'>): Set<string> {
+  const present = new Set<string>(scenario.records.map((r) => r.indicator));
+  if (scenario.drift !== null) present.add('drift-arrivals');
+  return present;
+}
+
 export function modelScope(scenario: LoadedScenario): {
   rules: readonly RiskRule[];
   publications: ScenarioSettings['publications'][number][];
@@ -46,7 +53,10 @@ export function modelScope(scenario: LoadedScenario): {
   segments: LoadedScenario['segments'];
 } {
   const settings = scenario.settings;
-  const rules = settings.riskRules.length > 0 ? settings.riskRules : defaultRiskRules;
+  // Built-in rules about an indicator with no data are not used (a scenario without a drift model
+  // gets no drift rule); rules given in the settings are kept as written (check warns about them).
+  const withData = indicatorsWithData(scenario);
+  const rules = settings.riskRules.length > 0 ? settings.riskRules : defaultRiskRules.filter((rule) => withData.has(rule.indicator));
   const publications = settings.publications.filter((p) => seasonRef(p.season, settings.seasons) !== null);
   const wanted: string[] = [];
   for (const publication of publications) {
@@ -95,8 +105,13 @@ export function siteModel(scenario: LoadedScenario, rules: readonly RiskRule[], 
     }),
     manifest: [...scenario.inputs].sort((a, b) => (a.file < b.file ? -1 : a.file > b.file ? 1 : 0)).map((i) => ({ file: i.file, sha256: i.sha256, bytes: i.bytes })),
     validation: scenario.report,
+    driftModel: scenario.drift !== null,
     settingsDigest: {
       riskRules: rules.map((r) => ({ id: r.id, level: r.level, text: r.text })),
+      riskRulesNote:
+        settings.riskRules.length > 0
+          ? 'These rules are set in the published settings of this coast.'
+          : "This coast's settings give no rules of their own, so the built-in rule table applies, limited to the indicators this coast has data for.",
       confidence: settings.trend.confidence,
       falseDiscoveryRate: settings.trend.falseDiscoveryRate,
     },

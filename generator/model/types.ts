@@ -231,5 +231,13 @@ export interface SiteModel {
   seasons: (SeasonRef & { published: string; current: boolean })[];
   manifest: { file: string; sha256: string; bytes: number }[];
   validation: ValidationReport;
-  settingsDigest: { riskRules: { id: string; level: LevelId; text: string }[]; confidence: number; falseDiscoveryRate: number };
+  settingsDigest: {
+    riskRules: { id: string; level: LevelId; text: string }[];
+    /** Where the rules come from: the scenario's settings, or the built-in table (and which of it applies). */
+    riskRulesNote: string;
+    confidence: number;
+    falseDiscoveryRate: number;
+  };
+  /** Whether the scenario has drift-model input; without it no page speaks of the drift model. */
+  driftModel: boolean;
 }

@@ -69,6 +69,8 @@ export interface CsvTableOptions {
   onProgress?: (bytesRead: number, bytesTotal: number) => void;
   /** Called for each row whose cells passed; returns whether the row was kept. It logs its own reasons. */
   onRow: (row: TableRow) => 'kept' | 'excluded';
+  /** Told of each row left out here (bad cells, duplicate id), with the cells that did parse. */
+  onLeftOut?: (row: TableRow) => void;
 }
 
 const candidateDelimiters = [',', ';', '\t', '|'];
@@ -298,7 +300,9 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
       const result = parseCell(raw, rule, options.missingValues, dialect.decimalChar, file, line);
       if (!result.ok) {
         bad = true;
-        log.add(result.problem.entry, result.problem.message, { file, row: line, column: rule.name, value: raw, expected: result.problem.expected, severity: 'warning', excluded: true });
+        log.add(result.problem.entry, result.problem.message, {
+          file, row: line, column: rule.name, value: raw, expected: result.problem.expected, severity: 'warning', excluded: true, ...(result.problem.hint === undefined ? {} : { hint: result.problem.hint }),
+        });
         continue;
       }
       const controls = typeof result.value === 'string' ? bidiControls(result.value) : [];
@@ -317,6 +321,7 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
     }
     if (bad) {
       counts.excluded++;
+      options.onLeftOut?.(row);
       return;
     }
     if (options.primaryKey.length > 0) {
@@ -329,6 +334,7 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
           file, row: line, column, value, expected: 'a unique id', severity: 'warning', excluded: true,
         });
         counts.excluded++;
+        options.onLeftOut?.(row);
         return;
       }
       seenKeys.set(key, line);

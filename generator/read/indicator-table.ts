@@ -3,6 +3,15 @@
  * module (generator/indicators) says which columns, types and units it needs; the table's own
  * Table Schema adds its constraints. Rows are checked for the segment they name (foreign key),
  * their date against the scenario's period and publication date, then normalised.
+ *
+ * Tables as agencies keep them:
+ * - the record-id column (survey_id, sample_id, report_id) is optional: without it, the row number
+ *   in the file stands in for the record id;
+ * - a resource may carry `"columnNames": {"<our name>": "<name in the file>"}` so that a file whose
+ *   columns are named differently (net_mesh_um for mesh_um) is used as it is. The Table Schema then
+ *   describes the file as it is (its own column names); messages name the file's columns;
+ * - rows naming a segment that was itself left out are counted and summed up in one line per
+ *   segment, not reported one by one.
  */
 import {
   DateAfterScenario,
@@ -13,15 +22,20 @@ import {
   UnitMismatch,
   UnknownSegment,
   DateNotInSeason,
+  SegmentLeftOut,
 } from '../errors.ts';
+import { didYouMean, nearestWord } from './category-words.ts';
 import type { IndicatorDefinition } from '../indicators/index.ts';
 import type { ScenarioSettings } from '../scenario/settings.ts';
 import type { Record as ScenarioRecord } from '../scenario/types.ts';
 import { countDataLines, readCsvTable } from './csv-table.ts';
+import type { TableRow } from './csv-table.ts';
 import type { IssueLog } from './issue-log.ts';
+import type { SeriesRows } from './loss-guard.ts';
 import type { FieldDescriptor, ResourceEntry, TableSchema } from './package-descriptor.ts';
 import { decimalYear, seasonOfDate } from './season-calendar.ts';
 import type { CellRule } from './table-cells.ts';
+import { dateFormatUnderstood } from './table-cells.ts';
 import { sameUnit } from './units.ts';
 
 export interface ScenarioPeriod {
@@ -46,9 +60,9 @@ function fieldType(field: FieldDescriptor): CellRule['type'] {
 }
 
 /** Cell rules for every schema field, tightened by the indicator's own requirements. */
-export function buildRules(schema: TableSchema, definition: IndicatorDefinition | null): CellRule[] {
+export function buildRules(schema: TableSchema, definition: IndicatorDefinition | null, names: ColumnNames = identityNames): CellRule[] {
   return schema.fields.map((field) => {
-    const requirement = definition?.columns.find((c) => c.name === field.name);
+    const requirement = definition?.columns.find((c) => names.inFile(c.name) === field.name);
     const constraints = field.constraints ?? {};
     const schemaMinimum = toNumberOrNull(constraints.minimum);
     const schemaMaximum = toNumberOrNull(constraints.maximum);
@@ -66,8 +80,24 @@ export function buildRules(schema: TableSchema, definition: IndicatorDefinition 
       maximum: schemaMaximum,
       enum: enumValues,
       detectionLimitPrefix: field.detectionLimitPrefix ?? null,
+      dateFormat: (type === 'date' || type === 'datetime') && field.format !== undefined && field.format !== 'default' ? field.format : null,
     };
   });
+}
+
+/** Our column names and the file's, both ways (the resource's `columnNames`). */
+export interface ColumnNames {
+  inFile(ours: string): string;
+  ours(inFile: string): string;
+}
+
+const identityNames: ColumnNames = { inFile: (name) => name, ours: (name) => name };
+
+export function columnNamesOf(resource: ResourceEntry): ColumnNames {
+  const map = resource.columnNames;
+  if (Object.keys(map).length === 0) return identityNames;
+  const back = new Map(Object.entries(map).map(([ours, inFile]) => [inFile, ours]));
+  return { inFile: (name) => map[name] ?? name, ours: (name) => back.get(name) ?? name };
 }
 
 const compatibleTypes: { [required: string]: readonly string[] } = {
@@ -83,16 +113,25 @@ const compatibleTypes: { [required: string]: readonly string[] } = {
  */
 export function checkSchema(resource: ResourceEntry, schema: TableSchema, definition: IndicatorDefinition, log: IssueLog): boolean {
   const file = resource.path;
+  const names = columnNamesOf(resource);
   let usable = true;
   for (const column of definition.columns) {
-    const field = schema.fields.find((f) => f.name === column.name);
+    const field = schema.fields.find((f) => f.name === names.inFile(column.name));
     if (!field) {
-      if (column.required) {
+      // The record id is optional: the row number stands in for it.
+      if (column.required && column.name !== definition.keyColumn) {
         const expected = `a field ${column.name} of type ${column.type}${column.unit ? ` in ${column.unit}` : ''}`;
         log.add(SchemaFieldMissing, SchemaFieldMissing.message(file, column.name, expected), { file, row: 1, column: column.name, value: null, expected, severity: 'error', excluded: true });
         usable = false;
       }
       continue;
+    }
+    if ((field.type === 'date' || field.type === 'datetime') && field.format !== undefined && field.format !== 'default' && !dateFormatUnderstood(field.format)) {
+      const expected = 'a date format such as "%d/%m/%Y" (directives %d, %m, %Y)';
+      log.add(SchemaFieldType, `${file} row 1, column ${field.name}: date format ${JSON.stringify(field.format)} is not understood; expected ${expected}`, {
+        file, row: 1, column: field.name, value: field.format, expected, severity: 'error', excluded: true, hint: 'Table Schema date patterns use %d (day), %m (month) and %Y (four-digit year) with any separators',
+      });
+      usable = false;
     }
     const allowed = compatibleTypes[column.type] ?? [column.type];
     if (!allowed.includes(field.type)) {
@@ -125,8 +164,12 @@ export interface IndicatorTableInput {
   /** Null when the settings could not be read: dates are then only checked for form. */
   period: ScenarioPeriod | null;
   segmentIds: ReadonlySet<string>;
+  /** Segments with an id that were left out (bad geometry or properties). */
+  leftOutSegments?: ReadonlySet<string>;
   segmentsFile: string;
   log: IssueLog;
+  /** Filled with rows read and kept per known segment, for the loss guard (loss-guard.ts). */
+  seriesRows?: Map<string, SeriesRows>;
   onProgress?: (bytesRead: number, bytesTotal: number) => void;
 }
 
@@ -143,13 +186,30 @@ export async function readIndicatorTable(input: IndicatorTableInput): Promise<Sc
     counts.excluded += lines;
     return records;
   }
-  const rules = buildRules(schema, definition);
-  const primaryKey = schema.primaryKey ?? [definition.keyColumn];
-  const segmentColumns = new Set<string>(['segment_id']);
+  const names = columnNamesOf(resource);
+  const rules = buildRules(schema, definition, names);
+  const hasKeyColumn = schema.fields.some((f) => f.name === names.inFile(definition.keyColumn));
+  const primaryKey = schema.primaryKey ?? (hasKeyColumn ? [names.inFile(definition.keyColumn)] : []);
+  const segmentColumns = new Set<string>([names.inFile('segment_id')]);
   for (const foreignKey of schema.foreignKeys) {
     if (foreignKey.reference.resource === 'segments' && foreignKey.fields.length === 1 && foreignKey.fields[0]) segmentColumns.add(foreignKey.fields[0]);
   }
-  const dateColumn = definition.columns.find((c) => c.type === 'date')?.name ?? 'date';
+  const dateColumn = names.inFile(definition.columns.find((c) => c.type === 'date')?.name ?? 'date');
+  const knownIds = [...input.segmentIds];
+  const leftOutRows = new Map<string, { rows: number; first: number }>();
+  const segmentColumn = names.inFile('segment_id');
+  const countSeries = (row: TableRow, kept: boolean): void => {
+    const segment = row.values[segmentColumn];
+    if (typeof segment !== 'string' || !input.segmentIds.has(segment) || !input.seriesRows) return;
+    let seen = input.seriesRows.get(segment);
+    if (!seen) {
+      seen = { read: 0, kept: 0, leftOut: new Set() };
+      input.seriesRows.set(segment, seen);
+    }
+    seen.read++;
+    if (kept) seen.kept++;
+    else seen.leftOut.add(row.line);
+  };
 
   await readCsvTable({
     absolutePath: input.absolutePath,
@@ -158,65 +218,92 @@ export async function readIndicatorTable(input: IndicatorTableInput): Promise<Sc
     compression: resource.compression,
     rules,
     missingValues: schema.missingValues,
-    essentialColumns: definition.columns.filter((c) => c.required).map((c) => c.name),
+    essentialColumns: definition.columns.filter((c) => c.required && c.name !== definition.keyColumn).map((c) => names.inFile(c.name)),
     primaryKey,
     log,
     ...(input.onProgress ? { onProgress: input.onProgress } : {}),
+    onLeftOut: (row) => countSeries(row, false),
     onRow: (row) => {
-      const line = row.line;
-      let keep = true;
-      for (const column of segmentColumns) {
-        const value = row.values[column];
-        if (typeof value === 'string' && !input.segmentIds.has(value)) {
-          log.add(UnknownSegment, UnknownSegment.message(file, line, column, value, input.segmentsFile), {
-            file, row: line, column, value, expected: `a segment id from ${input.segmentsFile}`, severity: 'warning', excluded: true,
-          });
-          keep = false;
-        }
-      }
-      const date = String(row.values[dateColumn] ?? '').slice(0, 10);
-      if (period === null) {
-        // no period to compare with
-      } else if (period.start !== null && date < period.start) {
-        log.add(DateBeforeScenario, DateBeforeScenario.message(file, line, dateColumn, date, period.start), {
-          file, row: line, column: dateColumn, value: date, expected: `${period.start} or later`, severity: 'warning', excluded: true,
-        });
-        keep = false;
-      } else if (date > period.published) {
-        log.add(DateInFuture, DateInFuture.message(file, line, dateColumn, date, period.published), {
-          file, row: line, column: dateColumn, value: date, expected: `${period.published} or earlier`, severity: 'warning', excluded: true,
-        });
-        keep = false;
-      } else if (date > period.end) {
-        log.add(DateAfterScenario, DateAfterScenario.message(file, line, dateColumn, date, period.end), {
-          file, row: line, column: dateColumn, value: date, expected: `${period.end} or earlier`, severity: 'warning', excluded: true,
-        });
-        keep = false;
-      }
-      const season = seasonOfDate(date, settings.seasons);
-      if (!season) {
-        log.add(DateNotInSeason, DateNotInSeason.message(file, line, dateColumn, date), {
-          file, row: line, column: dateColumn, value: date, expected: 'a date in a month covered by the seasons of scenario.json', severity: 'warning', excluded: true,
-        });
-        keep = false;
-      }
-      if (!keep || !season) return 'excluded';
-      const normalised = definition.normalise(row);
-      records.push({
-        indicator: definition.id,
-        segmentId: String(row.values['segment_id']),
-        date,
-        t: decimalYear(date),
-        season: season.id,
-        seasonName: season.name,
-        value: normalised.value,
-        censored: normalised.censored,
-        extra: normalised.note === undefined ? normalised.extra : { ...normalised.extra, note: normalised.note },
-        source: { file, row: line },
-      });
-      return 'kept';
+      const outcome = keepRow(row);
+      countSeries(row, outcome === 'kept');
+      return outcome;
     },
   });
+  for (const [segment, seen] of leftOutRows) {
+    log.add(SegmentLeftOut, SegmentLeftOut.message(file, seen.rows, segment, seen.first), {
+      file, row: seen.first, column: segmentColumn, value: segment, expected: `a segment kept in ${input.segmentsFile}`, severity: 'warning', excluded: true,
+    });
+  }
   return records;
+
+  function keepRow(row: TableRow): 'kept' | 'excluded' {
+    const line = row.line;
+    let keep = true;
+    for (const column of segmentColumns) {
+      const value = row.values[column];
+      if (typeof value === 'string' && input.leftOutSegments?.has(value)) {
+        const seen = leftOutRows.get(value);
+        if (seen) seen.rows++;
+        else leftOutRows.set(value, { rows: 1, first: line });
+        return 'excluded';
+      }
+      if (typeof value === 'string' && !input.segmentIds.has(value)) {
+        const suggestion = nearestWord(value, knownIds);
+        log.add(UnknownSegment, `${UnknownSegment.message(file, line, column, value, input.segmentsFile)}${didYouMean(suggestion)}`, {
+          file, row: line, column, value, expected: `a segment id from ${input.segmentsFile}`, severity: 'warning', excluded: true,
+          ...(suggestion === null ? {} : { hint: `Write "${suggestion}", the segment id in ${input.segmentsFile} closest to ${JSON.stringify(value)}` }),
+        });
+        keep = false;
+      }
+    }
+    const date = String(row.values[dateColumn] ?? '').slice(0, 10);
+    if (period === null) {
+      // no period to compare with
+    } else if (period.start !== null && date < period.start) {
+      log.add(DateBeforeScenario, DateBeforeScenario.message(file, line, dateColumn, date, period.start), {
+        file, row: line, column: dateColumn, value: date, expected: `${period.start} or later`, severity: 'warning', excluded: true,
+      });
+      keep = false;
+    } else if (date > period.published) {
+      log.add(DateInFuture, DateInFuture.message(file, line, dateColumn, date, period.published), {
+        file, row: line, column: dateColumn, value: date, expected: `${period.published} or earlier`, severity: 'warning', excluded: true,
+      });
+      keep = false;
+    } else if (date > period.end) {
+      log.add(DateAfterScenario, DateAfterScenario.message(file, line, dateColumn, date, period.end), {
+        file, row: line, column: dateColumn, value: date, expected: `${period.end} or earlier`, severity: 'warning', excluded: true,
+      });
+      keep = false;
+    }
+    const season = seasonOfDate(date, settings.seasons);
+    if (!season) {
+      log.add(DateNotInSeason, DateNotInSeason.message(file, line, dateColumn, date), {
+        file, row: line, column: dateColumn, value: date, expected: 'a date in a month covered by the seasons of scenario.json', severity: 'warning', excluded: true,
+      });
+      keep = false;
+    }
+    if (!keep || !season) return 'excluded';
+    const ours = names === identityNames ? row : { ...row, values: renameKeys(row.values, names), censored: renameKeys(row.censored, names) };
+    const normalised = definition.normalise(ours);
+    records.push({
+      indicator: definition.id,
+      segmentId: String(ours.values['segment_id']),
+      date,
+      t: decimalYear(date),
+      season: season.id,
+      seasonName: season.name,
+      value: normalised.value,
+      censored: normalised.censored,
+      extra: normalised.note === undefined ? normalised.extra : { ...normalised.extra, note: normalised.note },
+      source: { file, row: line },
+    });
+    return 'kept';
+  }
+}
+
+function renameKeys<T>(values: { [column: string]: T }, names: ColumnNames): { [column: string]: T } {
+  const out: { [column: string]: T } = {};
+  for (const [key, value] of Object.entries(values)) out[names.ours(key)] = value;
+  return out;
 }
 

@@ -92,6 +92,11 @@ export class IssueLog {
     return counts;
   }
 
+  /** `--strict`: every warning becomes an error, so a build stops on it. */
+  makeWarningsErrors(): void {
+    for (const item of this.issues) if (item.severity === 'warning') item.severity = 'error';
+  }
+
   hasErrors(): boolean {
     return this.errors;
   }

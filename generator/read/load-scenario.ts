@@ -9,7 +9,7 @@
  */
 import { realpath, stat } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
-import { InputValidationError, NoUsableRows, ResourceFileMissing, ResourceInvalid, ResourceOutsideScenario, ScenarioError, ScenarioFolderUnreadable, SettingsInvalid } from '../errors.ts';
+import { InputValidationError, NoUsableRows, ResourceFileMissing, ResourceInvalid, ResourceOutsideScenario, RuleWithoutData, ScenarioError, ScenarioFolderUnreadable, SettingsInvalid } from '../errors.ts';
 import { readDrift } from '../drift/drift-model.ts';
 import { driftLogEntries, driftMemoKey, replayDriftLog, type DriftMemo } from './drift-memo.ts';
 import { indicatorDefinitions } from '../indicators/index.ts';
@@ -20,6 +20,8 @@ import { fileDigest } from './file-digest.ts';
 import type { ScenarioPeriod } from './indicator-table.ts';
 import { readIndicatorTable } from './indicator-table.ts';
 import { IssueLog } from './issue-log.ts';
+import { guardLosses } from './loss-guard.ts';
+import type { SeriesRows, TableRows } from './loss-guard.ts';
 import type { ResourceEntry } from './package-descriptor.ts';
 import { readPackageDescriptor } from './package-descriptor.ts';
 import { readSettings } from './read-settings.ts';
@@ -35,6 +37,8 @@ export interface LoadOptions {
   onProgress?(phase: string, done: number, total?: number): void;
   /** Drift figures remembered from an earlier build with the same drift inputs (drift-memo.ts). */
   driftMemo?: DriftMemo;
+  /** Every warning counts as an error (`--strict`). */
+  strict?: boolean;
 }
 
 const descriptorName = 'datapackage.json';
@@ -152,14 +156,18 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
   progress('segments', 0);
   const segmentsResource = single('segments');
   const segmentsFile = segmentsResource?.path ?? 'segments.geojson';
-  const segments: Segment[] = segmentsResource ? await readSegments(join(root, segmentsResource.path), segmentsResource.path, log) : [];
+  const leftOutSegments = new Set<string>();
+  const segments: Segment[] = segmentsResource ? await readSegments(join(root, segmentsResource.path), segmentsResource.path, log, leftOutSegments) : [];
   const segmentIds = new Set(segments.map((s) => s.id));
 
   const records: ScenarioRecord[] = [];
+  const tableRows: TableRows[] = [];
   const tables = present.filter((r) => r.role === 'indicator' && r.indicator !== null);
   for (const resource of tables) {
     if (resource.indicator === null) continue;
     progress(`reading ${resource.path}`, 0);
+    const seriesRows = new Map<string, SeriesRows>();
+    tableRows.push({ file: resource.path, series: seriesRows });
     try {
       const read = await readIndicatorTable({
         resource,
@@ -168,8 +176,10 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
         settings,
         period,
         segmentIds,
+        leftOutSegments,
         segmentsFile,
         log,
+        seriesRows,
         onProgress: (done, total) => progress(`reading ${resource.path}`, done, total),
       });
       // One by one: spreading a large array into push() overflows the call stack.
@@ -209,6 +219,19 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
       });
     }
   }
+  const settingsFile = settingsResource?.path ?? 'scenario.json';
+  guardLosses(tableRows, log.report().files, settings, settingsFile, log);
+  // A rule about an indicator with no data can never match: say so rather than keep it silently.
+  const withData = new Set<string>(records.map((r) => r.indicator));
+  if (drift !== null) withData.add('drift-arrivals');
+  settings.riskRules.forEach((rule, i) => {
+    if (withData.has(rule.indicator)) return;
+    const path = `$.riskRules[${i}].indicator`;
+    log.add(RuleWithoutData, RuleWithoutData.message(settingsFile, path, rule.id, rule.indicator), {
+      file: settingsFile, row: null, column: path, value: rule.indicator, expected: 'an indicator the scenario has data for', severity: 'warning', excluded: false,
+    });
+  });
+  if (options.strict) log.makeWarningsErrors();
   progress('done', 1, 1);
 
   return { dir: root, settings, segments, records, drift, inputs, report: log.report() };

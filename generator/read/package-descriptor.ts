@@ -2,7 +2,8 @@
  * Reads datapackage.json, the single entry point of a scenario (Frictionless Data Package), and
  * turns its resources into typed entries. Custom resource properties `role` and `indicator` say
  * what each file is; tables carry a Frictionless Table Schema (fields, missingValues, primaryKey,
- * foreignKeys) and a CSV dialect (with our custom `decimalChar`).
+ * foreignKeys) and a CSV dialect (with our custom `decimalChar`). Our custom `columnNames` maps
+ * our column names to the file's own ({"mesh_um": "net_mesh_um"}), so a file is used as it is.
  *
  * An unreadable descriptor throws ScenarioError; a single bad resource becomes a report issue and
  * is skipped.
@@ -81,6 +82,7 @@ const resourceSchema = z
     encoding: z.string().optional(),
     dialect: dialectSchema,
     schema: tableSchemaSchema.optional(),
+    columnNames: z.record(z.string().min(1), z.string().min(1)).default({}),
   })
   .passthrough();
 
@@ -101,6 +103,8 @@ export interface ResourceEntry {
   encoding: string;
   dialect: Dialect;
   schema: TableSchema | null;
+  /** Our column name → the column's name in the file. */
+  columnNames: { [ours: string]: string };
 }
 
 export interface PackageDescriptor {
@@ -188,6 +192,7 @@ export async function readPackageDescriptor(descriptorPath: string, displayName:
       encoding: resource.encoding ?? 'utf-8',
       dialect: resource.dialect,
       schema: resource.schema ?? null,
+      columnNames: resource.columnNames,
     });
   });
   return {

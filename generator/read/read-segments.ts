@@ -2,7 +2,10 @@
  * Reads the coastline segments: a GeoJSON FeatureCollection (RFC 7946, WGS84 lon/lat) or a
  * TopoJSON Topology (first object). Each feature needs properties id (URL-safe slug, unique),
  * name, kind and shellfish, and a LineString, MultiLineString, Polygon or MultiPolygon geometry
- * with valid, non-empty coordinates that do not cross themselves.
+ * with valid, non-empty coordinates. A closed line (first position = last, the whole shore of an
+ * island) is valid. A line that crosses itself (a digitising flaw) is a warning naming the segment
+ * and the point: the segment is kept, measured and drawn as given. Only a geometry that cannot be
+ * used at all leaves the segment out.
  *
  * Length: d3-geo geoLength (great-circle length in radians on the unit sphere; for polygons the
  * perimeter) × the mean Earth radius 6371.0088 km.
@@ -31,15 +34,16 @@ import type { SegmentKind, ShellfishUse } from '../model/types.ts';
 import type { Segment } from '../scenario/types.ts';
 import { earthRadiusKm } from '../drift/geodesy.ts';
 import type { IssueLog } from './issue-log.ts';
+import { boundingBox, findSelfCrossing, isClosedLine } from './line-crossings.ts';
+import type { Position } from './line-crossings.ts';
 import { containsMarkup } from './markup.ts';
 import { parseBoundedJson } from './json-input.ts';
 import { bidiControls, isolateBidi } from './bidi-controls.ts';
+import { didYouMean, matchCategory, segmentCategoryWords } from './category-words.ts';
 
 export const segmentKinds: readonly SegmentKind[] = ['beach', 'bay', 'harbour', 'estuary', 'island-shore', 'rocky-shore', 'lagoon'];
 export const shellfishUses: readonly ShellfishUse[] = ['farmed', 'gathered', 'farmed-and-gathered', 'none'];
 export const segmentIdPattern = /^[a-z0-9][a-z0-9-]{0,62}$/;
-
-type Position = [number, number];
 
 function isRecord(value: unknown): value is { [key: string]: unknown } {
   return typeof value === 'object' && value !== null && !Array.isArray(value);
@@ -59,12 +63,14 @@ interface GeometryCheck {
   rings: boolean;
   problem: string | null;
   badPosition: string | null;
+  /** Every out-of-range position would be in range with longitude and latitude swapped. */
+  swapped: boolean;
 }
 
 function collectLines(geometry: { [key: string]: unknown }): GeometryCheck {
   const type = geometry['type'];
   const coordinates = geometry['coordinates'];
-  const result: GeometryCheck = { lines: [], rings: false, problem: null, badPosition: null };
+  const result: GeometryCheck = { lines: [], rings: false, problem: null, badPosition: null, swapped: false };
   const readLine = (value: unknown, minimum: number, what: string): Position[] | null => {
     if (!Array.isArray(value)) {
       result.problem = `a ${what} is not an array of positions`;
@@ -79,6 +85,7 @@ function collectLines(geometry: { [key: string]: unknown }): GeometryCheck {
       }
       if (position[0] < -180 || position[0] > 180 || position[1] < -90 || position[1] > 90) {
         result.badPosition = `[${position[0]}, ${position[1]}]`;
+        result.swapped = Math.abs(position[1]) <= 180 && Math.abs(position[0]) <= 90;
         return null;
       }
       line.push(position);
@@ -144,64 +151,6 @@ function collectLines(geometry: { [key: string]: unknown }): GeometryCheck {
   return result;
 }
 
-/** Orientation of the triangle p, q, r in the lon/lat plane: >0 counter-clockwise, <0 clockwise. */
-function orientation(p: Position, q: Position, r: Position): number {
-  return (q[0] - p[0]) * (r[1] - p[1]) - (q[1] - p[1]) * (r[0] - p[0]);
-}
-
-function onSegment(p: Position, q: Position, r: Position): boolean {
-  return Math.min(p[0], r[0]) <= q[0] && q[0] <= Math.max(p[0], r[0]) && Math.min(p[1], r[1]) <= q[1] && q[1] <= Math.max(p[1], r[1]);
-}
-
-/** Whether segments p1–p2 and q1–q2 touch or cross (planar test in lon/lat; common practice). */
-export function segmentsIntersect(p1: Position, p2: Position, q1: Position, q2: Position): boolean {
-  const o1 = orientation(p1, p2, q1);
-  const o2 = orientation(p1, p2, q2);
-  const o3 = orientation(q1, q2, p1);
-  const o4 = orientation(q1, q2, p2);
-  if (((o1 > 0 && o2 < 0) || (o1 < 0 && o2 > 0)) && ((o3 > 0 && o4 < 0) || (o3 < 0 && o4 > 0))) return true;
-  if (o1 === 0 && onSegment(p1, q1, p2)) return true;
-  if (o2 === 0 && onSegment(p1, q2, p2)) return true;
-  if (o3 === 0 && onSegment(q1, p1, q2)) return true;
-  if (o4 === 0 && onSegment(q1, p2, q2)) return true;
-  return false;
-}
-
-/**
- * First place where a line (or closed ring) crosses or touches itself, skipping neighbouring edges
- * (and, for rings, the closing pair). Returns "[lon, lat]" of the first edge's start, or null.
- * Sweeps edges sorted by west edge so that only edges overlapping in longitude are compared.
- */
-export function findSelfIntersection(line: readonly Position[], closed: boolean): string | null {
-  const edges: { i: number; a: Position; b: Position; west: number; east: number }[] = [];
-  for (let i = 0; i + 1 < line.length; i++) {
-    const a = line[i];
-    const b = line[i + 1];
-    if (!a || !b) continue;
-    if (a[0] === b[0] && a[1] === b[1]) continue; // repeated point: not a crossing
-    edges.push({ i, a, b, west: Math.min(a[0], b[0]), east: Math.max(a[0], b[0]) });
-  }
-  const count = line.length - 1;
-  edges.sort((x, y) => x.west - y.west);
-  for (let m = 0; m < edges.length; m++) {
-    const e = edges[m];
-    if (!e) continue;
-    for (let n = m + 1; n < edges.length; n++) {
-      const f = edges[n];
-      if (!f) continue;
-      if (f.west > e.east) break;
-      const gap = Math.abs(e.i - f.i);
-      if (gap <= 1) continue;
-      if (closed && gap === count - 1) continue;
-      if (segmentsIntersect(e.a, e.b, f.a, f.b)) {
-        const at = e.i < f.i ? f.a : e.a;
-        return `[${at[0]}, ${at[1]}]`;
-      }
-    }
-  }
-  return null;
-}
-
 function reverseRings(geometry: GeoJSON.Geometry): GeoJSON.Geometry {
   if (geometry.type === 'Polygon') return { type: 'Polygon', coordinates: geometry.coordinates.map((ring) => [...ring].reverse()) };
   if (geometry.type === 'MultiPolygon') {
@@ -233,7 +182,7 @@ export function toFeatures(json: unknown): { features: unknown[] } | { reason: s
 }
 
 /** Checks raw features and returns the usable segments; every problem goes into the log. */
-export function checkSegments(rawFeatures: readonly unknown[], file: string, log: IssueLog): Segment[] {
+export function checkSegments(rawFeatures: readonly unknown[], file: string, log: IssueLog, leftOut: Set<string> = new Set()): Segment[] {
   const counts = log.countsFor(file);
   const segments: Segment[] = [];
   const firstUse = new Map<string, number>();
@@ -265,16 +214,23 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
       exclude(SegmentPropertyInvalid, SegmentPropertyInvalid.message(file, row, 'name', JSON.stringify(name ?? null), 'a non-empty name'), 'name', name === undefined ? null : String(name), 'a non-empty name');
       ok = false;
     }
-    const kind = properties['kind'];
-    if (typeof kind !== 'string' || !(segmentKinds as readonly string[]).includes(kind)) {
-      exclude(SegmentPropertyInvalid, SegmentPropertyInvalid.message(file, row, 'kind', String(kind ?? ''), `one of ${segmentKinds.join(', ')}`), 'kind', kind === undefined ? null : String(kind), `one of ${segmentKinds.join(', ')}`);
-      ok = false;
-    }
-    const shellfish = properties['shellfish'];
-    if (typeof shellfish !== 'string' || !(shellfishUses as readonly string[]).includes(shellfish)) {
-      exclude(SegmentPropertyInvalid, SegmentPropertyInvalid.message(file, row, 'shellfish', String(shellfish ?? ''), `one of ${shellfishUses.join(', ')}`), 'shellfish', shellfish === undefined ? null : String(shellfish), `one of ${shellfishUses.join(', ')}`);
-      ok = false;
-    }
+    // Category words are matched after trimming, case and space/hyphen/underscore folding and
+    // through the documented synonyms (category-words.ts).
+    const category = (column: 'kind' | 'shellfish', allowed: readonly string[]): string | null => {
+      const value = properties[column];
+      const text = typeof value === 'string' ? value : typeof value === 'boolean' ? String(value) : null;
+      const match = text === null ? { ok: false as const, suggestion: null } : matchCategory(text, allowed, segmentCategoryWords[column]);
+      if (match.ok) return match.value;
+      const expected = `one of ${allowed.join(', ')}`;
+      log.add(SegmentPropertyInvalid, `${SegmentPropertyInvalid.message(file, row, column, String(value ?? ''), expected)}${didYouMean(match.suggestion)}`, {
+        file, row, column, value: value === undefined ? null : String(value), expected, severity: 'error', excluded: true,
+        ...(match.suggestion === null ? { hint: `Write one of ${allowed.join(', ')}; case, spaces and underscores do not matter` } : { hint: `Write "${match.suggestion}"` }),
+      });
+      return null;
+    };
+    const kind = category('kind', segmentKinds);
+    const shellfish = category('shellfish', shellfishUses);
+    if (kind === null || shellfish === null) ok = false;
     const placeValue = properties['place'];
     const place = typeof placeValue === 'string' && placeValue.trim() !== '' ? placeValue : null;
     for (const [column, text] of [['name', name], ['place', place]] as const) {
@@ -294,17 +250,24 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
     } else {
       checked = collectLines(geometry);
       if (checked.badPosition) {
-        exclude(CoordinateOutOfRange, CoordinateOutOfRange.message(file, row, checked.badPosition), 'geometry', checked.badPosition, 'longitude −180..180, latitude −90..90');
+        const swapHint = checked.swapped ? 'Did you swap longitude and latitude? GeoJSON writes each position as [longitude, latitude]' : undefined;
+        log.add(CoordinateOutOfRange, CoordinateOutOfRange.message(file, row, checked.badPosition), {
+          file, row, column: 'geometry', value: checked.badPosition, expected: 'longitude −180..180, latitude −90..90', severity: 'error', excluded: true, ...(swapHint ? { hint: swapHint } : {}),
+        });
         ok = false;
       } else if (checked.problem) {
         exclude(GeometryInvalid, GeometryInvalid.message(file, row, checked.problem), 'geometry', null, 'a non-empty LineString, MultiLineString or Polygon');
         ok = false;
       } else {
-        for (const line of checked.lines) {
-          const where = findSelfIntersection(line, checked.rings);
-          if (where) {
-            exclude(GeometrySelfIntersects, GeometrySelfIntersects.message(file, row, where), 'geometry', where, 'a line that does not cross itself');
-            ok = false;
+        for (const [part, line] of checked.lines.entries()) {
+          const crossing = findSelfCrossing(line, checked.rings || isClosedLine(line));
+          if (crossing) {
+            const where = `[${crossing.at[0]}, ${crossing.at[1]}]`;
+            const partName = checked.lines.length > 1 ? `${checked.rings ? 'ring' : 'line'} ${part + 1}, ` : '';
+            const detail = `${partName}edges starting at positions ${crossing.firstEdge} and ${crossing.secondEdge}`;
+            log.add(GeometrySelfIntersects, GeometrySelfIntersects.message(file, row, id, where, detail), {
+              file, row, column: 'geometry', value: where, expected: 'a line that does not cross itself', severity: 'warning', excluded: false,
+            });
             break;
           }
         }
@@ -312,7 +275,10 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
     }
     if (!ok || !checked || !isRecord(geometry)) {
       counts.excluded++;
-      if (segmentIdPattern.test(id) && !firstUse.has(id)) firstUse.set(id, row);
+      if (segmentIdPattern.test(id) && !firstUse.has(id)) {
+        firstUse.set(id, row);
+        leftOut.add(id);
+      }
       return;
     }
     firstUse.set(id, row);
@@ -322,21 +288,11 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
     if (!(lengthKm > 0)) {
       exclude(GeometryInvalid, GeometryInvalid.message(file, row, 'the line has zero length (all its positions are the same point)'), 'geometry', null, 'a line longer than zero');
       counts.excluded++;
+      leftOut.add(id);
       return;
     }
     if (checked.rings && geoArea(shape) > 2 * Math.PI) shape = reverseRings(shape);
-    let west = Infinity;
-    let south = Infinity;
-    let east = -Infinity;
-    let north = -Infinity;
-    for (const line of checked.lines) {
-      for (const [lon, lat] of line) {
-        if (lon < west) west = lon;
-        if (lon > east) east = lon;
-        if (lat < south) south = lat;
-        if (lat > north) north = lat;
-      }
-    }
+    const bbox = boundingBox(checked.lines);
     segments.push({
       id,
       name: isolateBidi(String(name)),
@@ -345,14 +301,15 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
       place: place === null ? null : isolateBidi(place),
       lengthKm,
       geometry: shape,
-      bbox: [west, south, east, north],
+      bbox,
     });
     counts.kept++;
   });
   return segments;
 }
 
-export async function readSegments(absolutePath: string, file: string, log: IssueLog): Promise<Segment[]> {
+/** `leftOut` receives the ids of segments left out, so that rows naming them are summed up, not listed. */
+export async function readSegments(absolutePath: string, file: string, log: IssueLog, leftOut: Set<string> = new Set()): Promise<Segment[]> {
   let outcome;
   try {
     outcome = parseBoundedJson(await readFile(absolutePath, 'utf8'));
@@ -379,5 +336,5 @@ export async function readSegments(absolutePath: string, file: string, log: Issu
     log.countsFor(file);
     return [];
   }
-  return checkSegments(features.features, file, log);
+  return checkSegments(features.features, file, log, leftOut);
 }

@@ -76,6 +76,10 @@ export const settingsSchema = z.object({
   riskRules: z.array(riskRuleSchema).default([]),
   /** First day of the monitored period; records dated earlier are left out. Optional. */
   monitoringStart: isoDate.optional(),
+  /** Losses of table rows accepted on purpose (the loss guard, generator/read/loss-guard.ts). */
+  leftOutAllowed: z
+    .array(z.object({ table: z.string().min(1), share: z.number().min(0).max(1), reason: z.string().min(1) }))
+    .default([]),
 });
 
 export type ScenarioSettings = z.infer<typeof settingsSchema>;
