@@ -147,8 +147,8 @@ export function keepBoundsApartFromZero(rate: RoundedRate, slope: number, lower:
   };
   const lo = own(lower);
   const hi = own(upper);
-  // the rate to two significant figures, but never finer than one digit below the finer bound
-  const finest = Math.max(lo.decimals, hi.decimals) + 1;
+  // the rate to two significant figures, but never finer than the finer bound
+  const finest = Math.max(lo.decimals, hi.decimals);
   const rough = own(slope);
   const mid = rough.decimals <= finest ? rough : { value: roundToDecimals(slope, finest), decimals: finest };
   if (mid.value === 0) mid.decimals = Math.max(lo.decimals, hi.decimals);

@@ -134,16 +134,46 @@ export function directionChangeSentence(subject: string, now: Direction, before:
   return `Last season ${pastDirection(subject, before)}; now ${presentDirection(now)}.`;
 }
 
-/** "Beach litter this season: 44 items per 100 m of beach, against 30 last season." */
+/** A season's median as printed: the number, or whether it was below the lab's detection limit. */
+export interface PrintedValue {
+  /** the number as printed (two significant figures), "0.05" */
+  text: string;
+  /** true when the median is a sample reported below the lab's detection limit; `text` is then that limit */
+  censored: boolean;
+}
+
+/** "below the lab's detection limit (0.05)": a value reported as "<0.05" is never read as a measurement. */
+export function belowDetectionWords(limit: string, unit?: string): string {
+  // a unit's own brackets become a comma inside these ("per gram of shellfish, wet weight")
+  const inner = unit ? ` ${unitAfter(limit, unit).replace(/ \((.*)\)$/u, ', $1')}` : '';
+  return `below the lab's detection limit (${limit}${inner})`;
+}
+
+/** "0.62", or "below the lab's detection limit (0.05)". */
+export function printedValueWords(value: PrintedValue): string {
+  return value.censored ? belowDetectionWords(value.text) : value.text;
+}
+
+/**
+ * "Beach litter this season: 44 items per 100 m of beach, against 30 last season."
+ * A censored value reads "below the lab's detection limit (0.05 …)", never as a measurement:
+ * "Plastic in shellfish this season: below the lab's detection limit (0.05 particles per gram of
+ * shellfish (wet weight)), against 0.62 last season."
+ */
 export function seasonValueSentence(
   subject: string,
   unit: string,
-  now: string | null,
-  before: string | null,
+  now: string | PrintedValue | null,
+  before: string | PrintedValue | null,
 ): string | null {
   if (now === null) return null;
-  if (before === null) return `${subject} this season: ${now} ${unitAfter(now, unit)}.`;
-  return `${subject} this season: ${now} ${unitAfter(now, unit)}, against ${before} last season.`;
+  const current: PrintedValue = typeof now === 'string' ? { text: now, censored: false } : now;
+  const last: PrintedValue | null = before === null ? null : typeof before === 'string' ? { text: before, censored: false } : before;
+  const shown = current.censored ? belowDetectionWords(current.text, unit) : `${current.text} ${unitAfter(current.text, unit)}`;
+  if (last === null) return `${subject} this season: ${shown}.`;
+  if (current.censored && last.censored && current.text === last.text) return `${subject} this season: ${shown}, as it was last season.`;
+  if (last.censored) return `${subject} this season: ${shown}; last season it was ${belowDetectionWords(last.text)}.`;
+  return `${subject} this season: ${shown}, against ${last.text} last season.`;
 }
 
 /**

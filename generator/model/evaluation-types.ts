@@ -47,7 +47,11 @@ export interface IndicatorEvaluation {
   direction: Direction;
   probabilityUp: number | null;
   seasonValue: number | null;
+  /** true when the season's median is a sample reported below the lab's detection limit (then seasonValue is that limit) */
+  seasonValueCensored: boolean;
   assessmentValue: number | null;
+  /** the same for the median of the last four seasons */
+  assessmentValueCensored: boolean;
   cleanCoastIndex: number | null;
   regionPercentile: number | null;
   segmentsTested: number;

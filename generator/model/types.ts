@@ -70,8 +70,17 @@ export interface IndicatorBulletin {
   observations: Observation[];      // everything up to the end of the season, oldest first
   /** Value for the published season alone (median of its samples), null when none. */
   seasonValue: number | null;
+  /**
+   * True when that median is a sample reported below the lab's detection limit ("<x"): then
+   * seasonValue is the limit, not a measurement, and every text says "below the lab's detection limit".
+   */
+  seasonValueCensored: boolean;
+  /** seasonValue as the bulletin prints it ("0.62", "below the lab's detection limit (0.05)"), null when none. */
+  seasonValueText: string | null;
   /** Median over the last four seasons (the assessment value), null when none. */
   assessmentValue: number | null;
+  /** True when that median is below the lab's detection limit (as seasonValueCensored). */
+  assessmentValueCensored: boolean;
   trend: TrendResult | null;        // null when there is no data at all
   /** Benjamini–Hochberg q-value of this segment's trend among all segments, this indicator. */
   qValue: number | null;

@@ -106,12 +106,14 @@ describe('demo bulletins', () => {
           expect(text).toContain('Our best guess is close to no change.');
         }
         if (rate.lower !== null && rate.upper !== null && !(rate.lower === 0 && rate.upper === 0)) {
+          // each bound with its own decimals: both are two significant figures where the range spans zero
           const words =
             rate.lower > 0
-              ? `${fmt(rate.lower, rate.decimals)} to ${fmt(rate.upper, rate.decimals)} more`
+              ? `${fmt(rate.lower, rate.lowerDecimals)} to ${fmt(rate.upper, rate.upperDecimals)} more`
               : rate.upper < 0
-                ? `${fmt(rate.upper, rate.decimals)} to ${fmt(rate.lower, rate.decimals)} fewer`
-                : `${amount(rate.lower, rate.decimals)} to ${amount(rate.upper, rate.decimals)}`;
+                ? `${fmt(rate.upper, rate.upperDecimals)} to ${fmt(rate.lower, rate.lowerDecimals)} fewer`
+                : `${amount(rate.lower, rate.lowerDecimals)} to ${amount(rate.upper, rate.upperDecimals)}`;
+          if (rate.lower < 0 && rate.upper > 0) expect(words).toMatch(/^[\d.,]+ fewer to [\d.,]+ more$/u);
           expect(text).toContain(`95% confidence interval runs from ${words}`);
           checked += 1;
         }
@@ -139,7 +141,9 @@ describe('demo bulletins', () => {
         const shown = formatPlain(i.seasonValue);
         // The plain form is the same rounded number as two significant figures, trailing zeros dropped.
         expect(Number(shown.replace(/,/g, ''))).toBe(Number(formatSignificant(i.seasonValue).replace(/,/g, '')));
-        expect(b.changes.some((c) => c.includes(`this season: ${shown} ${i.unit}`))).toBe(true);
+        // a median below the lab's detection limit is never printed as a measurement
+        const said = i.seasonValueCensored ? `this season: below the lab's detection limit (${shown} ` : `this season: ${shown} ${i.unit}`;
+        expect(b.changes.some((c) => c.includes(said))).toBe(true);
       }
     }
   });
@@ -193,8 +197,9 @@ describe('demo bulletins', () => {
     for (const b of set.bulletins) {
       for (const sentence of mainText(b)) {
         expect(sentence).not.toMatch(/q-value|\bSen\b|heterogeneity|Mann|Kendall|p-value|bootstrap/i);
-        // At most three decimals anywhere (rates of tiny quantities), and never a padded 0.0000.
-        expect(sentence).not.toMatch(/\d\.\d{4,}/);
+        // At most three decimals, except a number below 0.01 at two significant figures (a tiny
+        // rate or a bound kept apart from zero, "0.0025"); never a padded 0.0000.
+        for (const m of sentence.matchAll(/\d+\.\d{4,}/gu)) expect(m[0]).toMatch(/^0\.00\d*[1-9]\d?$/u);
         expect(sentence).not.toMatch(/(^|[^\d.,])1 (items|animals|particles|seasons|samples)\b/);
       }
     }

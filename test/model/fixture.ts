@@ -45,7 +45,7 @@ function segment(id: string, name: string, kind: Segment['kind'], shellfish: Seg
   };
 }
 
-function record(indicator: IndicatorId, segmentId: string, date: string, value: number, censored = false, extra: ScenarioRecord['extra'] = {}): ScenarioRecord {
+export function record(indicator: IndicatorId, segmentId: string, date: string, value: number, censored = false, extra: ScenarioRecord['extra'] = {}): ScenarioRecord {
   const season = seasonOfDate(date, settings.seasons) ?? '';
   return { indicator, segmentId, date, t: decimalYear(date), season, seasonName: season.slice(5), value, censored, extra, source: { file: 'tables/x.csv', row: 2 } };
 }
