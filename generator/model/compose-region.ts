@@ -10,7 +10,7 @@ import { getIndicator } from '../indicators/index.ts';
 import { levelScale } from '../risk/levels.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
 import type { RegionalResult, SeasonEvaluation } from './evaluate-season.ts';
-import type { Direction, IndicatorId, LevelResult, RegionalTrend, RegionSummary } from './types.ts';
+import type { Direction, HeadlinePart, IndicatorId, LevelResult, RegionalTrend, RegionSummary } from './types.ts';
 
 export function regionalTrendSentence(subject: string, unit: string, result: RegionalResult | null, segments: number, falseDiscoveryRate: number): string {
   const lower = lowerFirst(subject);
@@ -22,6 +22,32 @@ export function regionalTrendSentence(subject: string, unit: string, result: Reg
     return `Across ${places}, ${lower} is going ${up ? 'up' : 'down'}${rate}.`;
   }
   return `Across ${places}, we cannot tell if ${lower} is going up or down.`;
+}
+
+/** How many places the headline names at the highest level before "and N more". */
+export const namedAtHighest = 5;
+
+/**
+ * "Brin Coast, autumn 2026: the highest level is Heavy (level 4 of 4), at 2 of 30 places: East Bay
+ * and North Beach." Names up to five places (segment order), then "and N more"; each name is a part
+ * of its own with the segment id, so the page can link it to the bulletin.
+ */
+export function highestLevelHeadline(
+  lead: string,
+  levelText: string,
+  atHighest: readonly { id: string; name: string }[],
+  total: number,
+): HeadlinePart[] {
+  const n = atHighest.length;
+  const parts: HeadlinePart[] = [{ text: `${lead}: the highest level is ${levelText}, at ${formatNumber(n, 0)} of ${formatNumber(total, 0)} ${total === 1 ? 'place' : 'places'}: ` }];
+  const named = atHighest.slice(0, namedAtHighest);
+  const more = n - named.length;
+  named.forEach((place, i) => {
+    if (i > 0) parts.push({ text: i === named.length - 1 && more === 0 ? ' and ' : ', ' });
+    parts.push({ text: place.name, segmentId: place.id });
+  });
+  parts.push({ text: more > 0 ? ` and ${formatNumber(more, 0)} more.` : '.' });
+  return parts;
 }
 
 /** What composeRegion reads of a season's evaluation (a SeasonEvaluation is one). */
@@ -83,8 +109,13 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
   }
   for (const trend of regionalTrends) summary.push(trend.sentence);
   const highest = Math.max(0, ...rows.map((r) => r.level.rank));
-  const atHighest = rows.filter((r) => r.level.rank === highest).length;
   const highestLabel = levelScale.find((l) => l.rank === highest)?.label ?? 'Scant';
+  const headlineParts = highestLevelHeadline(
+    `${settings.region.name}, ${lowerFirst(now.season.label)}`,
+    `${highestLabel} (level ${highest} of 4)`,
+    rows.filter((r) => r.level.rank === highest),
+    rows.length,
+  );
   return {
     schemaVersion: 1,
     invented: settings.invented,
@@ -103,7 +134,8 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
       debris: debrisCautions(settings.authorities),
     },
     authorities: settings.authorities.map((a) => ({ ...a })),
-    headline: `${settings.region.name}, ${lowerFirst(now.season.label)}: the highest level is ${highestLabel} (level ${highest} of 4), at ${formatNumber(atHighest, 0)} of ${formatNumber(rows.length, 0)} places.`,
+    headline: headlineParts.map((p) => p.text).join(''),
+    headlineParts,
     summary,
   };
 }

@@ -182,6 +182,12 @@ export interface RegionalTrend {
   sentence: string;
 }
 
+/** A piece of a sentence; with a segment id, the page links the text to that segment's bulletin. */
+export interface HeadlinePart {
+  text: string;
+  segmentId?: string;
+}
+
 export interface RegionSummary {
   schemaVersion: 1;
   invented: boolean;
@@ -202,6 +208,8 @@ export interface RegionSummary {
   regionalTrends: RegionalTrend[];
   zones: AccumulationZone[];
   headline: string;
+  /** The headline in parts (joined they are `headline`); the places named in it carry their segment id. */
+  headlineParts?: HeadlinePart[];
   summary: string[];
   /** Cautions for the region page (it mentions shellfish whenever any segment has shellfish data). */
   cautions?: { shellfish: Caution[]; debris: Caution[] };

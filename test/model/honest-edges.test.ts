@@ -4,6 +4,7 @@
  */
 import { describe, expect, test } from 'vitest';
 import { assembleModel } from '../../generator/model/assemble-model.ts';
+import { highestLevelHeadline } from '../../generator/model/compose-region.ts';
 import { resultsCsv } from '../../generator/model/download-tables.ts';
 import type { LoadedScenario } from '../../generator/scenario/types.ts';
 import { fixtureScenario, record, testEngine } from './fixture.ts';
@@ -50,5 +51,26 @@ describe('case 2, below detection printed as a measurement', () => {
     const row = csv.find((line) => line.includes(',shellfish-tissue,'))!.split(',');
     expect(row[header.indexOf('season_median')]).toBe('0.05');
     expect(row[header.indexOf('season_median_below_detection_limit')]).toBe('true');
+  });
+});
+
+describe('case 5, the overview headline hides the worst place', () => {
+  const places = (n: number) => Array.from({ length: n }, (_, i) => ({ id: `p${i + 1}`, name: `Place ${i + 1}` }));
+  test('case 5: the places at the highest level are named, up to five, then "and N more", each linked', () => {
+    const text = (n: number) => highestLevelHeadline('Brin Coast, autumn 2026', 'Heavy (level 4 of 4)', places(n), 30).map((p) => p.text).join('');
+    expect(text(1)).toBe('Brin Coast, autumn 2026: the highest level is Heavy (level 4 of 4), at 1 of 30 places: Place 1.');
+    expect(text(3)).toBe('Brin Coast, autumn 2026: the highest level is Heavy (level 4 of 4), at 3 of 30 places: Place 1, Place 2 and Place 3.');
+    expect(text(5)).toBe('Brin Coast, autumn 2026: the highest level is Heavy (level 4 of 4), at 5 of 30 places: Place 1, Place 2, Place 3, Place 4 and Place 5.');
+    expect(text(8)).toBe('Brin Coast, autumn 2026: the highest level is Heavy (level 4 of 4), at 8 of 30 places: Place 1, Place 2, Place 3, Place 4, Place 5 and 3 more.');
+    const parts = highestLevelHeadline('X', 'Heavy (level 4 of 4)', places(8), 30);
+    expect(parts.filter((p) => p.segmentId).map((p) => [p.segmentId, p.text])).toEqual([
+      ['p1', 'Place 1'], ['p2', 'Place 2'], ['p3', 'Place 3'], ['p4', 'Place 4'], ['p5', 'Place 5'],
+    ]);
+  });
+  test('case 5: the region model names the place at the highest level', () => {
+    const set = assembleModel(fixtureScenario(), testEngine);
+    const region = set.regions.find((r) => r.season.id === '2026-autumn')!;
+    expect(region.headline).toBe('Brin Coast, autumn 2026: the highest level is Marked (level 3 of 4), at 1 of 3 places: East Bay.');
+    expect(region.headlineParts?.find((p) => p.segmentId)).toEqual({ text: 'East Bay', segmentId: 'east-bay' });
   });
 });
