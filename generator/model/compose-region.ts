@@ -2,6 +2,11 @@
  * The region's page for one published season: every segment's level and directions, the Regional
  * Kendall trend per indicator (Helsel & Frans 2006: the Seasonal Kendall test with sites in place
  * of seasons), the accumulation zones, and a short summary.
+ *
+ * Trends that differ between places: the van Belle & Hughes (1984) homogeneity chi-square over the
+ * sites (χ² = Σ_k Z_k² − K·Z̄², df K − 1; stats/regional-kendall.ts). Where it rejects homogeneity
+ * at 1 − confidence and places go both ways, the sentence names how many go each way instead of a
+ * single regional direction.
  */
 import { debrisCautions, shellfishCautions } from '../bulletin/cautions.ts';
 import { indicatorSubjects, lowerFirst } from '../bulletin/indicator-words.ts';
@@ -12,16 +17,40 @@ import type { LoadedScenario } from '../scenario/types.ts';
 import type { RegionalResult, SeasonEvaluation } from './evaluate-season.ts';
 import type { Direction, HeadlinePart, IndicatorId, LevelResult, RegionalTrend, RegionSummary } from './types.ts';
 
-export function regionalTrendSentence(subject: string, unit: string, result: RegionalResult | null, segments: number, falseDiscoveryRate: number): string {
+/**
+ * The region's sentence for one indicator.
+ * - Trends that differ between places (van Belle & Hughes 1984 homogeneity chi-square below
+ *   1 − confidence) with places going both ways (each place's own claimed direction, the q-value
+ *   rule of the bulletins) are told as they are: "Beach litter is going up at 10 places and down at
+ *   8; there is no single direction across the region." USGS practice for the Regional Kendall
+ *   test (Helsel & Frans 2006) is to report no single regional trend where trends are heterogeneous.
+ * - A regional rise or fall is claimed only when p is below the false-discovery rate and the
+ *   median slope is not 0 and has the sign of S (the rule of direction.ts).
+ */
+export function regionalTrendSentence(
+  subject: string,
+  unit: string,
+  result: RegionalResult | null,
+  segments: number,
+  falseDiscoveryRate: number,
+  places: { up: number; down: number; confidence: number } = { up: 0, down: 0, confidence: 0.95 },
+): string {
   const lower = lowerFirst(subject);
   if (!result || result.p === null) return `Too little data to say if ${lower} is changing across the region.`;
-  const places = `${formatNumber(segments, 0)} ${segments === 1 ? 'place' : 'places'}`;
+  const count = (n: number): string => `${formatNumber(n, 0)} ${n === 1 ? 'place' : 'places'}`;
+  const heterogeneous = result.homogeneity !== null && result.homogeneity !== undefined && result.homogeneity.p < 1 - places.confidence;
+  if (heterogeneous && places.up > 0 && places.down > 0) {
+    return `${subject} is going up at ${count(places.up)} and down at ${formatNumber(places.down, 0)}; there is no single direction across the region.`;
+  }
+  const across = `Across ${count(segments)}`;
   if (result.p < falseDiscoveryRate && result.S !== null && result.S !== 0) {
     const up = result.S > 0;
-    const rate = result.slope !== null && result.slope !== 0 ? ` by about ${formatSignificant(Math.abs(result.slope))} ${unit} a year` : '';
-    return `Across ${places}, ${lower} is going ${up ? 'up' : 'down'}${rate}.`;
+    if (result.slope === null || result.slope === 0 || Math.sign(result.slope) !== Math.sign(result.S)) {
+      return `${across}, we cannot tell if ${lower} is going up or down: the typical yearly change is zero.`;
+    }
+    return `${across}, ${lower} is going ${up ? 'up' : 'down'} by about ${formatSignificant(Math.abs(result.slope))} ${unit} a year.`;
   }
-  return `Across ${places}, we cannot tell if ${lower} is going up or down.`;
+  return `${across}, we cannot tell if ${lower} is going up or down.`;
 }
 
 /** How many places the headline names at the highest level before "and N more". */
@@ -79,6 +108,8 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
   });
   const regionalTrends: RegionalTrend[] = now.regional.map(({ indicator, result, segments: count }) => {
     const definition = getIndicator(indicator);
+    const placesUp = rows.filter((r) => r.directions[indicator] === 'rising').length;
+    const placesDown = rows.filter((r) => r.directions[indicator] === 'falling').length;
     return {
       indicator,
       label: definition.label,
@@ -87,7 +118,14 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
       p: result?.p ?? null,
       slope: result?.slope === null || result?.slope === undefined ? null : result.slope,
       unitShort: definition.unitShort,
-      sentence: regionalTrendSentence(indicatorSubjects[indicator], definition.unit, result, count, settings.trend.falseDiscoveryRate),
+      sentence: regionalTrendSentence(indicatorSubjects[indicator], definition.unit, result, count, settings.trend.falseDiscoveryRate, {
+        up: placesUp,
+        down: placesDown,
+        confidence: settings.trend.confidence,
+      }),
+      homogeneity: result?.homogeneity ?? null,
+      placesUp,
+      placesDown,
     };
   });
   const counts = levelScale

@@ -180,6 +180,11 @@ export interface RegionalTrend {
   slope: number | null;
   unitShort: string;
   sentence: string;
+  /** van Belle & Hughes (1984) homogeneity of the trends across places; null when not computed. */
+  homogeneity?: { chi2: number; df: number; p: number } | null;
+  /** Places whose own trend is claimed rising / falling (the bulletins' q-value rule). */
+  placesUp?: number;
+  placesDown?: number;
 }
 
 /** A piece of a sentence; with a segment id, the page links the text to that segment's bulletin. */

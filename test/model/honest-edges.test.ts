@@ -7,7 +7,9 @@ import { assembleModel } from '../../generator/model/assemble-model.ts';
 import { highestLevelHeadline } from '../../generator/model/compose-region.ts';
 import { resultsCsv } from '../../generator/model/download-tables.ts';
 import type { LoadedScenario } from '../../generator/scenario/types.ts';
-import { fixtureScenario, record, testEngine } from './fixture.ts';
+import { regionalTrendSentence } from '../../generator/model/compose-region.ts';
+import { statsTrendEngine } from '../../generator/model/trend-engine.ts';
+import { fixtureScenario, record, seasonDates, segment, testEngine } from './fixture.ts';
 
 function withRecords(change: (records: LoadedScenario['records']) => LoadedScenario['records']): LoadedScenario {
   const scenario = fixtureScenario();
@@ -72,5 +74,48 @@ describe('case 5, the overview headline hides the worst place', () => {
     const region = set.regions.find((r) => r.season.id === '2026-autumn')!;
     expect(region.headline).toBe('Brin Coast, autumn 2026: the highest level is Marked (level 3 of 4), at 1 of 3 places: East Bay.');
     expect(region.headlineParts?.find((p) => p.segmentId)).toEqual({ text: 'East Bay', segmentId: 'east-bay' });
+  });
+});
+
+describe('case 4, a region "cannot tell" that hides places going opposite ways', () => {
+  // 10 places rising, 8 falling, 3 flat: the Regional Kendall sum of S nearly cancels.
+  const base = fixtureScenario();
+  const ids = Array.from({ length: 21 }, (_, i) => `place-${String(i + 1).padStart(2, '0')}`);
+  const records = ids.flatMap((id, n) =>
+    seasonDates().map((date, k) => {
+      const value = n < 10 ? 20 + 2 * k + (k % 3) : n < 18 ? 90 - 2 * k + (k % 3) : [14, 9, 17, 11, 15, 8][k % 6]!;
+      return record('beach-litter', id, date, value);
+    }),
+  );
+  const scenario: LoadedScenario = { ...base, segments: ids.map((id, n) => segment(id, `Place ${n + 1}`, 'beach', 'none')), records };
+  const engine = { ...testEngine, regional: statsTrendEngine.regional };
+  const set = assembleModel(scenario, engine);
+  const region = set.regions.find((r) => r.season.id === '2026-autumn')!;
+  const litter = region.regionalTrends.find((t) => t.indicator === 'beach-litter')!;
+
+  test('case 4: "Beach litter is going up at 10 places and down at 8; there is no single direction across the region."', () => {
+    expect(litter.placesUp).toBe(10);
+    expect(litter.placesDown).toBe(8);
+    expect(litter.homogeneity?.p).toBeLessThan(0.05);
+    expect(litter.sentence).toBe('Beach litter is going up at 10 places and down at 8; there is no single direction across the region.');
+    expect(region.summary).toContain(litter.sentence);
+  });
+
+  test('case 4: homogeneous trends keep the regional sentence; mixed counts without a failed homogeneity test do too', () => {
+    const result = { S: 40, z: 2.5, p: 0.01, slope: 1.2, homogeneity: { chi2: 3, df: 20, p: 0.99 } };
+    expect(regionalTrendSentence('Beach litter', 'items per 100 m of beach', result, 21, 0.05, { up: 10, down: 1, confidence: 0.95 })).toBe(
+      'Across 21 places, beach litter is going up by about 1.2 items per 100 m of beach a year.',
+    );
+    const mixed = { ...result, homogeneity: { chi2: 80, df: 20, p: 1e-8 } };
+    expect(regionalTrendSentence('Beach litter', 'items per 100 m of beach', mixed, 21, 0.05, { up: 1, down: 1, confidence: 0.95 })).toBe(
+      'Beach litter is going up at 1 place and down at 1; there is no single direction across the region.',
+    );
+  });
+
+  test('case 3 (region): a regional fall with a median change of 0 is not called going down', () => {
+    const result = { S: -900, z: -3.1, p: 0.002, slope: 0, homogeneity: { chi2: 3, df: 20, p: 0.99 } };
+    expect(regionalTrendSentence('Beach litter', 'items per 100 m of beach', result, 2000, 0.05)).toBe(
+      'Across 2,000 places, we cannot tell if beach litter is going up or down: the typical yearly change is zero.',
+    );
   });
 });
