@@ -134,9 +134,18 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
     .map((level) => ({ level, n: rows.filter((r) => r.level.id === level.id).length }))
     .filter((c) => c.n > 0)
     .map((c) => `${formatNumber(c.n, 0)} ${c.level.label}`);
-  const up = rows.filter((r) => r.previousLevel && r.level.rank > r.previousLevel.rank).length;
-  const down = rows.filter((r) => r.previousLevel && r.level.rank < r.previousLevel.rank).length;
-  const summary = [`Levels of the ${formatNumber(rows.length, 0)} places this season: ${counts.join(', ')}.`];
+  // Places with no level (no survey in the last four seasons) are counted apart, never as Scant.
+  const notSet = rows.filter((r) => r.level.id === 'not-set').length;
+  // A move to or from "no level" is not a level going up or down.
+  const ranked = (r: (typeof rows)[number]): boolean => r.level.rank > 0 && (r.previousLevel?.rank ?? 0) > 0;
+  const up = rows.filter((r) => ranked(r) && r.previousLevel && r.level.rank > r.previousLevel.rank).length;
+  const down = rows.filter((r) => ranked(r) && r.previousLevel && r.level.rank < r.previousLevel.rank).length;
+  const levelCounts = counts.length > 0 ? `Levels of the ${formatNumber(rows.length, 0)} places this season: ${counts.join(', ')}.` : `No place has a level this season.`;
+  const summary = [
+    notSet === 0
+      ? levelCounts
+      : `${levelCounts} ${notSet === 1 ? '1 place has' : `${formatNumber(notSet, 0)} places have`} no level set, because no survey was made there in the last four seasons.`,
+  ];
   if (previous) {
     const places = (n: number): string => (n === 0 ? 'no place' : `${formatNumber(n, 0)} ${n === 1 ? 'place' : 'places'}`);
     summary.push(
@@ -148,7 +157,9 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
   for (const trend of regionalTrends) summary.push(trend.sentence);
   const highest = Math.max(0, ...rows.map((r) => r.level.rank));
   const highestLabel = levelScale.find((l) => l.rank === highest)?.label ?? 'Scant';
-  const headlineParts = highestLevelHeadline(
+  const headlineParts: HeadlinePart[] = highest === 0
+    ? [{ text: `${settings.region.name}, ${lowerFirst(now.season.label)}: no place has a level set, because no survey was made in the last four seasons.` }]
+    : highestLevelHeadline(
     `${settings.region.name}, ${lowerFirst(now.season.label)}`,
     `${highestLabel} (level ${highest} of 4)`,
     rows.filter((r) => r.level.rank === highest),

@@ -17,7 +17,8 @@ export type SeasonId = string;
 
 export type IndicatorId = 'beach-litter' | 'water-microplastics' | 'shellfish-tissue' | 'wildlife-reports' | 'drift-arrivals';
 
-export type LevelId = 'scant' | 'noticeable' | 'marked' | 'heavy';
+/** The four levels, and 'not-set': no survey in the last four seasons and no rule from other evidence. */
+export type LevelId = 'scant' | 'noticeable' | 'marked' | 'heavy' | 'not-set';
 
 export type SegmentKind = 'beach' | 'bay' | 'harbour' | 'estuary' | 'island-shore' | 'rocky-shore' | 'lagoon';
 
@@ -110,9 +111,15 @@ export interface RuleHit {
 
 export interface LevelResult {
   id: LevelId;
-  rank: 1 | 2 | 3 | 4;
+  rank: 0 | 1 | 2 | 3 | 4;          // 0 for 'not-set'
   label: string;                    // our own words
   hits: RuleHit[];                  // rules that matched; the highest sets the level
+  /**
+   * Where no survey was made in the last four seasons: why no level is set ("No survey here in
+   * the last four seasons; the last, in autumn 2022, found 62 items per 100 m of beach."), or, when
+   * other evidence (the drift model) still sets a level, that it alone set it. Absent otherwise.
+   */
+  note?: string;
 }
 
 export interface AccumulationZone {

@@ -8,6 +8,7 @@ import { highestLevelHeadline } from '../../generator/model/compose-region.ts';
 import { resultsCsv } from '../../generator/model/download-tables.ts';
 import type { LoadedScenario } from '../../generator/scenario/types.ts';
 import { regionalTrendSentence } from '../../generator/model/compose-region.ts';
+import { levelWithoutRecentSurvey } from '../../generator/model/judge-season.ts';
 import { statsTrendEngine } from '../../generator/model/trend-engine.ts';
 import { fixtureScenario, record, seasonDates, segment, testEngine } from './fixture.ts';
 
@@ -117,5 +118,56 @@ describe('case 4, a region "cannot tell" that hides places going opposite ways',
     expect(regionalTrendSentence('Beach litter', 'items per 100 m of beach', result, 2000, 0.05)).toBe(
       'Across 2,000 places, we cannot tell if beach litter is going up or down: the typical yearly change is zero.',
     );
+  });
+});
+
+describe('case 1, absence read as cleanliness', () => {
+  // Old Point: beach surveys 2019–2022 found 50–70 items per 100 m (2.5–3.5 times the EU threshold
+  // value of 20), and none since.
+  const base = fixtureScenario();
+  const old = seasonDates()
+    .filter((date) => date < '2023-01-01')
+    .map((date, k) => record('beach-litter', 'old-point', date, 50 + ((k * 7) % 21)));
+  const scenario: LoadedScenario = {
+    ...base,
+    segments: [...base.segments, segment('old-point', 'Old Point', 'beach', 'none')],
+    records: [...base.records, ...old],
+  };
+  const set = assembleModel(scenario, testEngine);
+  const b = set.bulletins.find((x) => x.season.id === '2026-autumn' && x.segment.id === 'old-point')!;
+  const region = set.regions.find((r) => r.season.id === '2026-autumn')!;
+
+  test('case 1: no survey in the last four seasons gives no level, never "Scant (level 1 of 4)"', () => {
+    expect(b.level.id).toBe('not-set');
+    expect(b.level.rank).toBe(0);
+    expect(b.headline).not.toMatch(/Scant/u);
+    expect(b.headline).toBe(
+      'Level not set at Old Point in autumn 2026: no survey here in the last four seasons; the last, in autumn 2022, found 50 items per 100 m of beach.',
+    );
+    expect(b.summary.slice(0, 2)).toEqual([
+      'No level is set this season, nor was one last season.',
+      'Why no level: no survey here in the last four seasons; the last, in autumn 2022, found 50 items per 100 m of beach.',
+    ]);
+    expect(b.sections.reporters.keyNumbers[0]).toEqual({ label: 'Level', value: 'Level not set' });
+  });
+
+  test('case 1: the region summary counts places with no level apart', () => {
+    const row = region.segments.find((s) => s.id === 'old-point')!;
+    expect(row.level.id).toBe('not-set');
+    expect(region.summary[0]).toBe(
+      'Levels of the 4 places this season: 1 Marked, 2 Scant. 1 place has no level set, because no survey was made there in the last four seasons.',
+    );
+  });
+
+  test('case 1: where the drift model still sets a level, the bulletin says so and that no survey was made', () => {
+    const driftLevel = {
+      id: 'noticeable' as const,
+      rank: 2 as const,
+      label: 'Noticeable',
+      hits: [{ ruleId: 'arrivals-top-quarter', level: 'noticeable' as const, text: 'In the drift model, more modelled particles per km reach this place than 80% of the places on this coast.' }],
+    };
+    const level = levelWithoutRecentSurvey(driftLevel, [], scenario.settings);
+    expect(level.id).toBe('noticeable');
+    expect(level.note).toBe('Only the drift model sets this level: no survey has been made here.');
   });
 });
