@@ -250,9 +250,18 @@ export interface ValidationReport {
   issues: ValidationIssue[];
 }
 
+/** The notice on every page when the figures are not real, final results (bulletin/data-notice.ts). */
+export interface DataNotice {
+  kind: 'demo' | 'test-data' | 'provisional';
+  title: string;
+  text: string;
+}
+
 export interface SiteModel {
   schemaVersion: 1;
   invented: boolean;
+  /** the notice every page shows; null when the figures are real, final results */
+  notice?: DataNotice | null;
   generator: { name: 'wrackline'; version: string };
   region: { id: string; name: string; description: string };
   seasons: (SeasonRef & { published: string; current: boolean })[];
