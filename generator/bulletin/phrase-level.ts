@@ -25,7 +25,7 @@ export function headline(segmentName: string, level: LevelResult, seasonLabel: s
   // No level: the headline says so and why, before anything else.
   if (level.id === 'not-set') return `Level not set at ${segmentName} in ${season}: ${lowerFirst(level.note ?? 'there is no recent survey here.')}`;
   const where = level.note
-    ? `the drift model alone puts plastic pollution at ${levelWords(level.id)} in ${season}, with no recent survey`
+    ? `${level.note.startsWith('Only the drift model') ? 'the drift model alone puts' : 'reports of harmed animals alone put'} plastic pollution at ${levelWords(level.id)} in ${season}, with no recent survey`
     : `plastic pollution is ${levelWords(level.id)} in ${season}`;
   if (moving === undefined) return `${segmentName}: ${where}.`;
   if (moving.length === 0) return `No samples here yet show a rise or fall in plastic at ${segmentName}, where ${where}.`;
@@ -54,11 +54,10 @@ export interface LastSurvey {
  * "No survey has been made here."
  * "Only the drift model sets this level: no survey was made here in the last four seasons."
  */
-export function noRecentSurveyNote(last: LastSurvey | null, setByDriftModel: boolean): string {
-  if (setByDriftModel) {
-    return last === null
-      ? 'Only the drift model sets this level: no survey has been made here.'
-      : 'Only the drift model sets this level: no survey was made here in the last four seasons.';
+export function noRecentSurveyNote(last: LastSurvey | null, setBy: 'drift-model' | 'wildlife-reports' | null): string {
+  if (setBy !== null) {
+    const who = setBy === 'drift-model' ? 'Only the drift model sets this level' : 'Only reports of animals harmed by litter set this level';
+    return last === null ? `${who}: no survey has been made here.` : `${who}: no survey was made here in the last four seasons.`;
   }
   if (last === null) return 'No survey has been made here.';
   const found = last.censored ? `plastic ${belowDetectionWords(last.valueText, last.unit)}` : `${last.valueText} ${unitAfter(last.valueText, last.unit)}`;

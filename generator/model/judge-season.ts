@@ -75,8 +75,11 @@ export function levelWithoutRecentSurvey(
   level: LevelResult,
   entries: readonly { indicator: IndicatorId; summary: SeriesSummary }[],
   settings: ScenarioSettings,
+  rules: readonly RiskRule[] = [],
 ): LevelResult {
-  const surveys = entries.filter((e) => e.indicator !== 'drift-arrivals');
+  // Surveys and samples; the drift model is not a survey, and a season with no animal reported
+  // counts 0 reports, which is no survey either.
+  const surveys = entries.filter((e) => e.indicator !== 'drift-arrivals' && e.indicator !== 'wildlife-reports');
   if (surveys.some((e) => e.summary.assessmentValue !== null)) return level;
   let last: { indicator: IndicatorId; value: NonNullable<SeriesSummary['lastValue']>; start: string } | null = null;
   for (const e of surveys) {
@@ -93,9 +96,13 @@ export function levelWithoutRecentSurvey(
         unit: getIndicator(last.indicator).unit,
       }
     : null;
-  if (level.hits.length > 0) return { ...level, note: noRecentSurveyNote(lastSurvey, true) };
+  const top = level.hits[0];
+  if (top) {
+    const rule = rules.find((r) => r.id === top.ruleId);
+    return { ...level, note: noRecentSurveyNote(lastSurvey, rule?.indicator === 'wildlife-reports' ? 'wildlife-reports' : 'drift-model') };
+  }
   const none = levelDefinition('not-set');
-  return { id: none.id, rank: none.rank, label: none.label, hits: [], note: noRecentSurveyNote(lastSurvey, false) };
+  return { id: none.id, rank: none.rank, label: none.label, hits: [], note: noRecentSurveyNote(lastSurvey, null) };
 }
 
 /** The values of one included series that depend on the other segments. */
@@ -208,6 +215,7 @@ export function judgeSeason(
       assessLevel(rules, inputs),
       entries.map((e) => ({ indicator: e.verdict.indicator, summary: e.summary })),
       settings,
+      rules,
     );
     segments.set(segmentId, { segmentId, indicators: entries.map((e) => e.verdict), drift, level, levelInputs: inputs });
   }
