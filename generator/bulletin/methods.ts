@@ -47,3 +47,10 @@ export const intervalMethodSentence =
 /** Why a level and a trend can point different ways. */
 export const levelAndTrendMethodSentence =
   'The level uses the median of the last four seasons, while a trend uses every year on record, so a level can go down while a long-term trend is still going up.';
+
+/**
+ * What the serial-correlation correction does here, exactly as the code does it: computed and
+ * published, but the claims rest on the plain test (stats/serial-correction.ts).
+ */
+export const serialCorrectionMethodSentence =
+  'Samples close in time tend to resemble each other, which can make a trend test too confident. We work out the Hamed–Rao correction for this and give it in each bulletin\'s downloads, where it can only enlarge the variance of the test. The rises and falls the bulletins claim rest on the plain test (the Seasonal Kendall test where seasons differ) and the check across places.';
