@@ -96,7 +96,8 @@ function ruleClause(text: string): string {
 }
 
 export function whySentence(level: LevelResult): string {
-  if (level.id === 'not-set') return `Why no level: ${lowerFirst(level.note ?? 'there is no recent survey here.')}`;
+  // the headline already tells what the last survey found; here, the rule
+  if (level.id === 'not-set') return 'Why no level: a level needs a survey from the last four seasons.';
   const top = level.hits[0];
   if (!top) return 'No rule for a higher level applies here, so the level is the lowest.';
   const why = `Why this level: ${ruleClause(top.text)}`;

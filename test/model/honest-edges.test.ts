@@ -146,8 +146,9 @@ describe('case 1, absence read as cleanliness', () => {
     );
     expect(b.summary.slice(0, 2)).toEqual([
       'No level is set this season, nor was one last season.',
-      'Why no level: no survey here in the last four seasons; the last, in autumn 2022, found 50 items per 100 m of beach.',
+      'Why no level: a level needs a survey from the last four seasons.',
     ]);
+    expect(b.level.note).toBe('No survey here in the last four seasons; the last, in autumn 2022, found 50 items per 100 m of beach.');
     expect(b.sections.reporters.keyNumbers[0]).toEqual({ label: 'Level', value: 'Level not set' });
   });
 
