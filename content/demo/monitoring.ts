@@ -212,7 +212,15 @@ export const SEGMENT_RECIPES: SegmentRecipe[] = [
   },
   {
     segmentId: 'wendrel-point',
-    shows: ['no monitoring at all: drift-model arrivals only'],
+    shows: [
+      'beach surveys only from 2019 to 2022 (about three times the 20 items/100 m threshold), none in the last four seasons: no level is set',
+      'drift-model arrivals',
+    ],
+    beach: {
+      series: { level: 60, noise: 0.15, sampling: { kind: 'only', seasons: Array.from({ length: 16 }, (_, i) => 8 + i) } },
+      surveyedLengthM: 100,
+      plasticShare: 0.8,
+    },
   },
   {
     segmentId: 'tamsk-beach',

@@ -7,6 +7,10 @@
  *   the range says how many digits mean something; digits below it are noise. A width of 8 gives
  *   whole numbers ("about 6; likely between 2 and 10"), a width of 0.3 gives one decimal.
  *   Reporting an estimate to the place of its uncertainty's leading digit is common practice.
+ * - A bound of the range is never rounded to zero or across zero: when the range spans zero (it may
+ *   be a fall or a rise), or when the width rule would round a bound to 0 or flip its sign, each
+ *   bound is printed on its own to two significant figures ("from 2.4 fewer to 9.5 more", never
+ *   "no change to 10 more"). A bound that is exactly 0 stays "no change".
  * - Any other number (a median, a season value, arrivals per km) is rounded to two significant
  *   figures (43.53 → 44, 0.4712 → 0.47, 1234 → 1200).
  *
@@ -76,7 +80,11 @@ export interface RoundedRate {
   slope: number;
   lower: number | null;
   upper: number | null;
+  /** decimals of the slope (and of both bounds unless they are printed on their own) */
   decimals: number;
+  /** decimals of each bound; differ from `decimals` when the bounds are printed to two significant figures */
+  lowerDecimals: number;
+  upperDecimals: number;
   text: { slope: string; lower: string | null; upper: string | null };
 }
 
@@ -92,6 +100,8 @@ export function roundRateAt(slope: number, lower: number | null, upper: number |
     lower: roundedLower,
     upper: roundedUpper,
     decimals: shown,
+    lowerDecimals: shown,
+    upperDecimals: shown,
     text: {
       slope: formatNumber(roundedSlope, shown),
       lower: roundedLower === null ? null : formatNumber(roundedLower, shown),
@@ -108,7 +118,49 @@ export function roundRate(slope: number, lower: number | null, upper: number | n
   const width = lower !== null && upper !== null ? upper - lower : null;
   const widthPlace = width !== null ? leadingDigitPlace(width) : null;
   const decimals = widthPlace !== null ? -widthPlace : decimalsForSignificant(slope, 2);
-  return roundRateAt(slope, lower, upper, decimals);
+  return keepBoundsApartFromZero(roundRateAt(slope, lower, upper, decimals), slope, lower, upper);
+}
+
+/** Whether a rounded bound hides what the raw bound says: rounded to 0, or to the other sign. */
+function boundLost(raw: number | null, rounded: number | null): boolean {
+  if (raw === null || rounded === null || raw === 0) return false;
+  return rounded === 0 || Math.sign(rounded) !== Math.sign(raw);
+}
+
+/**
+ * The rule of the header: a range that spans zero, or a bound the width rule would round to 0 or
+ * across 0, gets both bounds to two significant figures each (an exact 0 stays 0), and the rate
+ * with them, so the sentence does not print "no change" beside a range of real amounts.
+ */
+export function keepBoundsApartFromZero(rate: RoundedRate, slope: number, lower: number | null, upper: number | null): RoundedRate {
+  if (lower === null || upper === null) return rate;
+  const spans = lower < 0 && upper > 0;
+  if (!spans && !boundLost(lower, rate.lower) && !boundLost(upper, rate.upper)) return rate;
+  const own = (x: number): { value: number; decimals: number } => {
+    // below 10^-18 nothing printable is left (and 10^decimals would overflow)
+    if (x === 0 || Math.abs(x) < 1e-18) return { value: 0, decimals: Math.max(0, rate.decimals) };
+    const value = roundSignificant(x, 2);
+    // two significant figures without a trailing zero after the point (0.30 → "0.3")
+    const fixed = Math.abs(value).toFixed(Math.min(decimalsForSignificant(value, 2), 20));
+    const decimals = fixed.includes('.') ? (fixed.replace(/0+$/u, '').split('.')[1] ?? '').length : 0;
+    return { value, decimals };
+  };
+  const lo = own(lower);
+  const hi = own(upper);
+  // the rate to two significant figures, but never finer than the finer bound
+  const finest = Math.max(lo.decimals, hi.decimals);
+  const rough = own(slope);
+  const mid = rough.decimals <= finest ? rough : { value: roundToDecimals(slope, finest), decimals: finest };
+  if (mid.value === 0) mid.decimals = Math.max(lo.decimals, hi.decimals);
+  return {
+    slope: mid.value,
+    lower: lo.value,
+    upper: hi.value,
+    decimals: mid.decimals,
+    lowerDecimals: lo.decimals,
+    upperDecimals: hi.decimals,
+    text: { slope: formatNumber(mid.value, mid.decimals), lower: formatNumber(lo.value, lo.decimals), upper: formatNumber(hi.value, hi.decimals) },
+  };
 }
 
 /**

@@ -27,7 +27,7 @@ import type { Direction } from '../model/types.ts';
 import type { TrendResult } from '../stats/types.ts';
 import { lowerFirst, upperFirst } from './indicator-words.ts';
 import { likelihoodWord } from './likelihood.ts';
-import { formatNumber, roundRate, roundRateAt, type RoundedRate } from './numbers.ts';
+import { formatNumber, keepBoundsApartFromZero, roundRate, roundRateAt, type RoundedRate } from './numbers.ts';
 
 export interface TrendPhraseInput {
   /** Singular subject, "Beach litter". */
@@ -58,7 +58,7 @@ export function printedRate(input: TrendPhraseInput): RoundedRate | null {
   let rate = roundRate(slope.slope, slope.lower, slope.upper);
   if ((input.direction === 'rising' || input.direction === 'falling') && rate.slope === 0) {
     for (let extra = 1; extra <= 3 && rate.slope === 0; extra += 1) {
-      rate = roundRateAt(slope.slope, slope.lower, slope.upper, rate.decimals + 1);
+      rate = keepBoundsApartFromZero(roundRateAt(slope.slope, slope.lower, slope.upper, rate.decimals + 1), slope.slope, slope.lower, slope.upper);
     }
   }
   return rate;
@@ -115,18 +115,25 @@ function amountNumber(value: number, decimals: number): string | null {
  * A confidence interval in words, from its rounded ends: "2 to 10 more", "0.4 to 1.2 fewer",
  * "2 fewer to 7 more", "no change to 0.5 more". Never with a likelihood word (see the header).
  */
-export function intervalWords(lower: number, upper: number, decimals: number): string {
-  const size = (x: number): string => formatNumber(Math.abs(x), decimals);
-  if (lower > 0) return `${size(lower)} to ${size(upper)} more`;
-  if (upper < 0) return `${size(upper)} to ${size(lower)} fewer`;
+export function intervalWords(lower: number, upper: number, decimals: number, upperDecimals = decimals): string {
+  const lowerDecimals = decimals;
+  if (lower > 0) return `${formatNumber(lower, lowerDecimals)} to ${formatNumber(upper, upperDecimals)} more`;
+  if (upper < 0) return `${formatNumber(-upper, upperDecimals)} to ${formatNumber(-lower, lowerDecimals)} fewer`;
   if (lower === 0 && upper === 0) return 'no change';
-  return `${amountWords(lower, decimals)} to ${amountWords(upper, decimals)}`;
+  return `${amountWords(lower, lowerDecimals)} to ${amountWords(upper, upperDecimals)}`;
+}
+
+/** Interval words of a rounded rate (each bound with its own decimals). */
+export function rateIntervalWords(rate: RoundedRate): string | null {
+  if (rate.lower === null || rate.upper === null) return null;
+  return intervalWords(rate.lower, rate.upper, rate.lowerDecimals, rate.upperDecimals);
 }
 
 /** The number printed last in interval words (for singular/plural of the unit after it). */
-function lastIntervalNumber(lower: number, upper: number, decimals: number): string | null {
-  if (upper < 0) return amountNumber(lower, decimals);
-  return amountNumber(upper, decimals);
+function lastIntervalNumber(rate: RoundedRate): string | null {
+  if (rate.lower === null || rate.upper === null) return null;
+  if (rate.upper < 0) return amountNumber(rate.lower, rate.lowerDecimals);
+  return amountNumber(rate.upper, rate.upperDecimals);
 }
 
 /**
@@ -226,7 +233,8 @@ export function rateSentences(input: TrendPhraseInput): string[] {
   const hasInterval = rate.lower !== null && rate.upper !== null;
   if (input.direction === 'rising' || input.direction === 'falling') {
     const sentences = [`That is about ${amountWords(rate.slope, d)} ${slopeUnit} each year.`];
-    if (rate.lower !== null && rate.upper !== null) sentences.push(`${ci} runs from ${intervalWords(rate.lower, rate.upper, d)}.`);
+    const interval = rateIntervalWords(rate);
+    if (interval !== null) sentences.push(`${ci} runs from ${interval}.`);
     return sentences;
   }
   if (rate.lower !== null && rate.upper !== null && rate.slope === 0 && rate.lower === 0 && rate.upper === 0) {
@@ -238,10 +246,10 @@ export function rateSentences(input: TrendPhraseInput): string[] {
   }
   if (rate.slope === 0) {
     if (rate.lower === null || rate.upper === null) return ['Our best guess is close to no change.'];
-    const last = lastIntervalNumber(rate.lower, rate.upper, d);
+    const last = lastIntervalNumber(rate);
     return [
       'Our best guess is close to no change.',
-      `${ci} runs from ${intervalWords(rate.lower, rate.upper, d)} ${unitAfter(last ?? '', input.unit)} each year.`,
+      `${ci} runs from ${rateIntervalWords(rate)} ${unitAfter(last ?? '', input.unit)} each year.`,
     ];
   }
   const sentences = [`Our best guess is about ${amountWords(rate.slope, d)} ${slopeUnit} each year.`];
@@ -249,8 +257,8 @@ export function rateSentences(input: TrendPhraseInput): string[] {
     const spansZero = rate.lower <= 0 && rate.upper >= 0;
     sentences.push(
       spansZero
-        ? `But ${lowerFirst(ci)} runs from ${intervalWords(rate.lower, rate.upper, d)}, so there may be no change at all.`
-        : `${ci} runs from ${intervalWords(rate.lower, rate.upper, d)}.`,
+        ? `But ${lowerFirst(ci)} runs from ${rateIntervalWords(rate)}, so there may be no change at all.`
+        : `${ci} runs from ${rateIntervalWords(rate)}.`,
     );
   }
   return sentences;

@@ -4,12 +4,21 @@
  */
 import type { Contact, SeasonRef, ShellfishUse } from '../model/types.ts';
 import { formatNumber, formatPlain } from './numbers.ts';
+import { belowDetectionWords } from './phrase-level.ts';
 import { unitAfter } from './phrase-trend.ts';
 
 export interface GrowersInput {
   shellfish: ShellfishUse;
   /** Shellfish tissue this season and over the last four seasons (median), in `unit`. */
-  tissue: { seasonValue: number | null; assessmentValue: number | null; unit: string; trendSentences: string[] } | null;
+  tissue: {
+    seasonValue: number | null;
+    /** the season's median was below the lab's detection limit (seasonValue is the limit) */
+    seasonValueCensored?: boolean;
+    assessmentValue: number | null;
+    assessmentValueCensored?: boolean;
+    unit: string;
+    trendSentences: string[];
+  } | null;
   nearestZone: { id: string; distanceKm: number } | null;
   driftAvailable: boolean;
 }
@@ -23,8 +32,14 @@ export function growersSection(input: GrowersInput): { title: string; sentences:
   if (input.shellfish === 'none') return null;
   const sentences: string[] = [];
   const tissue = input.tissue;
-  if (tissue && tissue.seasonValue !== null) {
+  if (tissue && tissue.seasonValue !== null && tissue.seasonValueCensored) {
+    sentences.push(`In shellfish samples this season, the plastic was ${belowDetectionWords(formatPlain(tissue.seasonValue), tissue.unit)}.`);
+  } else if (tissue && tissue.seasonValue !== null) {
     sentences.push(`Shellfish samples this season held a median of ${formatPlain(tissue.seasonValue)} ${unitAfter(formatPlain(tissue.seasonValue), tissue.unit)}.`);
+  } else if (tissue && tissue.assessmentValue !== null && tissue.assessmentValueCensored) {
+    sentences.push(
+      `No shellfish were tested this season. Over the last four seasons the median was ${belowDetectionWords(formatPlain(tissue.assessmentValue), tissue.unit)}.`,
+    );
   } else if (tissue && tissue.assessmentValue !== null) {
     sentences.push(
       `No shellfish were tested this season. Over the last four seasons the median was ${formatPlain(tissue.assessmentValue)} ${unitAfter(formatPlain(tissue.assessmentValue), tissue.unit)}.`,

@@ -6,6 +6,7 @@
  * Each published season is evaluated with only the data dated up to its end, and so is the season
  * just before it (for "last season"), so a past bulletin never changes when new data arrive.
  */
+import { dataNoticeOf } from '../bulletin/data-notice.ts';
 import packageJson from '../../package.json' with { type: 'json' };
 import { defaultRiskRules } from '../risk/default-rules.ts';
 import type { RiskRule, ScenarioSettings } from '../scenario/settings.ts';
@@ -97,6 +98,7 @@ export function siteModel(scenario: LoadedScenario, rules: readonly RiskRule[], 
   const site: SiteModel = {
     schemaVersion: 1,
     invented: settings.invented,
+    notice: dataNoticeOf(settings),
     generator: { name: 'wrackline', version: generatorVersion },
     region: { id: settings.region.id, name: settings.region.name, description: settings.region.description },
     seasons: publications.flatMap((p) => {

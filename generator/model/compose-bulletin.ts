@@ -8,6 +8,7 @@ import { indicatorSubjects } from '../bulletin/indicator-words.ts';
 import { likelihoodWord } from '../bulletin/likelihood.ts';
 import { formatNumber, formatPlain } from '../bulletin/numbers.ts';
 import {
+  belowDetectionWords,
   directionChangeSentence,
   directionPhrases,
   headline,
@@ -15,6 +16,7 @@ import {
   levelChangeWithReason,
   levelSummarySentence,
   mainTrendSentence,
+  printedValueWords,
   seasonCountSentence,
   seasonValueSentence,
   whySentence,
@@ -120,7 +122,13 @@ function indicatorBulletin(evaluation: IndicatorEvaluation, scenario: LoadedScen
     unitShort: definition.unitShort,
     observations: evaluation.observations,
     seasonValue: evaluation.seasonValue,
+    seasonValueCensored: evaluation.seasonValueCensored,
+    seasonValueText:
+      evaluation.seasonValue === null
+        ? null
+        : printedValueWords({ text: isCount(evaluation.indicator) ? formatNumber(evaluation.seasonValue, 0) : formatPlain(evaluation.seasonValue), censored: evaluation.seasonValueCensored }),
     assessmentValue: evaluation.assessmentValue,
+    assessmentValueCensored: evaluation.assessmentValueCensored,
     trend: evaluation.trend,
     qValue: evaluation.qValue,
     direction: evaluation.direction,
@@ -147,7 +155,10 @@ function keyNumbers(bulletin: Pick<Bulletin, 'level' | 'indicators' | 'drift'>, 
   for (const ind of bulletin.indicators) {
     if (ind.seasonValue !== null) {
       const value = isCount(ind.indicator) ? formatNumber(ind.seasonValue, 0) : formatPlain(ind.seasonValue);
-      rows.push({ label: `${ind.label}, this season`, value: `${value} ${unitAfter(value, ind.unitShort)}` });
+      rows.push({
+        label: `${ind.label}, this season`,
+        value: ind.seasonValueCensored ? belowDetectionWords(value, ind.unitShort) : `${value} ${unitAfter(value, ind.unitShort)}`,
+      });
     }
     const noneReported = ind.indicator === 'wildlife-reports' && ind.observations.length > 0 && ind.observations.every((o) => o.value === 0);
     let trendText: string = noneReported ? 'none reported' : directionPhrases[ind.direction];
@@ -223,8 +234,8 @@ export function composeBulletin(
       : seasonValueSentence(
           subject,
           getIndicator(e.indicator).unit,
-          e.seasonValue === null ? null : formatPlain(e.seasonValue),
-          oldValue === null ? null : formatPlain(oldValue),
+          e.seasonValue === null ? null : { text: formatPlain(e.seasonValue), censored: e.seasonValueCensored },
+          oldValue === null ? null : { text: formatPlain(oldValue), censored: old?.seasonValueCensored ?? false },
         );
     if (valueSentence) changes.push(valueSentence);
     const directionChange = directionChangeSentence(subject, e.direction, old ? old.direction : null);
@@ -282,7 +293,9 @@ export function composeBulletin(
         tissue: tissue
           ? {
               seasonValue: tissue.seasonValue,
+              seasonValueCensored: tissue.seasonValueCensored,
               assessmentValue: tissue.assessmentValue,
+              assessmentValueCensored: tissue.assessmentValueCensored,
               unit: getIndicator('shellfish-tissue').unit,
               trendSentences: sectionTrendSentences(trendPhraseInput(tissue, scenario), true),
             }

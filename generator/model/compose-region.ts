@@ -2,6 +2,11 @@
  * The region's page for one published season: every segment's level and directions, the Regional
  * Kendall trend per indicator (Helsel & Frans 2006: the Seasonal Kendall test with sites in place
  * of seasons), the accumulation zones, and a short summary.
+ *
+ * Trends that differ between places: the van Belle & Hughes (1984) homogeneity chi-square over the
+ * sites (χ² = Σ_k Z_k² − K·Z̄², df K − 1; stats/regional-kendall.ts). Where it rejects homogeneity
+ * at 1 − confidence and places go both ways, the sentence names how many go each way instead of a
+ * single regional direction.
  */
 import { debrisCautions, shellfishCautions } from '../bulletin/cautions.ts';
 import { indicatorSubjects, lowerFirst } from '../bulletin/indicator-words.ts';
@@ -10,18 +15,68 @@ import { getIndicator } from '../indicators/index.ts';
 import { levelScale } from '../risk/levels.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
 import type { RegionalResult, SeasonEvaluation } from './evaluate-season.ts';
-import type { Direction, IndicatorId, LevelResult, RegionalTrend, RegionSummary } from './types.ts';
+import type { Direction, HeadlinePart, IndicatorId, LevelResult, RegionalTrend, RegionSummary } from './types.ts';
 
-export function regionalTrendSentence(subject: string, unit: string, result: RegionalResult | null, segments: number, falseDiscoveryRate: number): string {
+/**
+ * The region's sentence for one indicator.
+ * - Trends that differ between places (van Belle & Hughes 1984 homogeneity chi-square below
+ *   1 − confidence) with places going both ways (each place's own claimed direction, the q-value
+ *   rule of the bulletins) are told as they are: "Beach litter is going up at 10 places and down at
+ *   8; there is no single direction across the region." USGS practice for the Regional Kendall
+ *   test (Helsel & Frans 2006) is to report no single regional trend where trends are heterogeneous.
+ * - A regional rise or fall is claimed only when p is below the false-discovery rate and the
+ *   median slope is not 0 and has the sign of S (the rule of direction.ts).
+ */
+export function regionalTrendSentence(
+  subject: string,
+  unit: string,
+  result: RegionalResult | null,
+  segments: number,
+  falseDiscoveryRate: number,
+  places: { up: number; down: number; confidence: number } = { up: 0, down: 0, confidence: 0.95 },
+): string {
   const lower = lowerFirst(subject);
   if (!result || result.p === null) return `Too little data to say if ${lower} is changing across the region.`;
-  const places = `${formatNumber(segments, 0)} ${segments === 1 ? 'place' : 'places'}`;
+  const count = (n: number): string => `${formatNumber(n, 0)} ${n === 1 ? 'place' : 'places'}`;
+  const heterogeneous = result.homogeneity !== null && result.homogeneity !== undefined && result.homogeneity.p < 1 - places.confidence;
+  if (heterogeneous && places.up > 0 && places.down > 0) {
+    return `${subject} is going up at ${count(places.up)} and down at ${formatNumber(places.down, 0)}; there is no single direction across the region.`;
+  }
+  const across = `Across ${count(segments)}`;
   if (result.p < falseDiscoveryRate && result.S !== null && result.S !== 0) {
     const up = result.S > 0;
-    const rate = result.slope !== null && result.slope !== 0 ? ` by about ${formatSignificant(Math.abs(result.slope))} ${unit} a year` : '';
-    return `Across ${places}, ${lower} is going ${up ? 'up' : 'down'}${rate}.`;
+    if (result.slope === null || result.slope === 0 || Math.sign(result.slope) !== Math.sign(result.S)) {
+      return `${across}, we cannot tell if ${lower} is going up or down: the typical yearly change is zero.`;
+    }
+    return `${across}, ${lower} is going ${up ? 'up' : 'down'} by about ${formatSignificant(Math.abs(result.slope))} ${unit} a year.`;
   }
-  return `Across ${places}, we cannot tell if ${lower} is going up or down.`;
+  return `${across}, we cannot tell if ${lower} is going up or down.`;
+}
+
+/** How many places the headline names at the highest level before "and N more". */
+export const namedAtHighest = 5;
+
+/**
+ * "Brin Coast, autumn 2026: the highest level is Heavy (level 4 of 4), at 2 of 30 places: East Bay
+ * and North Beach." Names up to five places (segment order), then "and N more"; each name is a part
+ * of its own with the segment id, so the page can link it to the bulletin.
+ */
+export function highestLevelHeadline(
+  lead: string,
+  levelText: string,
+  atHighest: readonly { id: string; name: string }[],
+  total: number,
+): HeadlinePart[] {
+  const n = atHighest.length;
+  const parts: HeadlinePart[] = [{ text: `${lead}: the highest level is ${levelText}, at ${formatNumber(n, 0)} of ${formatNumber(total, 0)} ${total === 1 ? 'place' : 'places'}: ` }];
+  const named = atHighest.slice(0, namedAtHighest);
+  const more = n - named.length;
+  named.forEach((place, i) => {
+    if (i > 0) parts.push({ text: i === named.length - 1 && more === 0 ? ' and ' : ', ' });
+    parts.push({ text: place.name, segmentId: place.id });
+  });
+  parts.push({ text: more > 0 ? ` and ${formatNumber(more, 0)} more.` : '.' });
+  return parts;
 }
 
 /** What composeRegion reads of a season's evaluation (a SeasonEvaluation is one). */
@@ -53,6 +108,8 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
   });
   const regionalTrends: RegionalTrend[] = now.regional.map(({ indicator, result, segments: count }) => {
     const definition = getIndicator(indicator);
+    const placesUp = rows.filter((r) => r.directions[indicator] === 'rising').length;
+    const placesDown = rows.filter((r) => r.directions[indicator] === 'falling').length;
     return {
       indicator,
       label: definition.label,
@@ -61,7 +118,14 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
       p: result?.p ?? null,
       slope: result?.slope === null || result?.slope === undefined ? null : result.slope,
       unitShort: definition.unitShort,
-      sentence: regionalTrendSentence(indicatorSubjects[indicator], definition.unit, result, count, settings.trend.falseDiscoveryRate),
+      sentence: regionalTrendSentence(indicatorSubjects[indicator], definition.unit, result, count, settings.trend.falseDiscoveryRate, {
+        up: placesUp,
+        down: placesDown,
+        confidence: settings.trend.confidence,
+      }),
+      homogeneity: result?.homogeneity ?? null,
+      placesUp,
+      placesDown,
     };
   });
   const counts = levelScale
@@ -70,9 +134,18 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
     .map((level) => ({ level, n: rows.filter((r) => r.level.id === level.id).length }))
     .filter((c) => c.n > 0)
     .map((c) => `${formatNumber(c.n, 0)} ${c.level.label}`);
-  const up = rows.filter((r) => r.previousLevel && r.level.rank > r.previousLevel.rank).length;
-  const down = rows.filter((r) => r.previousLevel && r.level.rank < r.previousLevel.rank).length;
-  const summary = [`Levels of the ${formatNumber(rows.length, 0)} places this season: ${counts.join(', ')}.`];
+  // Places with no level (no survey in the last four seasons) are counted apart, never as Scant.
+  const notSet = rows.filter((r) => r.level.id === 'not-set').length;
+  // A move to or from "no level" is not a level going up or down.
+  const ranked = (r: (typeof rows)[number]): boolean => r.level.rank > 0 && (r.previousLevel?.rank ?? 0) > 0;
+  const up = rows.filter((r) => ranked(r) && r.previousLevel && r.level.rank > r.previousLevel.rank).length;
+  const down = rows.filter((r) => ranked(r) && r.previousLevel && r.level.rank < r.previousLevel.rank).length;
+  const levelCounts = counts.length > 0 ? `Levels of the ${formatNumber(rows.length, 0)} places this season: ${counts.join(', ')}.` : `No place has a level this season.`;
+  const summary = [
+    notSet === 0
+      ? levelCounts
+      : `${levelCounts} ${notSet === 1 ? '1 place has' : `${formatNumber(notSet, 0)} places have`} no level set, because no survey was made there in the last four seasons.`,
+  ];
   if (previous) {
     const places = (n: number): string => (n === 0 ? 'no place' : `${formatNumber(n, 0)} ${n === 1 ? 'place' : 'places'}`);
     summary.push(
@@ -83,8 +156,15 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
   }
   for (const trend of regionalTrends) summary.push(trend.sentence);
   const highest = Math.max(0, ...rows.map((r) => r.level.rank));
-  const atHighest = rows.filter((r) => r.level.rank === highest).length;
   const highestLabel = levelScale.find((l) => l.rank === highest)?.label ?? 'Scant';
+  const headlineParts: HeadlinePart[] = highest === 0
+    ? [{ text: `${settings.region.name}, ${lowerFirst(now.season.label)}: no place has a level set, because no survey was made in the last four seasons.` }]
+    : highestLevelHeadline(
+    `${settings.region.name}, ${lowerFirst(now.season.label)}`,
+    `${highestLabel} (level ${highest} of 4)`,
+    rows.filter((r) => r.level.rank === highest),
+    rows.length,
+  );
   return {
     schemaVersion: 1,
     invented: settings.invented,
@@ -103,7 +183,8 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
       debris: debrisCautions(settings.authorities),
     },
     authorities: settings.authorities.map((a) => ({ ...a })),
-    headline: `${settings.region.name}, ${lowerFirst(now.season.label)}: the highest level is ${highestLabel} (level ${highest} of 4), at ${formatNumber(atHighest, 0)} of ${formatNumber(rows.length, 0)} places.`,
+    headline: headlineParts.map((p) => p.text).join(''),
+    headlineParts,
     summary,
   };
 }

@@ -35,6 +35,11 @@ export interface RegionalResult {
   slope: number | null;
   /** false when p is the plain test's because the cross-site covariance correction could not be computed */
   covarianceCorrected?: boolean;
+  /**
+   * The van Belle & Hughes (1984) chi-square test for homogeneity of the trends across the sites
+   * (χ² = Σ Z_k² − K·Z̄², df K − 1); null when fewer than two sites have a trend test.
+   */
+  homogeneity?: { chi2: number; df: number; p: number } | null;
 }
 
 export interface IndicatorEvaluation {
@@ -47,7 +52,11 @@ export interface IndicatorEvaluation {
   direction: Direction;
   probabilityUp: number | null;
   seasonValue: number | null;
+  /** true when the season's median is a sample reported below the lab's detection limit (then seasonValue is that limit) */
+  seasonValueCensored: boolean;
   assessmentValue: number | null;
+  /** the same for the median of the last four seasons */
+  assessmentValueCensored: boolean;
   cleanCoastIndex: number | null;
   regionPercentile: number | null;
   segmentsTested: number;

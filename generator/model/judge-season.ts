@@ -3,12 +3,19 @@
  * Benjamini–Hochberg q-values across the segments with a p-value (Benjamini & Hochberg 1995,
  * step-up procedure), the claimed direction, the region percentile and the count of segments
  * tested; per segment the modelled drift with its percentile and the level from the rule table.
+ * A segment with no survey value in the last four seasons gets no level ('not-set') unless other
+ * evidence (the drift model) meets a rule; absence of evidence is never the lowest level.
  *
  * It reads only a small summary of each series (`SeriesSummary`), so a build that reuses the
  * summaries of unchanged series from an earlier build (generator/publish/model-memo.ts) gets
  * exactly the values of a build that evaluated every series afresh: both run this same code.
  */
-import { indicatorIds } from '../indicators/index.ts';
+import { lowerFirst } from '../bulletin/indicator-words.ts';
+import { formatNumber, formatPlain } from '../bulletin/numbers.ts';
+import { noRecentSurveyNote, type LastSurvey } from '../bulletin/phrase-level.ts';
+import { getIndicator, indicatorIds } from '../indicators/index.ts';
+import { levelDefinition } from '../risk/levels.ts';
+import { seasonRef } from './seasons.ts';
 import { assessLevel, percentileRanker, type LevelInputs } from '../risk/assess-level.ts';
 import type { RiskRule, ScenarioSettings } from '../scenario/settings.ts';
 import type { DriftArrivals } from '../scenario/types.ts';
@@ -29,6 +36,8 @@ export interface SeriesSummary {
   cleanCoastIndex: number | null;
   /** at least one season value: the series takes part in the Regional Kendall test */
   hasValue: boolean;
+  /** the latest season with a value (its median), for saying what the last survey found */
+  lastValue?: { season: string; value: number; censored: boolean } | null;
 }
 
 export function summarizeSeries(evaluation: IndicatorEvaluation | null): SeriesSummary {
@@ -44,7 +53,56 @@ export function summarizeSeries(evaluation: IndicatorEvaluation | null): SeriesS
     assessmentValue: evaluation.assessmentValue,
     cleanCoastIndex: evaluation.cleanCoastIndex,
     hasValue: evaluation.values.some((v) => v.value !== null),
+    lastValue: lastSeasonValue(evaluation),
   };
+}
+
+function lastSeasonValue(evaluation: IndicatorEvaluation): SeriesSummary['lastValue'] {
+  for (let i = evaluation.values.length - 1; i >= 0; i -= 1) {
+    const v = evaluation.values[i];
+    if (v && v.value !== null) return { season: v.season, value: v.value, censored: v.censored };
+  }
+  return null;
+}
+
+/**
+ * A level needs recent evidence. Where no series but the drift model has a value in the last four
+ * seasons (the assessment window), absence of surveys is never read as the lowest level: with no
+ * rule met the level is 'not-set', and where a rule of other evidence (the drift model) still sets
+ * a level, the level keeps it with a note saying so. The note names what the last survey found.
+ */
+export function levelWithoutRecentSurvey(
+  level: LevelResult,
+  entries: readonly { indicator: IndicatorId; summary: SeriesSummary }[],
+  settings: ScenarioSettings,
+  rules: readonly RiskRule[] = [],
+): LevelResult {
+  // Surveys and samples; the drift model is not a survey, and a season with no animal reported
+  // counts 0 reports, which is no survey either.
+  const surveys = entries.filter((e) => e.indicator !== 'drift-arrivals' && e.indicator !== 'wildlife-reports');
+  if (surveys.some((e) => e.summary.assessmentValue !== null)) return level;
+  let last: { indicator: IndicatorId; value: NonNullable<SeriesSummary['lastValue']>; start: string } | null = null;
+  for (const e of surveys) {
+    const value = e.summary.lastValue;
+    if (!value) continue;
+    const start = seasonRef(value.season, settings.seasons)?.start ?? '';
+    if (last === null || start > last.start) last = { indicator: e.indicator, value, start };
+  }
+  const lastSurvey: LastSurvey | null = last
+    ? {
+        seasonLabel: lowerFirst(seasonRef(last.value.season, settings.seasons)?.label ?? last.value.season),
+        valueText: last.indicator === 'wildlife-reports' ? formatNumber(last.value.value, 0) : formatPlain(last.value.value),
+        censored: last.value.censored,
+        unit: getIndicator(last.indicator).unit,
+      }
+    : null;
+  const top = level.hits[0];
+  if (top) {
+    const rule = rules.find((r) => r.id === top.ruleId);
+    return { ...level, note: noRecentSurveyNote(lastSurvey, rule?.indicator === 'wildlife-reports' ? 'wildlife-reports' : 'drift-model') };
+  }
+  const none = levelDefinition('not-set');
+  return { id: none.id, rank: none.rank, label: none.label, hits: [], note: noRecentSurveyNote(lastSurvey, null) };
 }
 
 /** The values of one included series that depend on the other segments. */
@@ -153,7 +211,13 @@ export function judgeSeason(
         direction: 'too-little-data',
       };
     }
-    segments.set(segmentId, { segmentId, indicators: entries.map((e) => e.verdict), drift, level: assessLevel(rules, inputs), levelInputs: inputs });
+    const level = levelWithoutRecentSurvey(
+      assessLevel(rules, inputs),
+      entries.map((e) => ({ indicator: e.verdict.indicator, summary: e.summary })),
+      settings,
+      rules,
+    );
+    segments.set(segmentId, { segmentId, indicators: entries.map((e) => e.verdict), drift, level, levelInputs: inputs });
   }
   return { segments, regionalSites };
 }

@@ -264,14 +264,16 @@ export function seriesEvaluation(context: SeasonContext, indicator: IndicatorId,
   const definition = getIndicator(indicator);
   const inSeason = records.filter((r) => r.season === seasonId);
   const inAssessment = records.filter((r) => assessment.has(r.season));
-  const seasonValue =
-    definition.aggregation === 'season-total' || records.length === 0
-      ? (values.find((v) => v.season === seasonId)?.value ?? null)
-      : (censoredMedian(inSeason.map((r) => ({ value: r.value ?? 0, censored: r.censored })))?.value ?? null);
-  const assessmentValue =
-    definition.aggregation === 'season-total' || records.length === 0
-      ? median(values.filter((v) => assessment.has(v.season) && v.value !== null).map((v) => v.value ?? 0))
-      : median(inAssessment.map((r) => r.value ?? 0));
+  const bySeason = definition.aggregation === 'season-total' || records.length === 0;
+  const seasonMedian = bySeason ? null : censoredMedian(inSeason.map((r) => ({ value: r.value ?? 0, censored: r.censored })));
+  const seasonValue = bySeason ? (values.find((v) => v.season === seasonId)?.value ?? null) : (seasonMedian?.value ?? null);
+  // A median is "below detection" when a middle sample was reported below the lab's detection limit.
+  const seasonValueCensored = bySeason ? (values.find((v) => v.season === seasonId)?.censored ?? false) : (seasonMedian?.censored ?? false);
+  const assessmentMedian = bySeason ? null : censoredMedian(inAssessment.map((r) => ({ value: r.value ?? 0, censored: r.censored })));
+  const assessmentValue = bySeason
+    ? median(values.filter((v) => assessment.has(v.season) && v.value !== null).map((v) => v.value ?? 0))
+    : median(inAssessment.map((r) => r.value ?? 0));
+  const assessmentValueCensored = assessmentMedian?.censored ?? false;
   const cci = median(
     inAssessment.map((r) => r.extra['cleanCoastIndex']).filter((x): x is number => typeof x === 'number' && Number.isFinite(x)),
   );
@@ -293,7 +295,9 @@ export function seriesEvaluation(context: SeasonContext, indicator: IndicatorId,
     // A chance of a rise means nothing where the data cannot carry a trend.
     probabilityUp: trend && !trend.insufficient ? (trend.probabilityUp ?? null) : null,
     seasonValue,
+    seasonValueCensored,
     assessmentValue,
+    assessmentValueCensored,
     cleanCoastIndex: cci,
     regionPercentile: null,
     segmentsTested: 0,

@@ -20,7 +20,10 @@ export const statsTrendEngine: TrendEngine = {
     // is used when it could be computed (Hirsch & Slack 1984 form; see regional-kendall.ts).
     // When it was left out (too many sites over too many years), the plain p is used and the
     // result says so.
-    const regional: RegionalResult = { S: result.S, z: result.z, p: result.pCovariance ?? result.p, slope: result.slope };
+    // The trends of the sites are tested for homogeneity (van Belle & Hughes 1984, the chi-square
+    // of seasonal-kendall.ts with sites in place of seasons): where they differ, the regional
+    // direction is not told as one (compose-region.ts).
+    const regional: RegionalResult = { S: result.S, z: result.z, p: result.pCovariance ?? result.p, slope: result.slope, homogeneity: result.heterogeneity };
     if (result.pCovariance === null) regional.covarianceCorrected = false;
     return regional;
   },

@@ -17,7 +17,8 @@ export type SeasonId = string;
 
 export type IndicatorId = 'beach-litter' | 'water-microplastics' | 'shellfish-tissue' | 'wildlife-reports' | 'drift-arrivals';
 
-export type LevelId = 'scant' | 'noticeable' | 'marked' | 'heavy';
+/** The four levels, and 'not-set': no survey in the last four seasons and no rule from other evidence. */
+export type LevelId = 'scant' | 'noticeable' | 'marked' | 'heavy' | 'not-set';
 
 export type SegmentKind = 'beach' | 'bay' | 'harbour' | 'estuary' | 'island-shore' | 'rocky-shore' | 'lagoon';
 
@@ -70,8 +71,17 @@ export interface IndicatorBulletin {
   observations: Observation[];      // everything up to the end of the season, oldest first
   /** Value for the published season alone (median of its samples), null when none. */
   seasonValue: number | null;
+  /**
+   * True when that median is a sample reported below the lab's detection limit ("<x"): then
+   * seasonValue is the limit, not a measurement, and every text says "below the lab's detection limit".
+   */
+  seasonValueCensored: boolean;
+  /** seasonValue as the bulletin prints it ("0.62", "below the lab's detection limit (0.05)"), null when none. */
+  seasonValueText: string | null;
   /** Median over the last four seasons (the assessment value), null when none. */
   assessmentValue: number | null;
+  /** True when that median is below the lab's detection limit (as seasonValueCensored). */
+  assessmentValueCensored: boolean;
   trend: TrendResult | null;        // null when there is no data at all
   /** Benjamini–Hochberg q-value of this segment's trend among all segments, this indicator. */
   qValue: number | null;
@@ -101,9 +111,15 @@ export interface RuleHit {
 
 export interface LevelResult {
   id: LevelId;
-  rank: 1 | 2 | 3 | 4;
+  rank: 0 | 1 | 2 | 3 | 4;          // 0 for 'not-set'
   label: string;                    // our own words
   hits: RuleHit[];                  // rules that matched; the highest sets the level
+  /**
+   * Where no survey was made in the last four seasons: why no level is set ("No survey here in
+   * the last four seasons; the last, in autumn 2022, found 62 items per 100 m of beach."), or, when
+   * other evidence (the drift model) still sets a level, that it alone set it. Absent otherwise.
+   */
+  note?: string;
 }
 
 export interface AccumulationZone {
@@ -171,6 +187,17 @@ export interface RegionalTrend {
   slope: number | null;
   unitShort: string;
   sentence: string;
+  /** van Belle & Hughes (1984) homogeneity of the trends across places; null when not computed. */
+  homogeneity?: { chi2: number; df: number; p: number } | null;
+  /** Places whose own trend is claimed rising / falling (the bulletins' q-value rule). */
+  placesUp?: number;
+  placesDown?: number;
+}
+
+/** A piece of a sentence; with a segment id, the page links the text to that segment's bulletin. */
+export interface HeadlinePart {
+  text: string;
+  segmentId?: string;
 }
 
 export interface RegionSummary {
@@ -193,6 +220,8 @@ export interface RegionSummary {
   regionalTrends: RegionalTrend[];
   zones: AccumulationZone[];
   headline: string;
+  /** The headline in parts (joined they are `headline`); the places named in it carry their segment id. */
+  headlineParts?: HeadlinePart[];
   summary: string[];
   /** Cautions for the region page (it mentions shellfish whenever any segment has shellfish data). */
   cautions?: { shellfish: Caution[]; debris: Caution[] };
@@ -223,9 +252,18 @@ export interface ValidationReport {
   omitted?: { file: string; code: string; column: string | null; count: number; severity: 'error' | 'warning'; excluded: boolean }[];
 }
 
+/** The notice on every page when the figures are not real, final results (bulletin/data-notice.ts). */
+export interface DataNotice {
+  kind: 'demo' | 'test-data' | 'provisional';
+  title: string;
+  text: string;
+}
+
 export interface SiteModel {
   schemaVersion: 1;
   invented: boolean;
+  /** the notice every page shows; null when the figures are real, final results */
+  notice?: DataNotice | null;
   generator: { name: 'wrackline'; version: string };
   region: { id: string; name: string; description: string };
   seasons: (SeasonRef & { published: string; current: boolean })[];

@@ -6,7 +6,7 @@ import type { LevelId } from '../model/types.ts';
 
 export interface LevelDefinition {
   id: LevelId;
-  rank: 1 | 2 | 3 | 4;
+  rank: 0 | 1 | 2 | 3 | 4;
   label: string;
 }
 
@@ -17,18 +17,26 @@ export const levelScale: readonly LevelDefinition[] = [
   { id: 'heavy', rank: 4, label: 'Heavy' },
 ];
 
+/**
+ * No level: no survey in the last four seasons and no rule met by other evidence. Absence of
+ * evidence is never read as the lowest level.
+ */
+export const levelNotSet: LevelDefinition = { id: 'not-set', rank: 0, label: 'Level not set' };
+
 export function levelDefinition(id: LevelId): LevelDefinition {
+  if (id === 'not-set') return levelNotSet;
   const found = levelScale.find((level) => level.id === id);
   if (!found) throw new Error(`levelDefinition: unknown level ${String(id)}`);
   return found;
 }
 
-export function levelRank(id: LevelId): 1 | 2 | 3 | 4 {
+export function levelRank(id: LevelId): 0 | 1 | 2 | 3 | 4 {
   return levelDefinition(id).rank;
 }
 
-/** "Marked (level 3 of 4)" */
+/** "Marked (level 3 of 4)"; "Level not set" */
 export function levelWords(id: LevelId): string {
   const level = levelDefinition(id);
+  if (level.rank === 0) return level.label;
   return `${level.label} (level ${level.rank} of 4)`;
 }

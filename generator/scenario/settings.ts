@@ -47,6 +47,12 @@ export const riskRuleSchema = z.object({
 export const settingsSchema = z.object({
   $schema: z.string().optional(),
   invented: z.boolean().default(false),
+  /**
+   * Which notice every page carries: 'demo' (invented coast and figures), 'test-data' (real places,
+   * made-up figures), 'provisional' (real figures not yet checked) or 'none'. Without it,
+   * invented: true gives 'demo' and false gives 'none'.
+   */
+  dataNotice: z.enum(['demo', 'test-data', 'provisional', 'none']).optional(),
   region: z.object({ id: slug, name: z.string().min(1), description: z.string().default('') }),
   publisher: contactSchema,
   authorities: z.array(contactSchema).min(1),

@@ -9,6 +9,12 @@
  * years here); beyond a work limit (sites² × years²) it is left out: varSCovariance and
  * pCovariance are then null and `covarianceSkipped` says why.
  *
+ * Homogeneity of the trends across sites: `heterogeneity` is the van Belle & Hughes (1984) chi-square
+ * ("Nonparametric tests for trend in water quality", Water Resour. Res. 20(1):127–136) with sites in
+ * place of seasons: χ²_homog = Σ_k Z_k² − K·Z̄², Z_k = S_k/√Var(S_k) (no continuity correction),
+ * df = K − 1 over the K sites with Var(S_k) > 0. A small p means the sites do not share one trend,
+ * and USGS practice is then not to report one regional direction (see model/compose-region.ts).
+ *
  * @example
  *   regionalKendall([{ site: 'a', points }, { site: 'b', points: others }], { confidence: 0.95 });
  */

@@ -102,7 +102,7 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
     value: o.value as number,
     censored: o.censored,
     season: seasonOfYear(o.season),
-    title: totals ? `${o.season}: ${o.value} ${indicator.unitShort}` : `${o.date}: ${o.censored ? 'below detection limit ' : ''}${o.value} ${indicator.unitShort}`,
+    title: totals ? `${o.season}: ${o.value} ${indicator.unitShort}` : o.censored ? `${o.date}: below the lab's detection limit (${o.value} ${indicator.unitShort})` : `${o.date}: ${o.value} ${indicator.unitShort}`,
   }));
   const seasonal = indicator.seasonsDisagree;
   const band = indicator.trend?.band ?? null;

@@ -7,7 +7,7 @@
 import type { LevelId } from '../../generator/model/types.ts';
 
 export interface LevelStyle {
-  rank: 1 | 2 | 3 | 4;
+  rank: 0 | 1 | 2 | 3 | 4;
   fill: string;           // swatch / polygon fill
   stroke: string;         // line colour on maps (darker than fill for contrast on the sea tint)
   dash: string | null;    // SVG stroke-dasharray, a second cue besides colour
@@ -20,7 +20,15 @@ export const levelStyles: Record<LevelId, LevelStyle> = {
   noticeable: { rank: 2, fill: '#d9a35f', stroke: '#b7752a', dash: '10 6', width: 4, pattern: 'wl-pat-2' },
   marked: { rank: 3, fill: '#a34d3c', stroke: '#963f30', dash: null, width: 5, pattern: 'wl-pat-3' },
   heavy: { rank: 4, fill: '#3f1f3a', stroke: '#3f1f3a', dash: null, width: 7, pattern: 'wl-pat-4' },
+  // No level (no recent survey): white and grey, a thin line of short dashes, an open dashed ring,
+  // "?" in the badge: it must not read as any step of the scale, least of all the lowest.
+  'not-set': { rank: 0, fill: '#ffffff', stroke: '#5f6d76', dash: '3 3', width: 2.5, pattern: 'wl-pat-0' },
 };
+
+/** "level 3 of 4"; for no level, the words the model gives (its label). */
+export function rankWords(level: { rank: number; label: string }): string {
+  return level.rank === 0 ? level.label : `level ${level.rank} of 4`;
+}
 
 export const levelOrder: LevelId[] = ['scant', 'noticeable', 'marked', 'heavy'];
 
@@ -29,6 +37,7 @@ export function levelPatternDefs(): string {
   const p = (id: string, fill: string, ink: string, body: string) =>
     `<pattern id="${id}" width="6" height="6" patternUnits="userSpaceOnUse"><rect width="6" height="6" fill="${fill}"/>${body.replace(/INK/g, ink)}</pattern>`;
   return [
+    p('wl-pat-0', '#ffffff', '#5f6d76', '<path d="M1 3H2.5M3.5 3H5" stroke="INK" stroke-width="0.8"/>'),
     p('wl-pat-1', levelStyles.scant.fill, '#7d6d44', '<circle cx="3" cy="3" r="0.8" fill="INK"/>'),
     p('wl-pat-2', levelStyles.noticeable.fill, '#5a3a14', '<path d="M0 6L6 0" stroke="INK" stroke-width="0.9"/>'),
     p('wl-pat-3', levelStyles.marked.fill, '#fff', '<path d="M0 6L6 0M-1 1L1 -1M5 7L7 5" stroke="INK" stroke-width="1.1"/><path d="M0 3L3 0M3 6L6 3" stroke="INK" stroke-width="0.7"/>'),
@@ -50,6 +59,8 @@ export function levelGlyphSymbols(): string {
     const s = levelStyles[id];
     return `<symbol id="wl-lv-${s.rank}" viewBox="0 0 16 16"><circle cx="8" cy="8" r="6.5" fill="#fff" stroke="#1f2a33" stroke-width="1.2"/><path d="${piePaths[s.rank]}" fill="${s.fill}" stroke="#1f2a33" stroke-width="1.2"/></symbol>`;
   });
+  // no level: an open ring of dashes with nothing filled
+  symbols.push('<symbol id="wl-lv-0" viewBox="0 0 16 16"><circle cx="8" cy="8" r="6.5" fill="#fff" stroke="#5f6d76" stroke-width="1.4" stroke-dasharray="2.5 2"/></symbol>');
   return `<svg class="sprite" width="0" height="0" aria-hidden="true" focusable="false">${symbols.join('')}</svg>`;
 }
 

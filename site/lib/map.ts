@@ -105,7 +105,7 @@ function placeBadges(items: { centre: [number, number]; level: LevelId; open: (i
     const style = levelStyles[level];
     const [x, y] = [spot[0].toFixed(1), spot[1].toFixed(1)];
     const leader = `<path d="M${centre[0].toFixed(1)} ${centre[1].toFixed(1)}H${(spot[0] + (spot[0] > centre[0] ? -badgeRadius : badgeRadius)).toFixed(1)}" stroke="#1f2a33" stroke-width="0.8"/>`;
-    out.push(open(`<g class="badge">${leader}<circle cx="${x}" cy="${y}" r="${badgeRadius}" fill="${style.fill}" stroke="#1f2a33" stroke-width="1.2"/><text x="${x}" y="${y}" dy="0.35em" text-anchor="middle" font-size="10" font-weight="700" fill="${style.rank >= 3 ? '#fff' : '#1f2a33'}">${style.rank}</text></g>`));
+    out.push(open(`<g class="badge">${leader}<circle cx="${x}" cy="${y}" r="${badgeRadius}" fill="${style.fill}" stroke="#1f2a33" stroke-width="1.2"${style.rank === 0 ? ' stroke-dasharray="3 2"' : ''}/><text x="${x}" y="${y}" dy="0.35em" text-anchor="middle" font-size="10" font-weight="700" fill="${style.rank >= 3 ? '#fff' : '#1f2a33'}">${style.rank > 0 ? style.rank : '?'}</text></g>`));
   }
   return out;
 }
@@ -205,7 +205,7 @@ export function renderMap(options: MapOptions): string {
     const d = path(f);
     if (!d) continue;
     const style = levelStyles[f.properties.level];
-    const name = `${f.properties.name}: ${f.properties.levelLabel}, level ${style.rank} of 4`;
+    const name = `${f.properties.name}: ${f.properties.levelLabel}${style.rank > 0 ? `, level ${style.rank} of 4` : ''}`;
     const title = `<title>${escapeXml(name)}</title>`;
     const open = linkFor(f.properties.id, name);
     const area = isArea(f.geometry);
@@ -240,7 +240,7 @@ export function renderMap(options: MapOptions): string {
         ordered.map((f) => ({
           centre: path.centroid(f),
           level: f.properties.level,
-          open: linkFor(f.properties.id, `${f.properties.name}: ${f.properties.levelLabel}, level ${levelStyles[f.properties.level].rank} of 4`),
+          open: linkFor(f.properties.id, `${f.properties.name}: ${f.properties.levelLabel}${levelStyles[f.properties.level].rank > 0 ? `, level ${levelStyles[f.properties.level].rank} of 4` : ''}`),
         })),
         width,
       ),

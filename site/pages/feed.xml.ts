@@ -22,7 +22,7 @@ export const GET: APIRoute = async () => {
       entries.push([
         '  <entry>',
         `    <id>${escapeXml(tag(`${s.id}/${b.segment.id}`))}</id>`,
-        `    <title>${escapeXml(`${b.segment.name}, ${b.season.label}: ${b.level.label} (level ${b.level.rank} of 4)`)}</title>`,
+        `    <title>${escapeXml(`${b.segment.name}, ${b.season.label}: ${b.level.rank > 0 ? `${b.level.label} (level ${b.level.rank} of 4)` : b.level.label}`)}</title>`,
         `    <link rel="alternate" type="text/html" href="${escapeXml(permalinkOf(b))}"/>`,
         `    <link rel="enclosure" type="application/json" href="${escapeXml(`${permalinkOf(b)}bulletin.json`)}"/>`,
         `    <published>${stamp(b.published)}</published>`,

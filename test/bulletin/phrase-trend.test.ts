@@ -63,16 +63,16 @@ describe('trend sentences, one per template path', () => {
     expect(phraseTrend(input('no-clear-direction', trendOf(2.6, -1.8, 7.2, 0.21), { qValue: 0.42, probabilityUp: 0.81 }))).toEqual([
       'We cannot tell if beach litter is going up or down.',
       'The change we see could be chance.',
-      'Our best guess is about 3 more items per 100 m of beach each year.',
-      'But the 95% confidence interval runs from 2 fewer to 7 more, so there may be no change at all.',
+      'Our best guess is about 2.6 more items per 100 m of beach each year.',
+      'But the 95% confidence interval runs from 1.8 fewer to 7.2 more, so there may be no change at all.',
       'This rests on 24 samples from 2020 to 2026.',
     ]);
   });
 
   test('a negative best guess is said as "fewer", with a singular unit after 1', () => {
     expect(phraseTrend(input('no-clear-direction', trendOf(-1.2, -4.1, 1.9, 0.5), { qValue: 0.7 })).slice(2, 4)).toEqual([
-      'Our best guess is about 1 fewer item per 100 m of beach each year.',
-      'But the 95% confidence interval runs from 4 fewer to 2 more, so there may be no change at all.',
+      'Our best guess is about 1.2 fewer items per 100 m of beach each year.',
+      'But the 95% confidence interval runs from 4.1 fewer to 1.9 more, so there may be no change at all.',
     ]);
   });
 
@@ -220,9 +220,9 @@ describe('trend sentences, one per template path', () => {
   });
 
   test('an uncertain change that rounds to 0 is said as close to no change', () => {
-    expect(phraseTrend(input('no-clear-direction', trendOf(0.2, -1.6, 2.1, 0.8), { qValue: 0.9 })).slice(2, 4)).toEqual([
+    expect(phraseTrend(input('no-clear-direction', trendOf(0.004, -1.6, 2.1, 0.8), { qValue: 0.9 })).slice(2, 4)).toEqual([
       'Our best guess is close to no change.',
-      'The 95% confidence interval runs from 2 fewer to 2 more items per 100 m of beach each year.',
+      'The 95% confidence interval runs from 1.6 fewer to 2.1 more items per 100 m of beach each year.',
     ]);
   });
 
@@ -239,7 +239,7 @@ describe('trend sentences, one per template path', () => {
     const sentences = phraseTrend(input('rising', trendOf(0.04, 0.01, 0.9, 0.001)));
     expect(sentences.slice(2, 4)).toEqual([
       'That is about 0.04 more items per 100 m of beach each year.',
-      'The 95% confidence interval runs from 0.01 to 0.90 more.',
+      'The 95% confidence interval runs from 0.01 to 0.9 more.',
     ]);
   });
 });
@@ -340,5 +340,54 @@ describe('counts with nothing reported', () => {
     expect(noneReportedSentences('animals harmed by litter', 2017, 2026)).toEqual([
       'No animals harmed by litter were reported here from 2017 to 2026, so there is no trend to tell.',
     ]);
+  });
+});
+
+describe('case 3, rounding that hides a possible fall: a bound is never rounded to zero or across zero', () => {
+  test('case 3: the interval −2.4 to +9.5 reads "from 2.4 fewer to 9.5 more", not "no change to 10 more"', () => {
+    // Seen on a real-looking scenario: the width rule (width 11.9 → tens) printed −2.4 as "no change".
+    expect(rateSentences(input('no-clear-direction', trendOf(3.1, -2.4, 9.5, 0.3)))).toEqual([
+      'Our best guess is about 3.1 more items per 100 m of beach each year.',
+      'But the 95% confidence interval runs from 2.4 fewer to 9.5 more, so there may be no change at all.',
+    ]);
+  });
+
+  test('case 3: a sweep of intervals near zero keeps both ends, their signs and their words', () => {
+    // Property (our own rule, stated in numbers.ts): for any interval around or near zero the words
+    // show a nonzero number for a nonzero bound, "fewer" for a negative one and "more" for a positive one.
+    const bound = fc.double({ min: -50, max: 50, noNaN: true, noDefaultInfinity: true }).filter((x) => x !== 0 && Math.abs(x) > 1e-6);
+    fc.assert(
+      fc.property(bound, bound, fc.double({ min: 0, max: 1, noNaN: true }), (a, b, f) => {
+        const lower = Math.min(a, b);
+        const upper = Math.max(a, b);
+        fc.pre(upper > lower);
+        const slope = lower + f * (upper - lower);
+        const rate = printedRate(input('no-clear-direction', trendOf(slope, lower, upper, 0.4)));
+        if (!rate || rate.lower === null || rate.upper === null) throw new Error('no rate');
+        expect(Math.sign(rate.lower)).toBe(Math.sign(lower));
+        expect(Math.sign(rate.upper)).toBe(Math.sign(upper));
+        const text = rateSentences(input('no-clear-direction', trendOf(slope, lower, upper, 0.4))).join(' ');
+        const runs = /runs from (.*?)(?:,| items| each|\.$)/u.exec(text)?.[1] ?? '';
+        expect(runs).not.toMatch(/no change/u);
+        if (lower < 0 && upper > 0) expect(runs).toMatch(/^[\d.,]+ fewer to [\d.,]+ more$/u);
+        if (lower > 0) expect(runs).toMatch(/^[\d.,]+ to [\d.,]+ more$/u);
+        if (upper < 0) expect(runs).toMatch(/^[\d.,]+ to [\d.,]+ fewer$/u);
+        for (const n of runs.match(/[\d.,]+/gu) ?? []) expect(Number(n.replace(/,/gu, ''))).toBeGreaterThan(0);
+      }),
+      { numRuns: 2000, seed: 15 },
+    );
+    // a grid of intervals straddling zero, as a second, deterministic sweep
+    for (let lo = -3; lo < 0; lo += 0.137) {
+      for (let hi = 0.011; hi < 12; hi += 0.913) {
+        const rate = printedRate(input('no-clear-direction', trendOf((lo + hi) / 2, lo, hi, 0.5)));
+        expect(rate?.lower).toBeLessThan(0);
+        expect(rate?.upper).toBeGreaterThan(0);
+      }
+    }
+  });
+
+  test('case 3: an interval that stays on one side keeps the width rule unless a bound would print as 0', () => {
+    expect(rateSentences(input('rising', trendOf(6.2, 2.3, 10.1, 0.0004)))[1]).toBe('The 95% confidence interval runs from 2 to 10 more.');
+    expect(rateSentences(input('rising', trendOf(5, 0.3, 12, 0.0004)))[1]).toBe('The 95% confidence interval runs from 0.3 to 12 more.');
   });
 });

@@ -79,7 +79,8 @@ describe('demo bulletins', () => {
       const down = b.indicators.some((i) => i.direction === 'falling');
       expect(/going up/.test(b.headline)).toBe(up);
       expect(/going down/.test(b.headline)).toBe(down);
-      expect(b.headline).toContain(`${b.level.label} (level ${b.level.rank} of 4)`);
+      if (b.level.id === 'not-set') expect(b.headline).toMatch(new RegExp(`^Level not set at ${b.segment.name.replace(/[.*+?^${}()|[\]\\]/g, '\\$&')} in `));
+      else expect(b.headline).toContain(`${b.level.label} (level ${b.level.rank} of 4)`);
       expect(b.headline).toContain(b.segment.name);
     }
   });
@@ -106,12 +107,14 @@ describe('demo bulletins', () => {
           expect(text).toContain('Our best guess is close to no change.');
         }
         if (rate.lower !== null && rate.upper !== null && !(rate.lower === 0 && rate.upper === 0)) {
+          // each bound with its own decimals: both are two significant figures where the range spans zero
           const words =
             rate.lower > 0
-              ? `${fmt(rate.lower, rate.decimals)} to ${fmt(rate.upper, rate.decimals)} more`
+              ? `${fmt(rate.lower, rate.lowerDecimals)} to ${fmt(rate.upper, rate.upperDecimals)} more`
               : rate.upper < 0
-                ? `${fmt(rate.upper, rate.decimals)} to ${fmt(rate.lower, rate.decimals)} fewer`
-                : `${amount(rate.lower, rate.decimals)} to ${amount(rate.upper, rate.decimals)}`;
+                ? `${fmt(rate.upper, rate.upperDecimals)} to ${fmt(rate.lower, rate.lowerDecimals)} fewer`
+                : `${amount(rate.lower, rate.lowerDecimals)} to ${amount(rate.upper, rate.upperDecimals)}`;
+          if (rate.lower < 0 && rate.upper > 0) expect(words).toMatch(/^[\d.,]+ fewer to [\d.,]+ more$/u);
           expect(text).toContain(`95% confidence interval runs from ${words}`);
           checked += 1;
         }
@@ -139,7 +142,9 @@ describe('demo bulletins', () => {
         const shown = formatPlain(i.seasonValue);
         // The plain form is the same rounded number as two significant figures, trailing zeros dropped.
         expect(Number(shown.replace(/,/g, ''))).toBe(Number(formatSignificant(i.seasonValue).replace(/,/g, '')));
-        expect(b.changes.some((c) => c.includes(`this season: ${shown} ${i.unit}`))).toBe(true);
+        // a median below the lab's detection limit is never printed as a measurement
+        const said = i.seasonValueCensored ? `this season: below the lab's detection limit (${shown} ` : `this season: ${shown} ${i.unit}`;
+        expect(b.changes.some((c) => c.includes(said))).toBe(true);
       }
     }
   });
@@ -172,8 +177,13 @@ describe('demo bulletins', () => {
         expect(b.changes.some((c) => c.startsWith('The level went'))).toBe(false);
         continue;
       }
-      changed += 1;
       const sentence = b.changes[0] ?? '';
+      // A move to or from "no level" is no rise or fall of a level, and names no rule.
+      if (b.level.rank === 0 || b.previousLevel.rank === 0) {
+        expect(sentence).toMatch(/^Last season (no level was set; this season it is|the level was) .+\.$/u);
+        continue;
+      }
+      changed += 1;
       expect(sentence).toMatch(new RegExp(`^The level went ${b.level.rank > b.previousLevel.rank ? 'up' : 'down'} from .* because .+\\.$`));
       const moving = b.indicators.some((i) => i.direction === (b.level.rank < b.previousLevel!.rank ? 'rising' : 'falling'));
       expect(b.changes.includes('The level looks at the last four seasons; the trend looks at all the years, so the two can differ.')).toBe(moving);
@@ -193,8 +203,9 @@ describe('demo bulletins', () => {
     for (const b of set.bulletins) {
       for (const sentence of mainText(b)) {
         expect(sentence).not.toMatch(/q-value|\bSen\b|heterogeneity|Mann|Kendall|p-value|bootstrap/i);
-        // At most three decimals anywhere (rates of tiny quantities), and never a padded 0.0000.
-        expect(sentence).not.toMatch(/\d\.\d{4,}/);
+        // At most three decimals, except a number below 0.01 at two significant figures (a tiny
+        // rate or a bound kept apart from zero, "0.0025"); never a padded 0.0000.
+        for (const m of sentence.matchAll(/\d+\.\d{4,}/gu)) expect(m[0]).toMatch(/^0\.00\d*[1-9]\d?$/u);
         expect(sentence).not.toMatch(/(^|[^\d.,])1 (items|animals|particles|seasons|samples)\b/);
       }
     }

@@ -32,7 +32,7 @@ export const testEngine: TrendEngine = {
   regional: () => null,
 };
 
-function segment(id: string, name: string, kind: Segment['kind'], shellfish: Segment['shellfish']): Segment {
+export function segment(id: string, name: string, kind: Segment['kind'], shellfish: Segment['shellfish']): Segment {
   return {
     id,
     name,
@@ -45,7 +45,7 @@ function segment(id: string, name: string, kind: Segment['kind'], shellfish: Seg
   };
 }
 
-function record(indicator: IndicatorId, segmentId: string, date: string, value: number, censored = false, extra: ScenarioRecord['extra'] = {}): ScenarioRecord {
+export function record(indicator: IndicatorId, segmentId: string, date: string, value: number, censored = false, extra: ScenarioRecord['extra'] = {}): ScenarioRecord {
   const season = seasonOfDate(date, settings.seasons) ?? '';
   return { indicator, segmentId, date, t: decimalYear(date), season, seasonName: season.slice(5), value, censored, extra, source: { file: 'tables/x.csv', row: 2 } };
 }
@@ -67,7 +67,7 @@ const settings = settingsSchema.parse({
 });
 
 /** Mid-season survey dates from winter 2019 to autumn 2026. */
-function seasonDates(): string[] {
+export function seasonDates(): string[] {
   const dates: string[] = [];
   for (let year = 2019; year <= 2026; year += 1) for (const month of ['01', '04', '07', '10']) dates.push(`${year}-${month}-15`);
   return dates;

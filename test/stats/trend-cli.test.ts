@@ -76,7 +76,38 @@ describe('wrackline trend', () => {
     expect(code).toBe(0);
     expect(out).toContain('14 values used');
     expect(out).toContain('Mann–Kendall: S = 54');
-    expect(out).toContain("Sen's slope: 0.5667 per unit of time (95% interval 0.3231 to 0.8698)");
+    // three significant digits throughout (D. Little, Holy Cross: Sen 0.566667, CI 0.32313–0.86978, check value 3)
+    expect(out).toContain("Sen's slope: 0.567 per unit of time (95% interval 0.323 to 0.87)");
+  });
+
+  test('case 7: the readable output starts with a plain verdict in the bulletins\' words, per year for years', async () => {
+    // D. Little, "A Mann-Kendall Example (By Hand)": S = 54, two-sided p = 0.00366, Sen 0.566667
+    const file = csv('little-years.csv', `time,value\n${littleValues.map((v, i) => `${2013 + i},${v}`).join('\n')}\n`);
+    const { code, out } = await run([file]);
+    expect(code).toBe(0);
+    const lines = out.split('\n');
+    // seeded bootstrap (500 resamples): the chance of a rise, in the Hirsch et al. (2015) words
+    expect(lines[0]).toBe('Going up: a rise is highly likely; the chance is more than 99 in 100.');
+    expect(lines[1]).toBe('About 0.6 more per year; the 95% confidence interval runs from 0.3 to 0.9 more.');
+    expect(out).toContain("Sen's slope: 0.567 per year");
+  });
+
+  test('case 7: columns by name (--time, --value), or the first two columns with a note', async () => {
+    const rows = littleValues.map((v, i) => `${2013 + i},x,${v}`).join('\n');
+    const named = await run([csv('named.csv', `year,site,count\n${rows}\n`), '--time', 'year', '--value', 'count']);
+    expect(named.code).toBe(0);
+    expect(named.out).toContain('14 values used');
+    expect(named.out).not.toContain('Note:');
+    const first = await run([csv('first-two.csv', `year,count\n${littleValues.map((v, i) => `${2013 + i},${v}`).join('\n')}\n`)]);
+    expect(first.code).toBe(0);
+    expect(first.out).toContain('Note: no column is named time or value, so the first two columns are used: "year" as the time and "count" as the value (name them with --time and --value).');
+    const missing = await run([csv('missing.csv', 'year,count\n1,2\n'), '--value', 'items']);
+    expect(missing.code).toBe(2);
+    expect(missing.err).toContain('it has no column "items" (--value)');
+    // --json stays as it was: the same object whatever the readable output says
+    const json = JSON.parse((await run([csv('first-json.csv', `year,count\n${littleValues.map((v, i) => `${2013 + i},${v}`).join('\n')}\n`), '--json'])).out);
+    expect(json.mannKendall.S).toBe(54);
+    expect(Object.keys(json)).toEqual(['n', 'nCensored', 'mannKendall', 'sen', 'serialCorrection', 'insufficient']);
   });
 
   test('bad CSV: exit 2 naming line and column', async () => {
