@@ -1,7 +1,7 @@
 /**
  * `wrackline build`: read, check, compute, render and publish a scenario's site.
  *
- *   wrackline build [--scenario DIR] [--out DIR] [--cache DIR] [--no-cache] [--site DIR] [--render-all] [--quiet]
+ *   wrackline build [--scenario DIR] [--out DIR] [--cache DIR] [--no-cache] [--site DIR] [--render-all] [--candidate] [--quiet]
  *
  * Exit codes: 0 published (or already up to date), 1 invalid data or a refused publication
  * (archive, safety), 2 bad usage, an unreadable scenario folder, or an output we must not replace.
@@ -40,6 +40,9 @@ Options:
   --site DIR       Astro project that renders the model (default: the built-in site)
   --render-all     render every page, even those whose inputs did not change
                    (by default they are taken over from the published release)
+  --candidate      stage the finished release for review instead of publishing
+                   it (in <out>.wrackline/candidate/); nothing on line changes.
+                   Then \`wrackline review\` and \`wrackline approve\`
   --quiet          print only errors (also when the CI variable is set)
   -h, --help       show this help
 
@@ -134,6 +137,7 @@ export async function runBuild(argv: string[], options: RunBuildOptions = {}): P
         'no-cache': { type: 'boolean' },
         site: { type: 'string' },
         'render-all': { type: 'boolean' },
+        candidate: { type: 'boolean' },
         quiet: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
@@ -159,12 +163,20 @@ export async function runBuild(argv: string[], options: RunBuildOptions = {}): P
   const started = performance.now();
   try {
     const steps = options.steps ?? (await realSteps(values.site === undefined ? undefined : path.resolve(values.site)));
-    const outcome = await buildRelease({ scenario, out, cache, progress, steps, renderAll: values['render-all'] === true, log: (line) => progress.note(`  ${line}`) });
+    const outcome = await buildRelease({ scenario, out, cache, progress, steps, renderAll: values['render-all'] === true, candidate: values.candidate === true, log: (line) => progress.note(`  ${line}`) });
     if (outcome.kind === 'invalid') {
       stderr(formatReport(outcome.report));
       return 1;
     }
     const warnings = outcome.report.issues.filter((item) => item.severity === 'warning').length;
+    if (outcome.kind === 'staged') {
+      progress.note(
+        `Staged a candidate of ${formatCount(outcome.pages)} pages (${formatCount(outcome.files)} files) in ${outcome.folder}; nothing on line changed` +
+          `${warnings > 0 ? `; ${warnings} warning(s), see \`wrackline check\`` : ''} in ${formatDuration(performance.now() - started)}\n` +
+          `  next: wrackline review --out ${values.out ?? 'dist'}   (preview: wrackline serve --dir ${outcome.folder})`,
+      );
+      return 0;
+    }
     progress.note(
       `Published ${formatCount(outcome.pages)} pages (${formatCount(outcome.files)} files) to ${out}` +
         `${outcome.unchanged ? ' (unchanged: same content as the published site)' : ''}` +
