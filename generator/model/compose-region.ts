@@ -3,6 +3,7 @@
  * Kendall trend per indicator (Helsel & Frans 2006: the Seasonal Kendall test with sites in place
  * of seasons), the accumulation zones, and a short summary.
  */
+import { notesFor } from './publisher-notes.ts';
 import { debrisCautions, shellfishCautions } from '../bulletin/cautions.ts';
 import { indicatorSubjects, lowerFirst } from '../bulletin/indicator-words.ts';
 import { formatNumber, formatSignificant } from '../bulletin/numbers.ts';
@@ -82,6 +83,7 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
     );
   }
   for (const trend of regionalTrends) summary.push(trend.sentence);
+  const seasonNotes = notesFor(settings.notes, now.season.id, null);
   const highest = Math.max(0, ...rows.map((r) => r.level.rank));
   const atHighest = rows.filter((r) => r.level.rank === highest).length;
   const highestLabel = levelScale.find((l) => l.rank === highest)?.label ?? 'Scant';
@@ -92,6 +94,7 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
     published,
     region: { id: settings.region.id, name: settings.region.name, description: settings.region.description },
     publisher: settings.publisher,
+    ...(seasonNotes.length > 0 ? { notes: seasonNotes } : {}),
     segments: rows,
     regionalTrends,
     zones: now.zones,

@@ -156,6 +156,7 @@ export function claimChanges(old: Bulletin | null, next: Bulletin): ClaimChange[
 export function sentencesOf(bulletin: Bulletin): Map<string, string[]> {
   const out = new Map<string, string[]>();
   out.set('headline', [bulletin.headline]);
+  if (bulletin.notes && bulletin.notes.length > 0) out.set('note from the publisher', bulletin.notes.map((note) => note.text));
   out.set('summary', bulletin.summary);
   out.set('since last season', bulletin.changes);
   for (const indicator of bulletin.indicators) out.set(indicator.indicator, indicator.sentences);
