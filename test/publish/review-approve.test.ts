@@ -236,7 +236,7 @@ describe('per-segment Atom feeds', () => {
     for (const segment of segments) {
       const xml = await readFile(path.join(out, 'feeds', `${segment}.xml`), 'utf8');
       const doc = parseDocument(xml, { xmlMode: true });
-      const feeds = DomUtils.getElementsByTagName('feed', doc, false);
+      const feeds = DomUtils.getElementsByTagName('feed', doc, true);
       expect(feeds.length).toBe(1);
       const feed = feeds[0]!;
       expect(feed.attribs['xmlns']).toBe('http://www.w3.org/2005/Atom'); // §2: the Atom namespace
