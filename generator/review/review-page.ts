@@ -18,7 +18,9 @@ body{font:16px/1.45 system-ui,sans-serif;margin:0 auto;max-width:72rem;padding:1
 h1{font-size:1.5rem}h2{font-size:1.2rem;margin-top:2rem;border-bottom:1px solid #999}
 table{border-collapse:collapse;width:100%}th,td{border:1px solid #bbb;padding:.35rem .5rem;vertical-align:top;text-align:left}
 td.old{background:#fde8e8}td.new{background:#e6f4ea}.up{color:#8a1c1c;font-weight:600}.down{color:#1c5a2a;font-weight:600}
-.moved{font-size:.9em;color:#444}code{font-size:.9em}ul.rules{margin:.2rem 0;padding-left:1.2rem}`;
+.moved{font-size:.9em;color:#444}code{font-size:.9em;overflow-wrap:anywhere}ul.rules{margin:.2rem 0;padding-left:1.2rem}
+@media (max-width:40rem){table,tbody,tr,td,th{display:block}thead{display:none}tr{margin-bottom:.6rem}
+td.old::before{content:"Old: ";font-weight:600}td.new::before{content:"New: ";font-weight:600}}`;
 
 function list(items: string[], none: string): string {
   return items.length === 0 ? `<p>${escapeHtml(none)}</p>` : `<ul>${items.map((item) => `<li>${item}</li>`).join('')}</ul>`;
