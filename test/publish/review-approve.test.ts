@@ -62,7 +62,7 @@ beforeAll(async () => {
   await writeFile(path.join(scenario, 'scenario.json'), fullSettings);
   const staged = await runCli(['build', '--scenario', scenario, '--out', out, '--candidate']);
   expect(staged.code, staged.stderr).toBe(0);
-}, 900_000);
+}, 2_400_000);
 
 afterAll(async () => {
   await rm(work, { recursive: true, force: true });
