@@ -1,7 +1,7 @@
 /**
  * `wrackline build`: read, check, compute, render and publish a scenario's site.
  *
- *   wrackline build [--scenario DIR] [--out DIR] [--cache DIR] [--no-cache] [--site DIR] [--render-all] [--strict] [--quiet]
+ *   wrackline build [--scenario DIR] [--out DIR] [--cache DIR] [--no-cache] [--site DIR] [--render-all] [--strict] [--candidate] [--quiet]
  *
  * Exit codes: 0 published (or already up to date), 1 invalid data or a refused publication
  * (archive, safety), 2 bad usage, an unreadable scenario folder, or an output we must not replace.
@@ -43,6 +43,9 @@ Options:
                    (by default they are taken over from the published release)
   --strict         treat every warning as an error: publish only a scenario
                    with no record left out
+  --candidate      stage the finished release for review instead of publishing
+                   it (in <out>.wrackline/candidate/); nothing on line changes.
+                   Then \`wrackline review\` and \`wrackline approve\`
   --quiet          print only errors (also when the CI variable is set)
   -h, --help       show this help
 
@@ -164,6 +167,7 @@ export async function runBuild(argv: string[], options: RunBuildOptions = {}): P
         site: { type: 'string' },
         'render-all': { type: 'boolean' },
         strict: { type: 'boolean' },
+        candidate: { type: 'boolean' },
         quiet: { type: 'boolean' },
         help: { type: 'boolean', short: 'h' },
       },
@@ -195,13 +199,21 @@ export async function runBuild(argv: string[], options: RunBuildOptions = {}): P
   const started = performance.now();
   try {
     const steps = options.steps ?? (await realSteps(values.site === undefined ? undefined : path.resolve(values.site), values.strict === true));
-    const outcome = await buildRelease({ scenario, out, cache, progress, steps, renderAll: values['render-all'] === true, log: (line) => progress.note(`  ${line}`) });
+    const outcome = await buildRelease({ scenario, out, cache, progress, steps, renderAll: values['render-all'] === true, candidate: values.candidate === true, log: (line) => progress.note(`  ${line}`) });
     const checkCommand = `npx wrackline check --scenario ${shellWord(path.relative(process.cwd(), scenario) || '.')}`;
     if (outcome.kind === 'invalid') {
       stderr(formatReport(outcome.report, 20, checkCommand));
       return 1;
     }
     const warnings = outcome.report.issues.filter((item) => item.severity === 'warning').length;
+    if (outcome.kind === 'staged') {
+      progress.note(
+        `Staged a candidate of ${formatCount(outcome.pages)} pages (${formatCount(outcome.files)} files) in ${outcome.folder}; nothing on line changed` +
+          `${warnings > 0 ? `; ${warnings} warning(s), see \`wrackline check\`` : ''} in ${formatDuration(performance.now() - started)}\n` +
+          `  next: wrackline review --out ${values.out ?? 'dist'}   (preview: wrackline serve --dir ${outcome.folder})`,
+      );
+      return 0;
+    }
     progress.note(
       `Published ${formatCount(outcome.pages)} pages (${formatCount(outcome.files)} files) to ${out}` +
         `${outcome.unchanged ? ' (unchanged: same content as the published site)' : ''}` +

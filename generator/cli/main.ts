@@ -20,6 +20,14 @@ const commands: { [name: string]: CommandEntry } = {
     summary: 'validate a scenario, compute the bulletins and publish the static site',
     load: async () => (await import('./build.ts')).runBuild,
   },
+  review: {
+    summary: 'show what a staged candidate (build --candidate) changes against the release on line',
+    load: async () => (await import('./review.ts')).runReview,
+  },
+  approve: {
+    summary: 'publish the reviewed candidate, recording who approved it and when',
+    load: async () => (await import('./approve.ts')).runApprove,
+  },
   check: {
     summary: 'validate a scenario only; exit 1 when it has errors',
     load: async () => (await import('./check.ts')).runCheck,
@@ -64,6 +72,7 @@ export function mainHelp(): string {
     '  wrackline init my-coast',
     '  wrackline check --scenario content/demo',
     '  wrackline build --scenario content/demo --out dist',
+    '  wrackline build --scenario content/demo --out dist --candidate && wrackline review --out dist',
     '  wrackline trend series.csv --seasonal --json',
     '  wrackline serve --dir dist',
     '',

@@ -153,6 +153,19 @@ export async function startServer(options: { dir: string; port: number }): Promi
   return { server, url: `http://127.0.0.1:${port}/` };
 }
 
+/** Calls `gone` once the process that started this one has ended (checked every half second). */
+export function parentWatch(gone: () => void, intervalMs = 500): NodeJS.Timeout {
+  const parent = process.ppid;
+  const timer = setInterval(() => {
+    if (process.ppid !== parent) {
+      clearInterval(timer);
+      gone();
+    }
+  }, intervalMs);
+  timer.unref();
+  return timer;
+}
+
 export async function runServe(
   argv: string[],
   io: { stdout?: (text: string) => void; stderr?: (text: string) => void; untilStopped?: Promise<unknown> } = {},
@@ -193,13 +206,19 @@ export async function runServe(
     return 2;
   }
   stdout(`Serving ${dir} at ${started.url} (this computer only). Press Ctrl+C to stop.`);
+  let watch: NodeJS.Timeout | undefined;
   const stop =
     io.untilStopped ??
     new Promise<void>((resolve) => {
       process.once('SIGINT', () => resolve());
       process.once('SIGTERM', () => resolve());
+      process.once('SIGHUP', () => resolve());
+      // Started by another program (npm run preview, an editor): stop when it goes, even when it
+      // was killed without passing a signal on (this process is then handed to another parent).
+      watch = parentWatch(resolve);
     });
   await stop;
+  if (watch) clearInterval(watch);
   const closed = new Promise<void>((resolve) => started.server.close(() => resolve()));
   started.server.closeAllConnections();
   await closed;

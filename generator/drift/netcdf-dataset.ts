@@ -28,7 +28,15 @@ export interface NetcdfDataset {
   close(): void;
 }
 
+/** HDF5's error stack (many lines, see loadH5) cut to its last, most specific, reason. */
+export function shortReason(reason: string): string {
+  if (!reason.includes('HDF5')) return reason;
+  const minors = [...reason.matchAll(/minor: (.+)/g)].map((match) => match[1]!.trim());
+  return minors.length > 0 ? `HDF5: ${minors[minors.length - 1]}` : (reason.split('\n')[0] ?? reason);
+}
+
 function unreadable(file: string, reason: string): InputValidationError {
+  reason = shortReason(reason);
   return new InputValidationError(NetcdfUnreadable, {
     file, row: null, column: null, value: null, expected: 'a complete NetCDF-3 or NetCDF-4 file',
     message: NetcdfUnreadable.message(file, reason), severity: 'error', excluded: true, code: NetcdfUnreadable.name, hint: NetcdfUnreadable.hint,
@@ -130,7 +138,10 @@ async function loadH5(): Promise<H5Module> {
   if (!h5Promise) {
     h5Promise = (async () => {
       const h5 = await import('h5wasm/node');
-      await h5.ready;
+      const module = await h5.ready;
+      // HDF5 prints its whole error stack to stderr by default; raise it as an exception instead,
+      // so a damaged file becomes our own validation error (below) and nothing else is printed.
+      module.activate_throwing_error_handler();
       return h5;
     })();
   }

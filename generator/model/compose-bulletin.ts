@@ -2,6 +2,7 @@
  * One bulletin: a segment in a published season, from the season's evaluation (and last season's),
  * through the sentence templates of generator/bulletin.
  */
+import { notesFor } from './publisher-notes.ts';
 import { debrisCautions, shellfishCautions } from '../bulletin/cautions.ts';
 import { chartTrendWords } from '../bulletin/chart-words.ts';
 import { indicatorSubjects } from '../bulletin/indicator-words.ts';
@@ -252,6 +253,7 @@ export function composeBulletin(
       .sort((a, b) => (a.date < b.date ? 1 : a.date > b.date ? -1 : 0))
       .map((c) => ({ date: c.date, reason: c.reason }))[0] ?? null;
 
+  const notes = notesFor(settings.notes, now.season.id, segment.id);
   const partial = { level: evaluation.level, indicators, drift: evaluation.drift };
   const reporters = reportersSection({
     segmentName: segment.name,
@@ -270,6 +272,7 @@ export function composeBulletin(
     previousSeasonPublished: previous ? context.publishedSeasons.has(previous.season.id) : false,
     published,
     correction,
+    ...(notes.length > 0 ? { notes } : {}),
     segment: {
       id: segment.id,
       name: segment.name,

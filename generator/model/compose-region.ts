@@ -8,6 +8,7 @@
  * at 1 − confidence and places go both ways, the sentence names how many go each way instead of a
  * single regional direction.
  */
+import { notesFor } from './publisher-notes.ts';
 import { debrisCautions, shellfishCautions } from '../bulletin/cautions.ts';
 import { indicatorSubjects, lowerFirst } from '../bulletin/indicator-words.ts';
 import { formatNumber, formatSignificant } from '../bulletin/numbers.ts';
@@ -155,6 +156,7 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
     );
   }
   for (const trend of regionalTrends) summary.push(trend.sentence);
+  const seasonNotes = notesFor(settings.notes, now.season.id, null);
   const highest = Math.max(0, ...rows.map((r) => r.level.rank));
   const highestLabel = levelScale.find((l) => l.rank === highest)?.label ?? 'Scant';
   const headlineParts: HeadlinePart[] = highest === 0
@@ -172,6 +174,7 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
     published,
     region: { id: settings.region.id, name: settings.region.name, description: settings.region.description },
     publisher: settings.publisher,
+    ...(seasonNotes.length > 0 ? { notes: seasonNotes } : {}),
     segments: rows,
     regionalTrends,
     zones: now.zones,

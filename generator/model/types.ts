@@ -143,6 +143,14 @@ export interface Caution {
   text: string;
 }
 
+/** A note from the publisher (scenario settings), in a safe subset of Markdown, rendered in its own box. */
+export interface PublisherNote {
+  /** "segment": about this segment and season; "season": about the whole season. */
+  scope: 'segment' | 'season';
+  /** Markdown source; the site renders links, emphasis and lists only and escapes the rest. */
+  text: string;
+}
+
 export interface Bulletin {
   schemaVersion: 1;
   invented: boolean;                // demo data: every page says so
@@ -155,6 +163,8 @@ export interface Bulletin {
   previousSeasonPublished?: boolean;
   published: string;                // ISO date from the scenario, never the clock
   correction: { date: string; reason: string } | null;
+  /** Notes from the publisher for this bulletin, season-wide first; absent when none. */
+  notes?: PublisherNote[];
   segment: SegmentInfo;
   level: LevelResult;
   previousLevel: LevelResult | null;
@@ -207,6 +217,8 @@ export interface RegionSummary {
   published: string;
   region: { id: string; name: string; description: string };
   publisher: Contact;
+  /** Season-wide notes from the publisher; absent when none. */
+  notes?: PublisherNote[];
   segments: {
     id: string;
     name: string;

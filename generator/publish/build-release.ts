@@ -22,6 +22,7 @@ import type { Correction, LedgerReuse } from './archive-ledger.ts';
 import { safetyRulesVersion, siteProblems, siteProblemsInParallel } from './html-safety.ts';
 import { collectGarbageNow } from './free-memory.ts';
 import { PublishError } from './publish-error.ts';
+import { stageCandidate } from './candidate.ts';
 import { openPublishSession } from './release-swap.ts';
 import type { PublishSession } from './release-swap.ts';
 import { assertSlug } from './safe-path.ts';
@@ -45,6 +46,8 @@ export interface BuildReleaseOptions {
   log?: (line: string) => void;
   /** Render every page even when the published release holds pages whose inputs did not change. */
   renderAll?: boolean;
+  /** Stage the release as a candidate for review (candidate.ts) instead of publishing it. */
+  candidate?: boolean;
   /** Test hook: runs after rendering, before any check or swap. */
   afterRender?: (siteDir: string) => Promise<void>;
 }
@@ -59,7 +62,8 @@ export type BuildOutcome =
       files: number;
       digest: string;
       report: ValidationReport;
-    };
+    }
+  | { kind: 'staged'; folder: string; pages: number; files: number; digest: string; onLine: string | null; report: ValidationReport };
 
 function corrections(scenario: LoadedScenario): Correction[] {
   return scenario.settings.corrections.map((correction) => ({
@@ -253,8 +257,13 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     const manifest = await writeManifest(siteDir, [...hashed, { file: ledgerFileName, ...ledgerHash }], { safetyRules: safetyRulesVersion });
     progress.end();
 
-    progress.start('publishing');
     const digest = treeDigest(manifest);
+    if (options.candidate) {
+      const staged = await stageCandidate({ session, tree: siteDir, digest, scenario: options.scenario, modelDir });
+      const pages = rendered.pages + brought.length;
+      return { kind: 'staged', folder: staged.place.site, pages, files: manifest.length + 1, digest, onLine: staged.record.onLine?.release ?? null, report: prepared.report };
+    }
+    progress.start('publishing');
     const outcome = await session.publish(siteDir, `r-${digest.slice(0, 20)}`);
     progress.end();
     return {

@@ -62,6 +62,20 @@ export const settingsSchema = z.object({
   corrections: z
     .array(z.object({ season: z.string(), segment: z.string().nullable().default(null), date: isoDate, reason: z.string().min(1) }))
     .default([]),
+  /**
+   * Notes from the publisher, shown in a labelled box: on one segment's bulletin of a season, or
+   * (segment null) on every bulletin and the overview of that season. A safe subset of Markdown:
+   * links, emphasis and lists; anything else is shown as plain text.
+   */
+  notes: z
+    .array(
+      z.object({
+        season: z.string().regex(/^\d{4}-[a-z0-9-]+$/, 'a season id such as 2026-autumn'),
+        segment: slug.nullable().default(null),
+        text: z.string().trim().min(1).max(2000, 'a short note: at most 2,000 characters'),
+      }),
+    )
+    .default([]),
   trend: z
     .object({
       confidence: z.number().gt(0).lt(1).default(0.95),

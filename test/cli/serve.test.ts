@@ -86,3 +86,33 @@ describe('serve', () => {
     expect(fileForUrlPath('/srv', '/%E0%A4%A')).toBeNull();
   });
 });
+
+// `npm run preview` killed (even with SIGKILL, which passes no signal on) must not leave the
+// preview server running: the server notices its parent is gone.
+describe('the preview server and the program that started it', () => {
+  test('stops when its parent is killed', { timeout: 30_000 }, async () => {
+    const { spawn } = await import('node:child_process');
+    const entry = path.resolve(import.meta.dirname, '..', '..', 'bin', 'wrackline.mjs');
+    const site = path.join(work, 'dist');
+    // a parent shell that starts the server in the background and prints its pid
+    const parent = spawn('/bin/sh', ['-c', `"${process.execPath}" "${entry}" serve --dir "${site}" --port 0 & echo $!; wait`], { stdio: ['ignore', 'pipe', 'ignore'] });
+    const pid = await new Promise<number>((resolve) => parent.stdout.once('data', (chunk: Buffer) => resolve(Number.parseInt(chunk.toString(), 10))));
+    const alive = (): boolean => {
+      try {
+        process.kill(pid, 0);
+        return true;
+      } catch {
+        return false;
+      }
+    };
+    // wait until it serves (it prints its address), then kill the parent outright
+    await new Promise((resolve) => setTimeout(resolve, 3000));
+    expect(alive()).toBe(true);
+    parent.kill('SIGKILL');
+    const deadline = Date.now() + 15_000;
+    while (alive() && Date.now() < deadline) await new Promise((resolve) => setTimeout(resolve, 200));
+    const stillAlive = alive();
+    if (stillAlive) process.kill(pid, 'SIGTERM');
+    expect(stillAlive).toBe(false);
+  });
+});
