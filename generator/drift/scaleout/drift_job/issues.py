@@ -38,6 +38,9 @@ def js_number(x):
     if x == int(x) and abs(x) < 1e21:
         return str(int(x))
     text = repr(x)
+    if "e" in text and -7 < int(text.split("e")[1]) < 21:
+        import numpy as np
+        return np.format_float_positional(x, unique=True, trim="-")
     if "e" in text:
         mantissa, exponent = text.split("e")
         sign = "-" if exponent.startswith("-") else "+"

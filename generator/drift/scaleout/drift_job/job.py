@@ -16,7 +16,7 @@ import shutil
 import sys
 import time
 
-from .issues import JobError
+from .issues import JobError, js_number
 from .scenario import read_scenario
 from .seasons import SeasonCalendar
 from .segment_match import SegmentMatcher
@@ -106,7 +106,7 @@ def write_outputs(scenario, out_dir, arrivals, ends, issues):
     with open(os.path.join(out_dir, "drift", "drift-end-positions.csv"), "w", newline="", encoding="utf-8") as handle:
         handle.write("season,lon,lat\n")
         for season, lon, lat in ends:
-            handle.write(f"{season},{lon!r},{lat!r}\n")
+            handle.write(f"{season},{js_number(lon)},{js_number(lat)}\n")
     with open(os.path.join(out_dir, "drift", "drift-job-issues.csv"), "w", newline="", encoding="utf-8") as handle:
         writer = csv.writer(handle)
         writer.writerow(["code", "severity", "file", "row", "column", "value", "expected", "message"])

@@ -116,10 +116,12 @@ class SegmentMatcher:
         point, edge, km = point[keep], edge[keep], km[keep]
         if point.size == 0:
             return best
+        # Candidates come grouped by position (in increasing order): the nearest per group, and
+        # among exactly as near ones the segment listed first.
         segment = self.edge_segment[edge]
-        order = np.lexsort((segment, km, point))
-        point, segment = point[order], segment[order]
-        first = np.ones(point.size, dtype=bool)
-        first[1:] = point[1:] != point[:-1]
-        best[point[first]] = segment[first]
+        starts = np.nonzero(np.concatenate(([True], point[1:] != point[:-1])))[0]
+        nearest_km = np.minimum.reduceat(km, starts)
+        group_km = np.repeat(nearest_km, np.diff(np.append(starts, point.size)))
+        chosen = np.minimum.reduceat(np.where(km == group_km, segment, np.iinfo(np.int64).max), starts)
+        best[point[starts]] = chosen
         return best
