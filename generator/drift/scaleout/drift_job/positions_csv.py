@@ -168,7 +168,9 @@ class PositionsReader:
             return None
         names = [f"c{k}" for k in range(self.width)]
         c = self.columns
-        dtypes = {name: str for name in names}
+        # Text columns as categories: the C parser keeps each distinct text once (a time is shared
+        # by every particle of a time step), so only the distinct texts are checked here.
+        dtypes = {name: "category" for name in names}
         dtypes[names[c["lon"]]] = np.float64
         dtypes[names[c["lat"]]] = np.float64
         try:
@@ -183,19 +185,24 @@ class PositionsReader:
         lat = frame[names[c["lat"]]].to_numpy(dtype=np.float64)
         if not (np.all((lon >= -180) & (lon <= 180)) and np.all((lat >= -90) & (lat <= 90))):
             return None
-        particle_codes, particle_texts = pd.factorize(frame[names[c["particle"]]].to_numpy(dtype=object))
-        if any(not isinstance(t, str) or not WHOLE.match(t) for t in particle_texts):
+
+        def codes_and_texts(name):
+            column = frame[names[c[name]]]
+            return column.cat.codes.to_numpy(), list(column.cat.categories)
+
+        particle_codes, particle_texts = codes_and_texts("particle")
+        if (particle_codes < 0).any() or any(not isinstance(t, str) or not WHOLE.match(t) for t in particle_texts):
             return None
         particle = np.array([int(t) for t in particle_texts], dtype=np.int64)[particle_codes]
-        time_codes, time_texts = pd.factorize(frame[names[c["time"]]].to_numpy(dtype=object))
+        time_codes, time_texts = codes_and_texts("time")
         time_values = np.array([self._time(t) if isinstance(t, str) else math.nan for t in time_texts], dtype=np.float64)
-        if np.isnan(time_values).any():
+        if (time_codes < 0).any() or np.isnan(time_values).any():
             return None
         time_ms = time_values[time_codes]
         ashore = np.zeros(n, dtype=bool)
         if c["status"] >= 0:
-            status_codes, status_texts = pd.factorize(frame[names[c["status"]]].to_numpy(dtype=object))
-            if any(t not in ("drifting", "ashore", "") for t in status_texts):
+            status_codes, status_texts = codes_and_texts("status")
+            if (status_codes < 0).any() or any(t not in ("drifting", "ashore", "") for t in status_texts):
                 return None
             ashore = np.array([t == "ashore" for t in status_texts], dtype=bool)[status_codes]
         # Duplicates: a particle's time equal to that of its previous position in the file.
