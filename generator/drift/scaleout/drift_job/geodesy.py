@@ -6,10 +6,14 @@ Haversine formula: Sinnott 1984, "Virtues of the Haversine", Sky and Telescope 6
 Point-to-arc distance: cross-track distance to the great circle through the arc's ends when the
 foot of the perpendicular falls inside the arc, else the distance to the nearer end (spherical
 trigonometry on unit vectors; common practice).
+Sines, cosines and arcsines come from portable_math (the steps of portable-math.ts), not from
+numpy, whose last bits differ from Node's.
 """
 import math
 
 import numpy as np
+
+from .portable_math import asin, cos, sin
 
 EARTH_RADIUS_KM = 6371.0088
 TO_RADIANS = math.pi / 180
@@ -22,15 +26,17 @@ def haversine_km(lon1, lat1, lon2, lat2):
     phi2 = lat2 * TO_RADIANS
     d_phi = phi2 - phi1
     d_lambda = (lon2 - lon1) * TO_RADIANS
-    a = np.sin(d_phi / 2) ** 2 + np.cos(phi1) * np.cos(phi2) * np.sin(d_lambda / 2) ** 2
-    return 2 * EARTH_RADIUS_KM * np.arcsin(np.minimum(1, np.sqrt(a)))
+    sin_half_phi = sin(d_phi / 2)
+    sin_half_lambda = sin(d_lambda / 2)
+    a = sin_half_phi * sin_half_phi + cos(phi1) * cos(phi2) * (sin_half_lambda * sin_half_lambda)
+    return 2 * EARTH_RADIUS_KM * asin(np.minimum(1, np.sqrt(a)))
 
 
 def _to_vector(lon, lat):
     lam = lon * TO_RADIANS
     phi = lat * TO_RADIANS
-    cos_phi = np.cos(phi)
-    return cos_phi * np.cos(lam), cos_phi * np.sin(lam), np.sin(phi)
+    cos_phi = cos(phi)
+    return cos_phi * cos(lam), cos_phi * sin(lam), sin(phi)
 
 
 def hypot3(x, y, z):
@@ -76,5 +82,5 @@ def point_to_arc_km(p_lon, p_lat, a_lon, a_lat, b_lon, b_lat):
     fby = fz * bx - fx * bz
     fbz = fx * by - fy * bx
     inside = (afx * nx + afy * ny + afz * nz >= 0) & (fbx * nx + fby * ny + fbz * nz >= 0)
-    cross = np.abs(np.arcsin(np.maximum(-1, np.minimum(1, sin_cross)))) * EARTH_RADIUS_KM
+    cross = np.abs(asin(np.maximum(-1, np.minimum(1, sin_cross)))) * EARTH_RADIUS_KM
     return np.where(degenerate | ~inside, to_ends, cross)
