@@ -15,6 +15,8 @@ import { tmpdir } from 'node:os';
 import { join, relative } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
+import { haversineKm, pointToArcKm } from '../../generator/drift/geodesy.ts';
+import { createSeededRandom } from '../../generator/random/seeded-random.ts';
 import { builtinTally, type BuiltinTally } from './builtin-tally.ts';
 import { decisionPoints, writeBadScenario, writeCsvScenario, writeNetcdfScenario } from './drift-job-fixtures.ts';
 
@@ -118,6 +120,31 @@ describe.skipIf(missing.length > 0 && !underCi)('drift job on a 2-worker LocalCl
   }, 900_000);
 
   afterAll(() => rmSync(work, { recursive: true, force: true }));
+
+  test('distances from Python are bit for bit those of the built-in reader', () => {
+    // 20,000 random points and short arcs anywhere on the globe: the job's vectorised geodesy
+    // (portable_math.py) against geodesy.ts (portable-math.ts), compared as exact doubles.
+    const random = createSeededRandom(42);
+    const cases = Array.from({ length: 20_000 }, () => {
+      const p = [random.uniform() * 360 - 180, random.uniform() * 180 - 90];
+      const a = [(p[0] ?? 0) + (random.uniform() - 0.5) * 0.1, (p[1] ?? 0) + (random.uniform() - 0.5) * 0.1];
+      const b = [(a[0] ?? 0) + (random.uniform() - 0.5) * 0.01, (a[1] ?? 0) + (random.uniform() - 0.5) * 0.01];
+      return [...p, ...a, ...b] as [number, number, number, number, number, number];
+    });
+    const script = `
+import json, sys
+sys.path.insert(0, ${JSON.stringify(jobFolder)})
+import numpy as np
+from drift_job.geodesy import haversine_km, point_to_arc_km
+d = np.array(json.load(sys.stdin), dtype=np.float64)
+print(json.dumps({"arc": point_to_arc_km(*d.T).tolist(), "hav": haversine_km(d[:, 0], d[:, 1], d[:, 2], d[:, 3]).tolist()}))
+`;
+    const child = spawnSync(python, ['-c', script], { input: JSON.stringify(cases), encoding: 'utf8', maxBuffer: 1 << 26 });
+    expect(child.status, child.stderr).toBe(0);
+    const fromPython = JSON.parse(child.stdout) as { arc: number[]; hav: number[] };
+    const differ = cases.filter((c, i) => pointToArcKm(...c) !== fromPython.arc[i] || haversineKm(c[0], c[1], c[2], c[3]) !== fromPython.hav[i]);
+    expect(differ).toEqual([]);
+  });
 
   test('the cluster had 2 worker processes of their own', () => {
     expect(result.workers).toBe(2);
