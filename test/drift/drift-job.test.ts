@@ -6,7 +6,7 @@
 // positions to 1e-9 degrees, and the problems reported in the same words. Then a build from the
 // job's output must give the same bulletins, byte for byte, as the all-in-one build of the demo.
 //
-// Needs Debian's python3-distributed, python3-dask, python3-xarray, python3-netcdf4,
+// Needs Debian's python3-distributed, python3-dask, python3-netcdf4,
 // python3-shapely and python3-pandas under /usr/bin/python3 (.ci/run installs them). Without
 // them the suite is skipped on a workstation and fails under CI.
 import { spawnSync } from 'node:child_process';
@@ -24,7 +24,7 @@ const root = fileURLToPath(new URL('../..', import.meta.url));
 const python = '/usr/bin/python3';
 const jobFolder = join(root, 'generator/drift/scaleout');
 const demo = join(root, 'content/demo');
-const modules = ['numpy', 'pandas', 'dask', 'distributed', 'xarray', 'netCDF4', 'shapely'];
+const modules = ['numpy', 'pandas', 'dask', 'distributed', 'netCDF4', 'shapely'];
 
 function missingModules(): string[] {
   const probe = spawnSync(python, ['-c', `import importlib.util, sys\nprint(' '.join(m for m in ${JSON.stringify(modules)} if importlib.util.find_spec(m) is None))`], { encoding: 'utf8' });
@@ -35,7 +35,7 @@ function missingModules(): string[] {
 const missing = missingModules();
 const underCi = Boolean(process.env['CI']) && process.env['CI'] !== 'false';
 if (missing.length > 0 && !underCi) {
-  console.warn(`drift job tests skipped: ${missing.join(', ')} missing for ${python} (apt-get install python3-distributed python3-dask python3-xarray python3-netcdf4 python3-shapely python3-pandas)`);
+  console.warn(`drift job tests skipped: ${missing.join(', ')} missing for ${python} (apt-get install python3-distributed python3-dask python3-netcdf4 python3-shapely python3-pandas)`);
 }
 
 interface JobIssue { code: string; severity: string; file: string; row: number | null; message: string }
