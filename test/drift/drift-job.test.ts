@@ -42,7 +42,7 @@ interface JobIssue { code: string; severity: string; file: string; row: number |
 interface JobRun { issues?: JobIssue[]; error?: string }
 
 /** Runs the job on several scenarios through one LocalCluster of 2 worker processes. */
-function runJobs(pairs: [string, string][]): { workers: number; workerPids: number[]; clientPid: number; runs: JobRun[] } {
+function runJobs(pairs: [string, string][]): { workers: number; workerPids: number[]; clientPid: number; listening: string[]; runs: JobRun[] } {
   const script = `
 import json, os, sys
 sys.path.insert(0, ${JSON.stringify(jobFolder)})
@@ -52,6 +52,9 @@ client, cluster = start_client(None, 2, 1)
 try:
     workers = client.scheduler_info()["workers"]
     pids = sorted(client.run(os.getpid).values())
+    import psutil
+    listening = sorted({c.laddr.ip for p in [psutil.Process()] + psutil.Process().children(recursive=True)
+                        for c in p.connections(kind="inet") if c.status == psutil.CONN_LISTEN})
     runs = []
     for scenario, out in ${JSON.stringify(pairs)}:
         try:
@@ -62,7 +65,7 @@ try:
 finally:
     client.close()
     cluster.close()
-print(json.dumps({"workers": len(workers), "workerPids": pids, "clientPid": os.getpid(), "runs": runs}))
+print(json.dumps({"workers": len(workers), "workerPids": pids, "clientPid": os.getpid(), "listening": listening, "runs": runs}))
 `;
   const child = spawnSync(python, ['-c', script], { encoding: 'utf8', maxBuffer: 1 << 26, cwd: root });
   if (child.status !== 0) throw new Error(`drift job failed (${child.status}): ${child.stderr}`);
@@ -150,6 +153,8 @@ print(json.dumps({"arc": point_to_arc_km(*d.T).tolist(), "hav": haversine_km(d[:
     expect(result.workers).toBe(2);
     expect(new Set(result.workerPids).size).toBe(2);
     expect(result.workerPids).not.toContain(result.clientPid);
+    // Servers in tests listen on 127.0.0.1 only (scheduler, workers, nannies, status pages).
+    expect(result.listening).toEqual(['127.0.0.1']);
   });
 
   test("the demo's drift files: the same arrivals and end-of-season positions", () => {

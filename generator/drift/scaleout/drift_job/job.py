@@ -68,8 +68,10 @@ def start_client(scheduler, workers, threads):
         archive = shutil.make_archive(os.path.join(folder, "drift_job"), "zip", os.path.dirname(_package_folder()), "drift_job")
         client.upload_file(archive)
         return client, None
+    # Every server of the local cluster (scheduler, its dashboard, workers, their status pages,
+    # nannies) listens on 127.0.0.1 only, on ports the system picks.
     cluster = LocalCluster(n_workers=workers, threads_per_worker=threads, processes=True, host="127.0.0.1",
-                           dashboard_address=None, scheduler_port=0, silence_logs=40)
+                           dashboard_address="127.0.0.1:0", worker_dashboard_address="127.0.0.1:0", scheduler_port=0, silence_logs=40)
     return Client(cluster), cluster
 
 
