@@ -6,8 +6,10 @@
  * 1. `drift-positions` CSV (plain or gzip), streamed;
  * 2. `drift-trajectories` CF NetCDF (NetCDF-3 or NetCDF-4), used when no positions CSV is listed,
  *    since both usually hold the same model run;
- * 3. `drift-arrivals`, a table aggregated upstream: arrivals only, no zones; used when neither of
- *    the above is listed.
+ * 3. `drift-arrivals`, a table aggregated upstream (for instance by the drift job in
+ *    generator/drift/scaleout/); used when neither of the above is listed. With it, a
+ *    `drift-end-positions` table (the last position in each season of every particle still
+ *    drifting) gives the accumulation zones; without one there are no zones.
  * Arrivals per km = arrivals / segment length (km). Each segment's nearest zone is the zone of the
  * same season whose centroid is closest to the segment line.
  */
@@ -19,6 +21,8 @@ import type { IssueLog } from '../read/issue-log.ts';
 import type { ResourceEntry } from '../read/package-descriptor.ts';
 import { accumulationZones } from './accumulation-zones.ts';
 import { readArrivalsTable } from './arrivals-table.ts';
+import { readEndPositionsTable } from './end-positions-table.ts';
+import { SegmentIndex } from './segment-index.ts';
 import { DriftTally } from './drift-tally.ts';
 import { readTrajectoryFile } from './trajectory-file.ts';
 import { readPositionsCsv } from './positions-csv.ts';
@@ -36,6 +40,16 @@ export interface DriftInput {
 
 type DriftResult = NonNullable<LoadedScenario['drift']>;
 
+/** Each segment's nearest zone of the season: the zone whose centroid is closest to the segment line. */
+function nearestZone(index: SegmentIndex, segment: number, zones: readonly AccumulationZone[]): { id: string; distanceKm: number } | null {
+  let nearest: { id: string; distanceKm: number } | null = null;
+  for (const zone of zones) {
+    const km = index.distanceToSegmentKm(zone.lon, zone.lat, segment);
+    if (!nearest || km < nearest.distanceKm) nearest = { id: zone.id, distanceKm: km };
+  }
+  return nearest;
+}
+
 /** Arrivals and zones from a filled tally. */
 export function summariseTally(tally: DriftTally, segments: readonly Segment[], settings: ScenarioSettings): DriftResult {
   const arrivals: DriftArrivals[] = [];
@@ -46,25 +60,22 @@ export function summariseTally(tally: DriftTally, segments: readonly Segment[], 
     zones.push({ season, zones: seasonZones });
     const counts = tally.arrivalsOf(season);
     segments.forEach((segment, s) => {
-      let nearest: { id: string; distanceKm: number } | null = null;
-      for (const zone of seasonZones) {
-        const km = tally.index.distanceToSegmentKm(zone.lon, zone.lat, s);
-        if (!nearest || km < nearest.distanceKm) nearest = { id: zone.id, distanceKm: km };
-      }
       const count = counts?.[s] ?? 0;
-      arrivals.push({ segmentId: segment.id, season, arrivals: count, arrivalsPerKm: segment.lengthKm > 0 ? count / segment.lengthKm : 0, nearestZone: nearest });
+      arrivals.push({ segmentId: segment.id, season, arrivals: count, arrivalsPerKm: segment.lengthKm > 0 ? count / segment.lengthKm : 0, nearestZone: nearestZone(tally.index, s, seasonZones) });
     });
   }
   return { arrivals, zones };
 }
 
-export async function readDrift(input: DriftInput): Promise<DriftResult | null> {
+/**
+ * Streams the drift positions through one tally: the positions CSV files, or the trajectory files
+ * when no CSV is listed (trajectory files are always read and checked). Null when neither is listed.
+ */
+export async function tallyDriftFiles(input: DriftInput): Promise<DriftTally | null> {
   const { log, segments, settings } = input;
   const positions = input.resources.filter((r) => r.resource.role === 'drift-positions');
   const trajectories = input.resources.filter((r) => r.resource.role === 'drift-trajectories');
-  const tables = input.resources.filter((r) => r.resource.role === 'drift-arrivals');
-  if (positions.length + trajectories.length + tables.length === 0) return null;
-
+  if (positions.length + trajectories.length === 0) return null;
   const mainTally = new DriftTally(segments, settings.seasons, settings.drift.arrivalDistanceKm);
   const period = new DriftPeriodGuard(settings, segments);
   const useTrajectories = positions.length === 0;
@@ -109,14 +120,23 @@ export async function readDrift(input: DriftInput): Promise<DriftResult | null> 
       log.countsFor(resource.path);
     }
   }
-  if (positions.length > 0 || trajectories.length > 0) {
+  return mainTally;
+}
+
+export async function readDrift(input: DriftInput): Promise<DriftResult | null> {
+  const { log, segments, settings } = input;
+  const tables = input.resources.filter((r) => r.resource.role === 'drift-arrivals');
+  const endTables = input.resources.filter((r) => r.resource.role === 'drift-end-positions');
+  const mainTally = await tallyDriftFiles(input);
+  if (mainTally === null && tables.length === 0) return null;
+  if (mainTally !== null) {
     input.onProgress?.('drift zones', 0);
     const result = summariseTally(mainTally, segments, settings);
-    if (positions.length + trajectories.length > 0 && tables.length === 0) return result;
     // Both raw positions and an aggregated table: the table is checked but the positions are used.
     for (const { resource, absolutePath } of tables) {
       await readArrivalsTable(resource, absolutePath, settings.seasons, new Set(segments.map((s) => s.id)), input.segmentsFile, log);
     }
+    for (const { resource, absolutePath } of endTables) await readEndPositionsTable(resource, absolutePath, settings.seasons, log);
     return result;
   }
   const lengths = new Map(segments.map((s) => [s.id, s.lengthKm]));
@@ -129,5 +149,25 @@ export async function readDrift(input: DriftInput): Promise<DriftResult | null> 
     }
   }
   const seasons = [...new Set(arrivals.map((a) => a.season))].sort((a, b) => (seasonRange(a, settings.seasons)?.start ?? a).localeCompare(seasonRange(b, settings.seasons)?.start ?? b));
-  return { arrivals, zones: seasons.map((season) => ({ season, zones: [] })) };
+  if (endTables.length === 0) return { arrivals, zones: seasons.map((season) => ({ season, zones: [] })) };
+  // End-of-season positions aggregated upstream: zones and each segment's nearest zone as above.
+  const ends = new Map<string, { lon: number[]; lat: number[] }>();
+  for (const { resource, absolutePath } of endTables) {
+    for (const [season, positions] of await readEndPositionsTable(resource, absolutePath, settings.seasons, log)) {
+      const all = ends.get(season);
+      if (all) {
+        all.lon.push(...positions.lon);
+        all.lat.push(...positions.lat);
+      } else ends.set(season, positions);
+    }
+  }
+  const index = new SegmentIndex(segments);
+  const position = new Map(segments.map((segment, s) => [segment.id, s]));
+  const zones = seasons.map((season) => {
+    const end = ends.get(season);
+    return { season, zones: end ? accumulationZones(Float64Array.from(end.lon), Float64Array.from(end.lat), settings.drift.zoneDistanceKm, settings.drift.zoneMinParticles) : [] };
+  });
+  const zonesOf = new Map(zones.map((z) => [z.season, z.zones]));
+  for (const arrival of arrivals) arrival.nearestZone = nearestZone(index, position.get(arrival.segmentId) ?? -1, zonesOf.get(arrival.season) ?? []);
+  return { arrivals, zones };
 }

@@ -10,7 +10,10 @@
  * - Point-to-arc distance: cross-track distance to the great circle through the segment's ends,
  *   used when the foot of the perpendicular falls inside the arc, else the distance to the nearer
  *   end (spherical trigonometry on unit vectors; common practice).
+ * Sines, cosines and arcsines come from portable-math.ts, so that the drift job in Python
+ * (generator/drift/scaleout/) computes the same bits and takes the same decisions.
  */
+import { portableAsin, portableCos, portableSin } from './portable-math.ts';
 
 export const earthRadiusKm = 6371.0088;
 
@@ -22,16 +25,18 @@ export function haversineKm(lon1: number, lat1: number, lon2: number, lat2: numb
   const phi2 = lat2 * toRadians;
   const dPhi = phi2 - phi1;
   const dLambda = (lon2 - lon1) * toRadians;
-  const a = Math.sin(dPhi / 2) ** 2 + Math.cos(phi1) * Math.cos(phi2) * Math.sin(dLambda / 2) ** 2;
-  return 2 * earthRadiusKm * Math.asin(Math.min(1, Math.sqrt(a)));
+  const sinHalfPhi = portableSin(dPhi / 2);
+  const sinHalfLambda = portableSin(dLambda / 2);
+  const a = sinHalfPhi * sinHalfPhi + portableCos(phi1) * portableCos(phi2) * (sinHalfLambda * sinHalfLambda);
+  return 2 * earthRadiusKm * portableAsin(Math.min(1, Math.sqrt(a)));
 }
 
 /** Unit vector of a lon/lat point. */
 function toVector(lon: number, lat: number): [number, number, number] {
   const lambda = lon * toRadians;
   const phi = lat * toRadians;
-  const cosPhi = Math.cos(phi);
-  return [cosPhi * Math.cos(lambda), cosPhi * Math.sin(lambda), Math.sin(phi)];
+  const cosPhi = portableCos(phi);
+  return [cosPhi * portableCos(lambda), cosPhi * portableSin(lambda), portableSin(phi)];
 }
 
 /**
@@ -65,7 +70,7 @@ export function pointToArcKm(pLon: number, pLat: number, aLon: number, aLat: num
   const fbz = fx * b[1] - fy * b[0];
   const inside = afx * nx + afy * ny + afz * nz >= 0 && fbx * nx + fby * ny + fbz * nz >= 0;
   if (!inside) return toEnds;
-  return Math.abs(Math.asin(Math.max(-1, Math.min(1, sinCross)))) * earthRadiusKm;
+  return Math.abs(portableAsin(Math.max(-1, Math.min(1, sinCross)))) * earthRadiusKm;
 }
 
 /** Degrees of latitude and of longitude (at a latitude) spanned by a distance in km. */

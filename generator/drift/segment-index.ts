@@ -3,7 +3,8 @@
  * straight piece (edge) of every segment line goes into a Flatbush packed R-tree (Agafonkin,
  * flatbush; Hilbert-sorted static R-tree); a query looks up the edges whose boxes overlap a box
  * around the point widened by the search distance, then measures the great-circle distance to
- * each candidate edge.
+ * each candidate edge. The nearest edge within the distance wins; between segments exactly as near,
+ * the one listed first in the segments file.
  */
 import Flatbush from 'flatbush';
 import type { Segment } from '../scenario/types.ts';
@@ -156,9 +157,12 @@ export class SegmentIndex {
     const planarKm = Math.sqrt(px * px + py * py);
     if (planarKm > this.queryMaxKm * 1.05 + 0.05 || planarKm > this.bestKm * 1.05 + 0.05) return false;
     const km = pointToArcKm(lon, lat, x1, y1, x2, y2);
-    if (km <= this.queryMaxKm && km < this.bestKm) {
+    const segment = this.edgeSegment[e] ?? -1;
+    // Two segments exactly as near (a vertex they share): the one listed first, whatever order
+    // the R-tree visits them in, so that every reader of the same files decides alike.
+    if (km <= this.queryMaxKm && (km < this.bestKm || (km === this.bestKm && segment < this.bestSegment))) {
       this.bestKm = km;
-      this.bestSegment = this.edgeSegment[e] ?? -1;
+      this.bestSegment = segment;
     }
     return false;
   };

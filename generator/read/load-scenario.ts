@@ -192,7 +192,7 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
   records.sort(compareRecords);
 
   const driftResources = present
-    .filter((r) => r.role === 'drift-positions' || r.role === 'drift-trajectories' || r.role === 'drift-arrivals')
+    .filter((r) => r.role === 'drift-positions' || r.role === 'drift-trajectories' || r.role === 'drift-arrivals' || r.role === 'drift-end-positions')
     .map((resource) => ({ resource, absolutePath: join(root, resource.path) }));
   const memoKey = options.driftMemo && driftResources.length > 0 ? driftMemoKey(driftResources.map((r) => r.resource), inputs, segments, settings) : null;
   const remembered = memoKey === null ? null : await options.driftMemo?.get(memoKey);
