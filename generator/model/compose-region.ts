@@ -10,7 +10,8 @@ import { getIndicator } from '../indicators/index.ts';
 import { levelScale } from '../risk/levels.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
 import type { RegionalResult, SeasonEvaluation } from './evaluate-season.ts';
-import type { Direction, IndicatorId, LevelResult, RegionalTrend, RegionSummary } from './types.ts';
+import type { AreaSummary, Direction, IndicatorId, LevelResult, RegionalTrend, RegionSummary } from './types.ts';
+import { scenarioAreas, type AreaPlan } from './areas.ts';
 
 export function regionalTrendSentence(subject: string, unit: string, result: RegionalResult | null, segments: number, falseDiscoveryRate: number): string {
   const lower = lowerFirst(subject);
@@ -30,6 +31,7 @@ export interface RegionInputs {
   segments: ReadonlyMap<string, { level: LevelResult; indicators: readonly { indicator: IndicatorId; direction: Direction }[] }>;
   regional: SeasonEvaluation['regional'];
   zones: SeasonEvaluation['zones'];
+  areaRegional?: SeasonEvaluation['areaRegional'];
 }
 
 export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previous: RegionInputs | null, published: string): RegionSummary {
@@ -51,7 +53,7 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
       geometry: segment.geometry,
     };
   });
-  const regionalTrends: RegionalTrend[] = now.regional.map(({ indicator, result, segments: count }) => {
+  const trendOf = ({ indicator, result, segments: count }: RegionInputs['regional'][number]): RegionalTrend => {
     const definition = getIndicator(indicator);
     return {
       indicator,
@@ -63,7 +65,8 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
       unitShort: definition.unitShort,
       sentence: regionalTrendSentence(indicatorSubjects[indicator], definition.unit, result, count, settings.trend.falseDiscoveryRate),
     };
-  });
+  };
+  const regionalTrends: RegionalTrend[] = now.regional.map(trendOf);
   const counts = levelScale
     .slice()
     .reverse()
@@ -82,6 +85,7 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
     );
   }
   for (const trend of regionalTrends) summary.push(trend.sentence);
+  const plans = scenarioAreas(scenario.segments);
   const highest = Math.max(0, ...rows.map((r) => r.level.rank));
   const atHighest = rows.filter((r) => r.level.rank === highest).length;
   const highestLabel = levelScale.find((l) => l.rank === highest)?.label ?? 'Scant';
@@ -103,8 +107,31 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
       debris: debrisCautions(settings.authorities),
     },
     authorities: settings.authorities.map((a) => ({ ...a })),
+    ...(plans ? { areas: plans.map((plan) => composeArea(plan, rows, (now.areaRegional ?? []).filter((r) => r.area === plan.id).map(trendOf))) } : {}),
     headline: `${settings.region.name}, ${lowerFirst(now.season.label)}: the highest level is ${highestLabel} (level ${highest} of 4), at ${formatNumber(atHighest, 0)} of ${formatNumber(rows.length, 0)} places.`,
     summary,
   };
 }
 
+
+/** An area's line on the overview and the head of its page: highest level, counts, its own trends. */
+export function composeArea(plan: AreaPlan, rows: readonly { id: string; name: string; level: LevelResult }[], regionalTrends: RegionalTrend[]): AreaSummary {
+  const byId = new Map(rows.map((r) => [r.id, r] as const));
+  const members = plan.segmentIds.map((id) => byId.get(id)).filter((r): r is (typeof rows)[number] => r !== undefined);
+  // highest level first, then by name: the order of the area's map badges and of its lists
+  members.sort((a, b) => b.level.rank - a.level.rank || a.name.localeCompare(b.name, 'en') || (a.id < b.id ? -1 : 1));
+  const highest = members[0]?.level ?? null;
+  const top = levelScale.find((l) => l.rank === (highest?.rank ?? 1)) ?? levelScale[0]!;
+  const counts = levelScale.slice().reverse().map((l) => ({ level: l.id, rank: l.rank, label: l.label, n: members.filter((m) => m.level.id === l.id).length }));
+  const atTop = counts.find((c) => c.level === top.id)?.n ?? 0;
+  return {
+    id: plan.id,
+    number: plan.number,
+    name: plan.name,
+    segmentIds: members.map((m) => m.id),
+    level: { id: top.id, rank: top.rank, label: top.label },
+    counts,
+    headline: `${plan.name}: the highest level is ${top.label} (level ${top.rank} of 4), at ${formatNumber(atTop, 0)} of ${formatNumber(members.length, 0)} places.`,
+    regionalTrends,
+  };
+}

@@ -16,7 +16,7 @@ import type { IndicatorId } from '../model/types.ts';
 import type { IssueLog } from './issue-log.ts';
 import { formatZodPath } from './zod-issues.ts';
 
-export const resourceRoles = ['settings', 'segments', 'indicator', 'drift-positions', 'drift-trajectories', 'drift-arrivals'] as const;
+export const resourceRoles = ['settings', 'segments', 'land', 'indicator', 'drift-positions', 'drift-trajectories', 'drift-arrivals'] as const;
 export type ResourceRole = (typeof resourceRoles)[number];
 
 const fieldSchema = z

@@ -272,6 +272,7 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
     }
     const placeValue = properties['place'];
     const place = typeof placeValue === 'string' && placeValue.trim() !== '' ? placeValue : null;
+    const areaValue = properties['area']; // optional: the segment's area on a national coast (generator/model/areas.ts)
     for (const [column, text] of [['name', name], ['place', place]] as const) {
       if (typeof text === 'string' && containsMarkup(text)) {
         log.add(MarkupInText, MarkupInText.message(file, row, column, text), { file, row, column, value: text, expected: 'plain text', severity: 'warning', excluded: false });
@@ -334,6 +335,7 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
       kind: kind as SegmentKind,
       shellfish: shellfish as ShellfishUse,
       place,
+      ...(typeof areaValue === 'string' && areaValue.trim() !== '' ? { area: areaValue.trim() } : {}),
       lengthKm,
       geometry: shape,
       bbox: [west, south, east, north],
