@@ -16,5 +16,5 @@ export function seaNote(hasLand: boolean, hasDrift: boolean): string {
 
 export function siteMap(scenario: Pick<LoadedScenario, 'segments' | 'land' | 'drift'>): SiteMapModel {
   const land = scenario.land?.geometry ?? null;
-  return { land, places: mapPlaces(scenario.segments), seaNote: seaNote(land !== null, scenario.drift !== null) };
+  return { land, landCoarse: scenario.land?.coarse ?? null, places: mapPlaces(scenario.segments), seaNote: seaNote(land !== null, scenario.drift !== null) };
 }

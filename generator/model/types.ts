@@ -221,6 +221,8 @@ export interface AreaSummary {
 export interface SiteMapModel {
   /** land polygons (resource role "land"), simplified for drawing; null when not given */
   land: GeoJSON.MultiPolygon | null;
+  /** the same land simplified further, for the small inset of locator maps */
+  landCoarse: GeoJSON.MultiPolygon | null;
   /** place names printed on the overview map, most important first */
   places: { name: string; lon: number; lat: number; segments: number }[];
   /** what the caption says about land and sea */

@@ -20,15 +20,18 @@ import { LandShapeInvalid, LandUnreadable } from '../errors.ts';
 import type { IssueLog } from './issue-log.ts';
 import { toFeatures } from './read-segments.ts';
 
-/** Land as read and simplified: one MultiPolygon, with vertex counts before and after. */
+/** Land as read and simplified: one MultiPolygon, with vertex counts before and after; `coarse`
+ * is a second, smaller simplification for the small whole-coast inset of locator maps. */
 export interface LandShapes {
   geometry: MultiPolygon;
+  coarse: MultiPolygon;
   verticesRead: number;
   verticesKept: number;
 }
 
 /** Vertex budget of the drawn land (every map of every page draws it). */
-export const landVertexBudget = 6000;
+export const landVertexBudget = 4000;
+export const coarseLandVertexBudget = 400;
 
 function isRecord(value: unknown): value is { [key: string]: unknown } {
   return value !== null && typeof value === 'object' && !Array.isArray(value);
@@ -130,5 +133,6 @@ export async function readLand(absolutePath: string, file: string, log: IssueLog
   });
   if (polygons.length === 0) return null;
   const geometry = simplifyLand(polygons, budget);
-  return { geometry, verticesRead: countVertices(polygons), verticesKept: countVertices(geometry.coordinates) };
+  const coarse = simplifyLand(polygons, Math.min(coarseLandVertexBudget, budget));
+  return { geometry, coarse, verticesRead: countVertices(polygons), verticesKept: countVertices(geometry.coordinates) };
 }

@@ -21,7 +21,7 @@ import { extentOf, projectionFor, scaleBar } from './projection.ts';
 
 /** Map colours: a quiet land fill and a pale sea; every level stroke keeps WCAG 2.1 non-text
  * contrast (SC 1.4.11, 3:1) against both (checked in test/maps/map-colours.test.ts). */
-export const mapColours = { sea: '#e3eef3', land: '#fbfaf6', coast: '#8a9ba5', plain: '#f1f0eb' } as const;
+export const mapColours = { sea: '#d7e7ef', land: '#efeadb', coast: '#8a9ba5', plain: '#f1f0eb' } as const;
 
 export interface MapSegment {
   id: string;
@@ -54,6 +54,8 @@ export interface MapOptions {
   linkOf?: (segmentId: string) => string;
   /** land polygons (prepareLand), drawn under the segments */
   land?: PreparedLand | null;
+  /** coarser land for the locator's whole-coast inset (page size) */
+  insetLand?: PreparedLand | null;
   /** place names to print (overview), in the order of priority */
   places?: readonly { name: string; lon: number; lat: number }[];
   /**
@@ -204,6 +206,11 @@ function renderInset(all: Feature<Geometry, Props>[], land: PreparedLand | null,
 /** Longitude difference b − a in −180…180 (regions across the 180° meridian). */
 function lonDelta(a: number, b: number): number {
   return ((((b - a) % 360) + 540) % 360) - 180;
+}
+
+/** Order of badges on a map and of places in the map's text: highest level first, then by name. */
+export function byLevelThenName(a: { level: LevelId; name: string; id: string }, b: { level: LevelId; name: string; id: string }): number {
+  return levelStyles[b.level].rank - levelStyles[a.level].rank || a.name.localeCompare(b.name, 'en') || (a.id < b.id ? -1 : a.id > b.id ? 1 : 0);
 }
 
 export function renderMap(options: MapOptions): string {
@@ -370,7 +377,7 @@ export function renderMapWithLayout(options: MapOptions): { svg: string; layout:
       drawers.set(key, (label) => `<a href="${escapeXml(area.href)}" tabindex="-1" aria-label="${escapeXml(name)}">${badgeSvg(label, area.level, area.number)}</a>`);
     }
   } else if (badges) {
-    for (const f of [...ordered].reverse()) {
+    for (const f of [...ordered].sort((a, b) => byLevelThenName(a.properties, b.properties))) {
       const lines = linesOf(f);
       const c = path.centroid(f) as Point;
       const anchor = nearestVertex(lines, c) ?? c;
@@ -402,7 +409,7 @@ export function renderMapWithLayout(options: MapOptions): { svg: string; layout:
   for (const label of placed) parts.push(drawers.get(label.id)!(label));
 
   parts.push(scaleSvg);
-  if (withInset && highlight && windowFrame) parts.push(renderInset(allFeatures, land, highlight, windowFrame, width));
+  if (withInset && highlight && windowFrame) parts.push(renderInset(allFeatures, options.insetLand ?? null, highlight, windowFrame, width));
   parts.push('</svg>');
   return { svg: parts.join(''), layout: { width, height, labels: placed, left } };
 }

@@ -15,7 +15,7 @@
  * The scale bar is measured on the projection itself (projection.invert and the great-circle
  * distance), so it is right for whichever projection is chosen.
  */
-import { geoBounds, geoConicEqualArea, geoDistance, geoMercator, geoTransverseMercator } from 'd3-geo';
+import { geoBounds, geoConicEqualArea, geoStream, geoDistance, geoMercator, geoTransverseMercator } from 'd3-geo';
 import type { GeoPermissibleObjects, GeoProjection } from 'd3-geo';
 
 export type ProjectionKind = 'mercator' | 'transverse-mercator' | 'conic-equal-area';
@@ -35,13 +35,38 @@ export interface Extent {
 /** Regions up to this size (km, the longer side) are drawn in Mercator. */
 export const smallSpanKm = 600;
 
+/**
+ * The extent of a drawing: latitudes from d3-geo geoBounds; longitudes as the shortest arc that
+ * holds every vertex (the complement of the widest empty gap between sorted longitudes), which
+ * stays right for data cut at ±180° (Natural Earth splits Fiji there, and geoBounds then spans
+ * the whole globe).
+ */
 export function extentOf(object: GeoPermissibleObjects): Extent {
-  const [[west, south], [east, north]] = geoBounds(object);
-  // geoBounds gives west > east for a region crossing the 180° meridian
+  const [[, south], [, north]] = geoBounds(object);
+  const lons: number[] = [];
+  const sink = { point: (x: number) => { lons.push(((x + 540) % 360) - 180); }, lineStart: () => {}, lineEnd: () => {}, polygonStart: () => {}, polygonEnd: () => {}, sphere: () => { lons.push(-180, 0, 180); } };
+  geoStream(object, sink);
+  let west = -180;
+  let east = 180;
+  if (lons.length > 0) {
+    lons.sort((a, b) => a - b);
+    // widest gap, the one across ±180° included
+    let gap = lons[0]! + 360 - lons[lons.length - 1]!;
+    west = lons[0]!;
+    east = lons[lons.length - 1]!;
+    for (let i = 1; i < lons.length; i++) {
+      const g = lons[i]! - lons[i - 1]!;
+      if (g > gap) {
+        gap = g;
+        west = lons[i]!;
+        east = lons[i - 1]!;
+      }
+    }
+  }
   const spanLon = east >= west ? east - west : east + 360 - west;
   let centreLon = west + spanLon / 2;
   if (centreLon > 180) centreLon -= 360;
-  return { west, south, east, north, centreLon, centreLat: (south + north) / 2, spanLon, };
+  return { west, south, east, north, centreLon, centreLat: (south + north) / 2, spanLon };
 }
 
 const earthRadiusKm = 6371.0088;
