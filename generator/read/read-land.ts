@@ -87,7 +87,8 @@ export function simplifyLand(polygons: readonly Position[][][], budget = landVer
   const total = countVertices(polygons);
   if (total > budget) {
     topo = presimplify(topo, sphericalTriangleArea);
-    const minWeight = quantile(topo, 1 - budget / total);
+    // topojson-simplify sorts weights in descending order: the p-quantile keeps about a share p of the points
+    const minWeight = quantile(topo, budget / total);
     topo = simplify(topo, minWeight);
     topo = filter(topo, filterWeight(topo, minWeight, (ring) => sphericalRingArea(ring, false))) as Topology<Objects<{}>>;
   }
