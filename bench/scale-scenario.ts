@@ -84,7 +84,7 @@ function segmentsGeojson(count: number): string {
 }
 
 /** Invented land east of the shore, sampled every 500 m from 20 km north of the first segment to
- * 20 km south of the last (the reader simplifies it for drawing), closed 100 km inland. */
+ * 20 km south of the last (the reader simplifies it for drawing), closed 1,200 km inland. */
 function landGeojson(count: number): string {
   const shore: [number, number][] = [];
   for (let y = 20; y >= -(count * SEGMENT_KM + 20); y -= 0.5) {
@@ -92,7 +92,7 @@ function landGeojson(count: number): string {
     shore.push([round5(lon), round5(lat)]);
   }
   const inland = (y: number): [number, number] => {
-    const [lon, lat] = toLonLat(100, y);
+    const [lon, lat] = toLonLat(1200, y);
     return [round5(lon), round5(lat)];
   };
   // north to south along the shore with land to the east (left of the way): anticlockwise
