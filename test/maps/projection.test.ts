@@ -55,7 +55,7 @@ function checkScaleBar(svg: string, projection: ReturnType<typeof projectionFor>
 }
 
 describe('projection fitted to the place', () => {
-  it('Fiji, across the 180° meridian: one piece, centred near 180°, scale bar right', () => {
+  it('Fiji, across the 180° meridian: one piece, centred near 180°, scale bar right', async () => {
     const fiji = country('242');
     const extent = extentOf(fiji);
     expect(extent.west).toBeGreaterThan(extent.east); // crossing the antimeridian: west of it in the east
@@ -70,6 +70,7 @@ describe('projection fitted to the place', () => {
     projection.fitExtent([[16, 16], [560 - 16, layout.height - 16]], { type: 'FeatureCollection', features: prepareSegments(segments).features } as FeatureCollection);
     const km = checkScaleBar(svg, projection);
     expect(km).toBeLessThanOrEqual(200);
+    await expect(svg).toMatchFileSnapshot('../output/fiji-across-180-map.svg');
     // Suva (178.44 E, 18.14 S) to Labasa (179.39 E, 16.43 S), about 215 km apart (geoDistance)
     const suva = projection([178.44, -18.14])!;
     const labasa = projection([179.39, -16.43])!;
@@ -79,7 +80,7 @@ describe('projection fitted to the place', () => {
     expect(Math.abs(mapKm - trueKm) / trueKm).toBeLessThan(0.03);
   });
 
-  it('Norway, a long high-latitude coast: transverse Mercator; bar and long distances right', () => {
+  it('Norway, a long high-latitude coast: transverse Mercator; bar and long distances right', async () => {
     const norway = country('578');
     // mainland Norway only (Svalbard and Jan Mayen lie far off): polygons south of 72° N, east of 0°
     const polygons = (norway.geometry as MultiPolygon).coordinates.filter((p) => p[0]!.every(([lon, lat]) => lat! < 72 && lon! > 0));
@@ -93,6 +94,7 @@ describe('projection fitted to the place', () => {
     const { projection } = projectionFor(extentOf(frame));
     projection.fitExtent([[16, 16], [560 - 16, layout.height - 16]], frame);
     checkScaleBar(svg, projection);
+    await expect(svg).toMatchFileSnapshot('../output/norway-high-latitude-map.svg');
     // Lindesnes (7.05 E, 57.98 N) to Nordkapp (25.78 E, 71.17 N): about 1,700 km (geoDistance);
     // on the fitted map the bar's scale gives that distance within 3 %.
     const kmPerPx = geoDistance(projection.invert!([16, layout.height - 12])!, projection.invert!([116, layout.height - 12])!) * R / 100;
