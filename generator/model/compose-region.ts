@@ -132,6 +132,7 @@ export function composeArea(plan: AreaPlan, rows: readonly { id: string; name: s
     level: { id: top.id, rank: top.rank, label: top.label },
     counts,
     headline: `${plan.name}: the highest level is ${top.label} (level ${top.rank} of 4), at ${formatNumber(atTop, 0)} of ${formatNumber(members.length, 0)} places.`,
+    summary: [`Levels of the ${formatNumber(members.length, 0)} places in this area: ${counts.filter((c) => c.n > 0).map((c) => `${formatNumber(c.n, 0)} ${c.label}`).join(', ')}.`],
     regionalTrends,
   };
 }

@@ -213,6 +213,7 @@ export interface AreaSummary {
   level: Pick<LevelResult, 'id' | 'rank' | 'label'>;   // the highest level in the area
   counts: { level: LevelId; rank: number; label: string; n: number }[];   // every level, highest first
   headline: string;
+  summary: string[];
   /** Regional Kendall over the area's own segments, per indicator */
   regionalTrends: RegionalTrend[];
 }

@@ -77,3 +77,20 @@ describe('areas', () => {
     expect(places[0]!.lat).toBeCloseTo(-17.65, 6);
   });
 });
+
+describe('composeArea', () => {
+  it('orders places highest level first, then by name, and words the highest level and counts', async () => {
+    const { composeArea } = await import('../../generator/model/compose-region.ts');
+    const level = (id: 'scant' | 'marked', rank: 1 | 3, label: string) => ({ id, rank, label, hits: [] });
+    const area = composeArea({ id: 'area-x', number: 2, name: 'Ardle to Carrow', segmentIds: ['a', 'b', 'c'] }, [
+      { id: 'a', name: 'Carrow Sands', level: level('scant', 1, 'Scant') },
+      { id: 'b', name: 'Brisk Point', level: level('marked', 3, 'Marked') },
+      { id: 'c', name: 'Ardle Beach', level: level('scant', 1, 'Scant') },
+    ], []);
+    expect(area.segmentIds).toEqual(['b', 'c', 'a']);
+    expect(area.level).toEqual({ id: 'marked', rank: 3, label: 'Marked' });
+    expect(area.counts.map((c) => [c.level, c.n])).toEqual([['heavy', 0], ['marked', 1], ['noticeable', 0], ['scant', 2]]);
+    expect(area.headline).toBe('Ardle to Carrow: the highest level is Marked (level 3 of 4), at 1 of 3 places.');
+    expect(area.summary).toEqual(['Levels of the 3 places in this area: 1 Marked, 2 Scant.']);
+  });
+});
