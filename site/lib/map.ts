@@ -11,6 +11,8 @@
 import { geoArea, geoBounds, geoPath } from 'd3-geo';
 import type { GeoPermissibleObjects } from 'd3-geo';
 import { topology } from 'topojson-server';
+import { presimplify, simplify, sphericalTriangleArea } from 'topojson-simplify';
+import type { Objects, Topology } from 'topojson-specification';
 import { feature } from 'topojson-client';
 import type { Feature, FeatureCollection, Geometry, Polygon } from 'geojson';
 import type { AccumulationZone, LevelId } from '../../generator/model/types.ts';
@@ -134,6 +136,21 @@ function isArea(geometry: Geometry): boolean {
 }
 
 const badgeRadius = 8;
+
+/**
+ * Drops the points too small to see at the map's scale (topojson-simplify, Visvalingam–Whyatt
+ * effective area): a point whose triangle covers less than half a square pixel on the ground.
+ * Used for land and for the lines of a national overview, where a pixel spans kilometres.
+ */
+export function simplifiedForScale<F extends Feature<Geometry, P>, P = F['properties']>(features: readonly F[], kmPerPx: number): F[] {
+  if (!(kmPerPx > 0) || features.length === 0) return [...features];
+  const earthKm = 6371.0088;
+  const minWeight = 0.5 * (kmPerPx / earthKm) ** 2;
+  const collection = { type: 'FeatureCollection', features: [...features] } as FeatureCollection;
+  const topo = presimplify(topology({ f: collection }, 1e6) as unknown as Topology<Objects<{}>>, sphericalTriangleArea);
+  const back = feature(simplify(topo, minWeight), topo.objects['f']!) as unknown as FeatureCollection;
+  return back.features.map((f, i) => ({ ...features[i]!, geometry: isArea(f.geometry) ? rewindGeometry(f.geometry) : f.geometry }) as F);
+}
 
 /** A line's or ring's vertices in pixels (for placement); NaN-free points only. */
 function projectedLines(geometry: Geometry, project: (p: [number, number]) => [number, number] | null): Point[][] {
@@ -270,8 +287,12 @@ export function renderMapWithLayout(options: MapOptions): { svg: string; layout:
   const pat = `${options.idPrefix}-zone`;
   parts.push(`<defs><pattern id="${pat}" width="7" height="7" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><rect width="7" height="7" fill="#dfe8ec"/><path d="M0 0V7" stroke="#5d7482" stroke-width="1.4"/></pattern>${features.some((f) => isArea(f.geometry)) ? levelPatternDefs().replace(/wl-pat-/g, `${options.idPrefix}-pat-`) : ''}</defs>`);
   parts.push(`<rect class="sea" x="0" y="0" width="${width}" height="${height}" fill="${land ? mapColours.sea : mapColours.plain}"/>`);
+  // ground distance of one pixel at the middle of the map, for simplifying what is drawn
+  const middle = scaleBar(projection, [width / 2 - 50, height / 2]);
+  const kmPerPx = middle ? middle.km / middle.px : 0;
   if (land) {
-    const d = land.features.map((f) => geoPath(projection).digits(highlight ? 1 : 0)(f) ?? '').join('');
+    const drawn = highlight ? land.features : simplifiedForScale(land.features, kmPerPx);
+    const d = drawn.map((f) => geoPath(projection).digits(highlight ? 1 : 0)(f) ?? '').join('');
     if (d) parts.push(`<path class="land" d="${d}" fill="${mapColours.land}" stroke="${mapColours.coast}" stroke-width="0.8" stroke-linejoin="round"/>`);
   }
 
@@ -293,7 +314,7 @@ export function renderMapWithLayout(options: MapOptions): { svg: string; layout:
     // national coast: all segments as one plain path per level (page size), areas carry the badges
     const byLevel = new Map<LevelId, string[]>();
     const coarse = geoPath(projection).digits(0);
-    for (const f of ordered) {
+    for (const f of simplifiedForScale(ordered, kmPerPx)) {
       const d = coarse(f);
       if (!d) continue;
       const list = byLevel.get(f.properties.level) ?? [];
