@@ -394,7 +394,8 @@ export function renderMapWithLayout(options: MapOptions): { svg: string; layout:
       const anchor = nearestVertex(members.flatMap(linesOf), centroid as Point) ?? (centroid as Point);
       const key = `area:${area.id}`;
       requests.push({ id: key, anchor, w: 2 * badgeRadius, h: 2 * badgeRadius });
-      const name = `${area.name}: highest level ${area.levelLabel}, ${levelStyles[area.level].rank} of 4`;
+      // the accessible name starts with the badge's visible number (WCAG 2.1 SC 2.5.3, label in name)
+      const name = `${area.number}. ${area.name}: highest level ${area.levelLabel}, ${levelStyles[area.level].rank} of 4`;
       drawers.set(key, (label) => `<a href="${escapeXml(area.href)}" tabindex="-1" aria-label="${escapeXml(name)}">${badgeSvg(label, area.level, area.number)}</a>`);
     }
   } else if (badges) {

@@ -47,3 +47,16 @@ describe('dense test coast', () => {
     for (const label of layout.labels) expect(index.hits(label.box)).toBe(false);
   });
 });
+
+describe('area badges', () => {
+  it('each area badge links to its page, and its accessible name begins with the number shown (WCAG 2.1 SC 2.5.3)', () => {
+    const segments = denseCoast();
+    const areas = [0, 1, 2].map((k) => ({ id: `area-${k + 1}`, number: k + 1, name: `Reach ${String.fromCharCode(65 + k)}`, level: 'marked' as const, levelLabel: 'Marked', segmentIds: segments.slice(k * 20, (k + 1) * 20).map((s) => s.id), href: `/areas/area-${k + 1}/` }));
+    const { svg, layout } = renderMapWithLayout({ idPrefix: 'areas', title: 't', description: 'd', segments: prepareSegments(segments), areas, width: 560 });
+    expect(layout.labels.filter((l) => l.id.startsWith('area:'))).toHaveLength(3);
+    for (const area of areas) {
+      const link = new RegExp(`<a href="${area.href}" tabindex="-1" aria-label="${area.number}\\. ${area.name}: highest level Marked, 3 of 4"><g class="badge">.*?>${area.number}</text></g></a>`);
+      expect(svg).toMatch(link);
+    }
+  });
+});
