@@ -83,6 +83,23 @@ function segmentsGeojson(count: number): string {
   return `${JSON.stringify({ type: 'FeatureCollection', features })}\n`;
 }
 
+/** Invented land east of the shore, sampled every 500 m from 20 km north of the first segment to
+ * 20 km south of the last (the reader simplifies it for drawing), closed 1,200 km inland. */
+function landGeojson(count: number): string {
+  const shore: [number, number][] = [];
+  for (let y = 20; y >= -(count * SEGMENT_KM + 20); y -= 0.5) {
+    const [lon, lat] = toLonLat(coastX(y), y);
+    shore.push([round5(lon), round5(lat)]);
+  }
+  const inland = (y: number): [number, number] => {
+    const [lon, lat] = toLonLat(1200, y);
+    return [round5(lon), round5(lat)];
+  };
+  // north to south along the shore with land to the east (left of the way): anticlockwise
+  const ring = [...shore, inland(-(count * SEGMENT_KM + 20)), inland(20), shore[0]!];
+  return `${JSON.stringify({ type: 'FeatureCollection', features: [{ type: 'Feature', properties: { name: 'Scale coast mainland (invented)' }, geometry: { type: 'Polygon', coordinates: [ring] } }] })}\n`;
+}
+
 /** Reuse the demo's recipes in turn, so the scale scenario has every series shape too. */
 function scaleRecipes(count: number): SegmentRecipe[] {
   const recipes: SegmentRecipe[] = [];
@@ -132,8 +149,10 @@ export async function makeScaleScenario(dir: string, options: ScaleOptions = {})
     description: `${segmentCount} segments, ${years} years, about ${positionTarget} drift positions, for benchmarks.`,
     created: '2026-12-01T00:00:00Z',
     drift: 'positions',
+    land: true,
   }), null, 2)}\n`);
   texts.set('segments.geojson', segmentsGeojson(segmentCount));
+  texts.set('land.geojson', landGeojson(segmentCount));
   const tables = makeTables(seed, scaleRecipes(segmentCount), seasons);
   texts.set('tables/beach-litter.csv', toCsv(TABLE_HEADERS.beachLitter, tables.beachLitter));
   texts.set('tables/water-microplastics.csv', toCsv(TABLE_HEADERS.water, tables.water));

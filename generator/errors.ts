@@ -55,7 +55,7 @@ export const ResourceInvalid = {
   name: 'ResourceInvalid',
   title: 'Resource entry is not usable',
   message: (file: string, path: string, reason: string) => `${file}, at ${path}: ${reason}`,
-  hint: 'Each resource needs a name, a path inside the scenario folder and a role (settings, segments, indicator, drift-positions, drift-trajectories, drift-arrivals)',
+  hint: 'Each resource needs a name, a path inside the scenario folder and a role (settings, segments, land, indicator, drift-positions, drift-trajectories, drift-arrivals)',
 } satisfies ErrorData;
 
 export const ResourceFileMissing = {
@@ -420,6 +420,24 @@ export const GeometrySelfIntersects = {
   message: (file: string, feature: number, segment: string, where: string, detail: string) =>
     `${file} row ${feature}, column geometry: segment ${quoteValue(segment)} crosses itself at ${where} (${detail}); it is kept, measured and drawn as given`,
   hint: 'Usually a digitising slip; redraw the line there so it does not cross itself. The segment is published meanwhile',
+} satisfies ErrorData;
+
+// ---------------------------------------------------------------------------------------------
+// Land polygons (optional map background)
+// ---------------------------------------------------------------------------------------------
+
+export const LandUnreadable = {
+  name: 'LandUnreadable',
+  title: 'Land file cannot be read',
+  message: (file: string, reason: string) => `${file} row 1, column (all): not a GeoJSON or TopoJSON file of land polygons (${reason})`,
+  hint: 'Land is optional: give Polygon or MultiPolygon features (WGS84 longitude/latitude), or leave the "land" resource out',
+} satisfies ErrorData;
+
+export const LandShapeInvalid = {
+  name: 'LandShapeInvalid',
+  title: 'Land shape not usable',
+  message: (file: string, feature: number, reason: string) => `${file} row ${feature}, column geometry: ${reason}`,
+  hint: 'Land shapes are Polygon or MultiPolygon geometries in WGS84 longitude/latitude; rows are features, counted from 1',
 } satisfies ErrorData;
 
 // ---------------------------------------------------------------------------------------------

@@ -181,3 +181,30 @@ export function segmentsFeatureCollection(): object {
     })),
   };
 }
+
+/**
+ * Invented land polygons for the maps: the mainland east of the shore line (sampled every 250 m,
+ * from well south to well north of the segments, closed 80 km inland) and the island's ring.
+ * Rings are listed anticlockwise (RFC 7946).
+ */
+export function landFeatureCollection(): object {
+  const round = (p: [number, number]): [number, number] => [Math.round(p[0] * 1e5) / 1e5, Math.round(p[1] * 1e5) / 1e5];
+  const south = COAST_SOUTH_Y - 40;
+  const north = COAST_NORTH_Y + 40;
+  const mainland: [number, number][] = [];
+  for (let y = south; y <= north + 1e-9; y += 0.25) mainland.push(round(toLonLat(coastX(y), y)));   // south to north along the shore
+  mainland.push(round(toLonLat(80, north)), round(toLonLat(80, south)));                              // inland, then back south
+  mainland.push(mainland[0]!);
+  // the shore runs south to north with land on the right (east), so the ring goes clockwise: reverse it
+  mainland.reverse();
+  const island: [number, number][] = [];
+  for (let k = 0; k < 180; k++) island.push(round(toLonLat(...islandPoint((k / 180) * 2 * Math.PI))));
+  island.push(island[0]!);
+  return {
+    type: 'FeatureCollection',
+    features: [
+      { type: 'Feature', properties: { name: 'Tessavar mainland (invented)' }, geometry: { type: 'Polygon', coordinates: [mainland] } },
+      { type: 'Feature', properties: { name: 'Island (invented)' }, geometry: { type: 'Polygon', coordinates: [island] } },
+    ],
+  };
+}

@@ -11,7 +11,7 @@ import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { gzipSync } from 'node:zlib';
 import { writeNetcdf3 } from '../../generator/drift/netcdf3-writer.ts';
-import { coastX, COAST_NORTH_Y, COAST_SOUTH_Y, ISLAND, islandPoint, onIsland, SEGMENT_PLANS, segmentsFeatureCollection, segmentLonLatLine, toLonLat, segmentLocalLine, localLength } from './coast.ts';
+import { coastX, landFeatureCollection, COAST_NORTH_Y, COAST_SOUTH_Y, ISLAND, islandPoint, onIsland, SEGMENT_PLANS, segmentsFeatureCollection, segmentLonLatLine, toLonLat, segmentLocalLine, localLength } from './coast.ts';
 import { runSeason, type DriftSetup, type PositionRow } from './drift.ts';
 import { makeTables, toCsv, TABLE_HEADERS, SEGMENT_RECIPES, BAD_ROWS } from './monitoring.ts';
 import { makeDatapackage, makeSettings } from './package-files.ts';
@@ -197,8 +197,10 @@ export async function makeDemo(outDir: string, seed = DEMO_SEED): Promise<DemoSu
     description: 'Ten years (December 2016 to November 2026) of seasonal monitoring on thirty coastline segments of the invented Tessavar Coast, with a toy drift-model run for the last eight seasons.',
     created: '2026-12-01T00:00:00Z',
     drift: 'positions-and-trajectories',
+    land: true,
   })));
   files.set('segments.geojson', json(segmentsFeatureCollection()));
+  files.set('land.geojson', json(landFeatureCollection()));
   const tables = makeTables(seed);
   files.set('tables/beach-litter.csv', toCsv(TABLE_HEADERS.beachLitter, tables.beachLitter));
   files.set('tables/water-microplastics.csv', toCsv(TABLE_HEADERS.water, tables.water));
@@ -275,6 +277,7 @@ February: a deliberate simplification of an invented place.
 | \`datapackage.json\` | Frictionless Data Package: every file, with Table Schemas (types, units, missing values, keys) |
 | \`scenario.json\` | settings: region, invented contacts, published seasons (2026-summer on 2026-09-01, 2026-autumn on 2026-12-01), trend, drift and risk rules |
 | \`segments.geojson\` | ${SEGMENT_PLANS.length} coastline segments as LineStrings (WGS84) |
+| \`land.geojson\` | invented land polygons of the mainland and the island, drawn under the maps (WGS84) |
 | \`tables/beach-litter.csv\` | seasonal beach-litter surveys, 2017-winter to 2026-autumn |
 | \`tables/water-microplastics.csv\` | surface-water net tows |
 | \`tables/shellfish-tissue.csv\` | shellfish tissue samples |

@@ -37,12 +37,15 @@ export interface PackageOptions {
   /** Fixed creation stamp (never the clock). */
   created: string;
   drift: 'positions-and-trajectories' | 'positions';
+  /** list the invented land polygons (land.geojson) as the maps' land resource */
+  land?: boolean;
 }
 
 export function makeDatapackage(options: PackageOptions): object {
   const resources: object[] = [
     { name: 'settings', role: 'settings', title: 'Scenario settings', description: `Region, contacts, published seasons, trend and risk settings. ${INVENTED}`, path: 'scenario.json', format: 'json', mediatype: 'application/json' },
     { name: 'segments', role: 'segments', title: 'Coastline segments', description: `Coastline segments as GeoJSON LineStrings (WGS84 longitude/latitude) with id, name, kind, shellfish use and place. ${INVENTED}`, path: 'segments.geojson', format: 'geojson', mediatype: 'application/geo+json' },
+    ...(options.land ? [{ name: 'land', role: 'land', title: 'Land', description: `Land polygons (mainland and island) drawn under the segments on the maps, GeoJSON (WGS84 longitude/latitude). ${INVENTED}`, path: 'land.geojson', format: 'geojson', mediatype: 'application/geo+json' }] : []),
     tableResource('beach-litter', 'beach-litter', 'Beach-litter surveys', 'Items larger than 2.5 cm counted along a surveyed stretch of shore; normalised to items per 100 m.', [
       idField('survey_id', 'Survey identifier.'),
       segmentField,

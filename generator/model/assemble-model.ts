@@ -13,6 +13,7 @@ import type { RiskRule, ScenarioSettings } from '../scenario/settings.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
 import { composeBulletin } from './compose-bulletin.ts';
 import { composeRegion } from './compose-region.ts';
+import { siteMap } from './site-map.ts';
 import { evaluateSeason, type SeasonEvaluation, type TrendEngine } from './evaluate-season.ts';
 import { previousSeasonId, seasonRef } from './seasons.ts';
 import type { Bulletin, RegionSummary, SiteModel } from './types.ts';
@@ -108,6 +109,7 @@ export function siteModel(scenario: LoadedScenario, rules: readonly RiskRule[], 
     manifest: [...scenario.inputs].sort((a, b) => (a.file < b.file ? -1 : a.file > b.file ? 1 : 0)).map((i) => ({ file: i.file, sha256: i.sha256, bytes: i.bytes })),
     validation: scenario.report,
     driftModel: scenario.drift !== null,
+    map: siteMap(scenario),
     settingsDigest: {
       riskRules: rules.map((r) => ({ id: r.id, level: r.level, text: r.text })),
       riskRulesNote:

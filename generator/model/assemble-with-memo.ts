@@ -17,6 +17,7 @@ import { indicatorIds } from '../indicators/index.ts';
 import type { LoadedScenario, Record as ScenarioRecord } from '../scenario/types.ts';
 import { modelScope, siteModel, type AssembleModelOptions } from './assemble-model.ts';
 import { composeBulletin } from './compose-bulletin.ts';
+import { areaRegionalSites, scenarioAreas } from './areas.ts';
 import { composeRegion, type RegionInputs } from './compose-region.ts';
 import { regionalTrend, segmentEvaluation } from './evaluate-season.ts';
 import type { IndicatorEvaluation, RegionalResult, SeasonEvaluation, SegmentEvaluation, TrendEngine } from './evaluation-types.ts';
@@ -70,6 +71,7 @@ interface SeasonState {
   evaluated: Map<string, { series: SeasonSeries; evaluation: IndicatorEvaluation | null }>;
   verdict: SeasonVerdict;
   regional: SeasonEvaluation['regional'];
+  areaRegional?: SeasonEvaluation['areaRegional'];
   zones: SeasonEvaluation['zones'];
 }
 
@@ -147,13 +149,24 @@ export function assembleModelWithMemo(scenario: LoadedScenario, engine: TrendEng
       memo.keepRegional(key, result);
       return { indicator, result, segments: sites.length };
     });
+    const areas = scenarioAreas(scenario.segments);
+    const areaRegional = areas
+      ? areaRegionalSites(areas, verdict.regionalSites).map(({ area, indicator: name, sites }) => {
+        const indicator = name as IndicatorId;
+        const key = regionalInputKey(seasonId, indicator, settings.trend.confidence, sites.map((site) => ({ site, key: keys.get(seriesKey(indicator, site)) as string })));
+        let result = memo.regional(key);
+        if (result === undefined) result = regionalTrend(context, engine, indicator, sites, seriesOf);
+        memo.keepRegional(key, result);
+        return { area, indicator, result, segments: sites.length };
+      })
+      : undefined;
     const zones = scenario.drift?.zones.find((z) => z.season === seasonId)?.zones ?? [];
-    seasons.set(seasonId, { context, keys, summaries, evaluated, verdict, regional, zones });
+    seasons.set(seasonId, { context, keys, summaries, evaluated, verdict, regional, zones, ...(areaRegional ? { areaRegional } : {}) });
     options.onProgress?.('evaluate', i + 1, wanted.length);
   });
 
   // The season as composeRegion reads it: every segment's level and directions (the verdicts).
-  const judged = (state: SeasonState): RegionInputs => ({ season: state.context.season, segments: state.verdict.segments, regional: state.regional, zones: state.zones });
+  const judged = (state: SeasonState): RegionInputs => ({ season: state.context.season, segments: state.verdict.segments, regional: state.regional, zones: state.zones, ...(state.areaRegional ? { areaRegional: state.areaRegional } : {}) });
   const side = (state: SeasonState, segmentId: string): SeasonSide => ({
     seasonId: state.context.seasonId,
     seriesKeys: indicatorIds.map((indicator) => state.keys.get(seriesKey(indicator, segmentId)) as string),

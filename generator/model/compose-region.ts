@@ -13,10 +13,11 @@ import { debrisCautions, shellfishCautions } from '../bulletin/cautions.ts';
 import { indicatorSubjects, lowerFirst } from '../bulletin/indicator-words.ts';
 import { formatNumber, formatSignificant } from '../bulletin/numbers.ts';
 import { getIndicator } from '../indicators/index.ts';
-import { levelScale } from '../risk/levels.ts';
+import { levelNotSet, levelScale } from '../risk/levels.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
 import type { RegionalResult, SeasonEvaluation } from './evaluate-season.ts';
-import type { Direction, HeadlinePart, IndicatorId, LevelResult, RegionalTrend, RegionSummary } from './types.ts';
+import type { AreaSummary, Direction, HeadlinePart, IndicatorId, LevelResult, RegionalTrend, RegionSummary } from './types.ts';
+import { scenarioAreas, type AreaPlan } from './areas.ts';
 
 /**
  * The region's sentence for one indicator.
@@ -86,6 +87,7 @@ export interface RegionInputs {
   segments: ReadonlyMap<string, { level: LevelResult; indicators: readonly { indicator: IndicatorId; direction: Direction }[] }>;
   regional: SeasonEvaluation['regional'];
   zones: SeasonEvaluation['zones'];
+  areaRegional?: SeasonEvaluation['areaRegional'];
 }
 
 export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previous: RegionInputs | null, published: string): RegionSummary {
@@ -107,7 +109,7 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
       geometry: segment.geometry,
     };
   });
-  const regionalTrends: RegionalTrend[] = now.regional.map(({ indicator, result, segments: count }) => {
+  const trendOf = ({ indicator, result, segments: count }: RegionInputs['regional'][number]): RegionalTrend => {
     const definition = getIndicator(indicator);
     const placesUp = rows.filter((r) => r.directions[indicator] === 'rising').length;
     const placesDown = rows.filter((r) => r.directions[indicator] === 'falling').length;
@@ -128,7 +130,8 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
       placesUp,
       placesDown,
     };
-  });
+  };
+  const regionalTrends: RegionalTrend[] = now.regional.map(trendOf);
   const counts = levelScale
     .slice()
     .reverse()
@@ -157,6 +160,7 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
   }
   for (const trend of regionalTrends) summary.push(trend.sentence);
   const seasonNotes = notesFor(settings.notes, now.season.id, null);
+  const plans = scenarioAreas(scenario.segments);
   const highest = Math.max(0, ...rows.map((r) => r.level.rank));
   const highestLabel = levelScale.find((l) => l.rank === highest)?.label ?? 'Scant';
   const headlineParts: HeadlinePart[] = highest === 0
@@ -188,7 +192,48 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
     authorities: settings.authorities.map((a) => ({ ...a })),
     headline: headlineParts.map((p) => p.text).join(''),
     headlineParts,
+    ...(plans ? { areas: plans.map((plan) => composeArea(plan, rows, (now.areaRegional ?? []).filter((r) => r.area === plan.id).map(trendOf))) } : {}),
     summary,
   };
 }
 
+
+/** An area's line on the overview and the head of its page: highest level, counts, its own trends. */
+export function composeArea(plan: AreaPlan, rows: readonly { id: string; name: string; level: LevelResult }[], regionalTrends: RegionalTrend[]): AreaSummary {
+  const byId = new Map(rows.map((r) => [r.id, r] as const));
+  const members = plan.segmentIds.map((id) => byId.get(id)).filter((r): r is (typeof rows)[number] => r !== undefined);
+  // highest level first, then by name: the order of the area's map badges and of its lists
+  members.sort((a, b) => b.level.rank - a.level.rank || a.name.localeCompare(b.name, 'en') || (a.id < b.id ? -1 : 1));
+  const highest = members[0]?.level ?? null;
+  const counts = levelScale.slice().reverse().map((l) => ({ level: l.id, rank: l.rank, label: l.label, n: members.filter((m) => m.level.id === l.id).length }));
+  const notSet = members.filter((m) => m.level.rank === 0).length;
+  const levelWords = [...counts.filter((c) => c.n > 0).map((c) => `${formatNumber(c.n, 0)} ${c.label}`), ...(notSet > 0 ? [`${formatNumber(notSet, 0)} with no level set`] : [])];
+  const summary = [`Levels of the ${formatNumber(members.length, 0)} places in this area: ${levelWords.join(', ')}.`];
+  // An area none of whose places has a level set is never shown at the lowest level.
+  if (highest === null || highest.rank === 0) {
+    return {
+      id: plan.id,
+      number: plan.number,
+      name: plan.name,
+      segmentIds: members.map((m) => m.id),
+      level: { id: levelNotSet.id, rank: levelNotSet.rank, label: levelNotSet.label },
+      counts,
+      headline: `${plan.name}: no place in this area has a level set, because no survey was made in the last four seasons.`,
+      summary,
+      regionalTrends,
+    };
+  }
+  const top = levelScale.find((l) => l.rank === highest.rank) ?? levelScale[0]!;
+  const atTop = counts.find((c) => c.level === top.id)?.n ?? 0;
+  return {
+    id: plan.id,
+    number: plan.number,
+    name: plan.name,
+    segmentIds: members.map((m) => m.id),
+    level: { id: top.id, rank: top.rank, label: top.label },
+    counts,
+    headline: `${plan.name}: the highest level is ${top.label} (level ${top.rank} of 4), at ${formatNumber(atTop, 0)} of ${formatNumber(members.length, 0)} places.`,
+    summary,
+    regionalTrends,
+  };
+}

@@ -13,6 +13,7 @@ import type { IndicatorEvaluation, RegionalResult, SeasonEvaluation, SegmentEval
 import { judgeSeason, summarizeSeries, type IndicatorVerdict, type SegmentVerdict } from './judge-season.ts';
 import { evaluateSeries, seasonContext, seriesKey, type SeasonContext, type SeasonSeries } from './season-series.ts';
 import { toSeriesPoints } from './series.ts';
+import { areaRegionalSites, scenarioAreas } from './areas.ts';
 import type { IndicatorId } from './types.ts';
 
 export type {
@@ -85,11 +86,20 @@ export function evaluateSeason(scenario: LoadedScenario, seasonId: string, rules
     result: regionalTrend(context, engine, indicator, sites, (i, s) => entryOf(i, s).series),
     segments: sites.length,
   }));
+  const areas = scenarioAreas(scenario.segments);
+  const areaRegional = areas
+    ? areaRegionalSites(areas, verdict.regionalSites).map(({ area, indicator, sites }) => ({
+      area,
+      indicator: indicator as IndicatorId,
+      result: regionalTrend(context, engine, indicator as IndicatorId, sites, (i, s) => entryOf(i, s).series),
+      segments: sites.length,
+    }))
+    : undefined;
   const segments = new Map<string, SegmentEvaluation>();
   for (const id of segmentIds) {
     const own = verdict.segments.get(id);
     if (own) segments.set(id, segmentEvaluation(own, (indicator) => entryOf(indicator, id).evaluation));
   }
   const zones = scenario.drift?.zones.find((z) => z.season === seasonId)?.zones ?? [];
-  return { season: context.season, segments, regional, zones };
+  return { season: context.season, segments, regional, zones, ...(areaRegional ? { areaRegional } : {}) };
 }

@@ -77,5 +77,7 @@ export interface SeasonEvaluation {
   season: SeasonRef;
   segments: Map<string, SegmentEvaluation>;
   regional: { indicator: IndicatorId; result: RegionalResult | null; segments: number }[];
+  /** The same test over each area's own segments, when the coast is shown by areas (areas.ts). */
+  areaRegional?: { area: string; indicator: IndicatorId; result: RegionalResult | null; segments: number }[];
   zones: AccumulationZone[];
 }

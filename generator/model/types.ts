@@ -239,6 +239,36 @@ export interface RegionSummary {
   cautions?: { shellfish: Caution[]; debris: Caution[] };
   /** The authorities named in the scenario, with their contacts. */
   authorities?: Contact[];
+  /**
+   * A national coast's areas (generator/model/areas.ts), present when the overview shows areas
+   * instead of every segment; each area has a page of its own.
+   */
+  areas?: AreaSummary[];
+}
+
+export interface AreaSummary {
+  id: string;                       // URL-safe slug, "area-…"
+  number: number;                   // 1…, in order along the coast; the badge on the overview map
+  name: string;
+  segmentIds: string[];             // in the order of the area's table and map list
+  level: Pick<LevelResult, 'id' | 'rank' | 'label'>;   // the highest level in the area
+  counts: { level: LevelId; rank: number; label: string; n: number }[];   // every level, highest first
+  headline: string;
+  summary: string[];
+  /** Regional Kendall over the area's own segments, per indicator */
+  regionalTrends: RegionalTrend[];
+}
+
+/** What every map draws besides the segments: land and the place names of the overview. */
+export interface SiteMapModel {
+  /** land polygons (resource role "land"), simplified for drawing; null when not given */
+  land: GeoJSON.MultiPolygon | null;
+  /** the same land simplified further, for the small inset of locator maps */
+  landCoarse: GeoJSON.MultiPolygon | null;
+  /** place names printed on the overview map, most important first */
+  places: { name: string; lon: number; lat: number; segments: number }[];
+  /** what the caption says about land and sea */
+  seaNote: string;
 }
 
 export interface ValidationIssue {
@@ -290,4 +320,5 @@ export interface SiteModel {
   };
   /** Whether the scenario has drift-model input; without it no page speaks of the drift model. */
   driftModel: boolean;
+  map?: SiteMapModel;
 }

@@ -27,6 +27,7 @@ import { readPackageDescriptor } from './package-descriptor.ts';
 import { readSettings } from './read-settings.ts';
 import { readSegments } from './read-segments.ts';
 import { placeInFolder } from './inside-folder.ts';
+import { readLand } from './read-land.ts';
 import { seasonRange } from './season-calendar.ts';
 
 export interface LoadOptions {
@@ -160,6 +161,18 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
   const segments: Segment[] = segmentsResource ? await readSegments(join(root, segmentsResource.path), segmentsResource.path, log, leftOutSegments) : [];
   const segmentIds = new Set(segments.map((s) => s.id));
 
+  // Land for the maps: optional, at most one resource.
+  const landResources = descriptor.resources.filter((r) => r.role === 'land');
+  if (landResources.length > 1) {
+    const extra = landResources[1]!;
+    log.add(ResourceInvalid, ResourceInvalid.message(descriptorName, `resources[${extra.index}]`, 'a second resource has role "land"; only the first is used'), {
+      file: descriptorName, row: null, column: `resources[${extra.index}]`, value: extra.name, expected: 'at most one resource with role "land"', severity: 'warning', excluded: true,
+    });
+  }
+  const landResource = landResources[0] && present.includes(landResources[0]) ? landResources[0] : null;
+  if (landResource) progress('land', 0);
+  const land = landResource ? await readLand(join(root, landResource.path), landResource.path, log) : null;
+
   const records: ScenarioRecord[] = [];
   const tableRows: TableRows[] = [];
   const tables = present.filter((r) => r.role === 'indicator' && r.indicator !== null);
@@ -234,5 +247,5 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
   if (options.strict) log.makeWarningsErrors();
   progress('done', 1, 1);
 
-  return { dir: root, settings, segments, records, drift, inputs, report: log.report() };
+  return { dir: root, settings, segments, land, records, drift, inputs, report: log.report() };
 }

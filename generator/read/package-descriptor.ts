@@ -18,7 +18,7 @@ import type { IssueLog } from './issue-log.ts';
 import { formatZodPath } from './zod-issues.ts';
 import { parseBoundedJson } from './json-input.ts';
 
-export const resourceRoles = ['settings', 'segments', 'indicator', 'drift-positions', 'drift-trajectories', 'drift-arrivals', 'drift-end-positions'] as const;
+export const resourceRoles = ['settings', 'segments', 'land', 'indicator', 'drift-positions', 'drift-trajectories', 'drift-arrivals', 'drift-end-positions'] as const;
 export type ResourceRole = (typeof resourceRoles)[number];
 
 const fieldSchema = z

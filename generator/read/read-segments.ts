@@ -233,6 +233,7 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
     if (kind === null || shellfish === null) ok = false;
     const placeValue = properties['place'];
     const place = typeof placeValue === 'string' && placeValue.trim() !== '' ? placeValue : null;
+    const areaValue = properties['area']; // optional: the segment's area on a national coast (generator/model/areas.ts)
     for (const [column, text] of [['name', name], ['place', place]] as const) {
       if (typeof text === 'string' && containsMarkup(text)) {
         log.add(MarkupInText, MarkupInText.message(file, row, column, text), { file, row, column, value: text, expected: 'plain text', severity: 'warning', excluded: false });
@@ -299,6 +300,7 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
       kind: kind as SegmentKind,
       shellfish: shellfish as ShellfishUse,
       place: place === null ? null : isolateBidi(place),
+      ...(typeof areaValue === 'string' && areaValue.trim() !== '' ? { area: isolateBidi(areaValue.trim()) } : {}),
       lengthKm,
       geometry: shape,
       bbox,

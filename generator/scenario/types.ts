@@ -6,6 +6,7 @@
  */
 import type { IndicatorId, SegmentKind, ShellfishUse, ValidationReport, AccumulationZone } from '../model/types.ts';
 import type { ScenarioSettings } from './settings.ts';
+import type { LandShapes } from '../read/read-land.ts';
 
 export interface Segment {
   id: string;
@@ -13,6 +14,8 @@ export interface Segment {
   kind: SegmentKind;
   shellfish: ShellfishUse;
   place: string | null;
+  /** the area the segments file puts it in (property "area"), for national coasts */
+  area?: string;
   lengthKm: number;
   geometry: GeoJSON.Geometry;       // as read, WGS84 lon/lat
   bbox: [number, number, number, number];
@@ -53,6 +56,8 @@ export interface LoadedScenario {
   settings: ScenarioSettings;
   segments: Segment[];
   records: Record[];                // all indicators, sorted by indicator, segment, date
+  /** land polygons for the maps (resource role "land"), simplified; absent when not given */
+  land?: LandShapes | null;
   drift: { arrivals: DriftArrivals[]; zones: { season: string; zones: AccumulationZone[] }[] } | null;
   inputs: InputFile[];
   report: ValidationReport;

@@ -6,8 +6,8 @@
  */
 import type { Bulletin, Caution, IndicatorBulletin } from '../../generator/model/types.ts';
 import { renderIndicatorChart } from './chart.ts';
-import { prepareSegments, renderMap } from './map.ts';
-import type { PreparedSegments } from './map.ts';
+import { prepareLand, prepareSegments, renderMap } from './map.ts';
+import type { PreparedLand, PreparedSegments } from './map.ts';
 import type { LoadedModel } from './model.ts';
 import { bulletinOf, bulletinsOf, pageBulletins, regionOf } from './model.ts';
 
@@ -33,6 +33,13 @@ export function preparedSegmentsOf(model: LoadedModel, seasonId: string): Prepar
   return prepared;
 }
 
+let landCache: { land: PreparedLand | null; coarse: PreparedLand | null } | null = null;
+/** The scenario's land for the maps (detailed, and coarse for insets), prepared once per build. */
+export function landOf(model: LoadedModel): { land: PreparedLand | null; coarse: PreparedLand | null } {
+  landCache ??= { land: prepareLand(model.site.map?.land), coarse: prepareLand(model.site.map?.landCoarse) };
+  return landCache;
+}
+
 const locatorCache = new Map<string, string>();
 export function locatorFor(model: LoadedModel, bulletin: Bulletin): string {
   const key = `${bulletin.season.id}/${bulletin.segment.id}`;
@@ -47,6 +54,8 @@ export function locatorFor(model: LoadedModel, bulletin: Bulletin): string {
     zones: region.zones,
     highlight: bulletin.segment.id,
     width: 420,
+    land: landOf(model).land,
+    insetLand: landOf(model).coarse,
   });
   if (shownTwice(model, bulletin)) locatorCache.set(key, svg);
   return svg;

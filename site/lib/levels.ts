@@ -16,8 +16,8 @@ export interface LevelStyle {
 }
 
 export const levelStyles: Record<LevelId, LevelStyle> = {
-  scant: { rank: 1, fill: '#efe6c8', stroke: '#a39161', dash: '0.1 6', width: 4, pattern: 'wl-pat-1' },
-  noticeable: { rank: 2, fill: '#d9a35f', stroke: '#b7752a', dash: '10 6', width: 4, pattern: 'wl-pat-2' },
+  scant: { rank: 1, fill: '#efe6c8', stroke: '#857546', dash: '0.1 6', width: 4, pattern: 'wl-pat-1' },
+  noticeable: { rank: 2, fill: '#d9a35f', stroke: '#a8661f', dash: '10 6', width: 4, pattern: 'wl-pat-2' },
   marked: { rank: 3, fill: '#a34d3c', stroke: '#963f30', dash: null, width: 5, pattern: 'wl-pat-3' },
   heavy: { rank: 4, fill: '#3f1f3a', stroke: '#3f1f3a', dash: null, width: 7, pattern: 'wl-pat-4' },
   // No level (no recent survey): white and grey, a thin line of short dashes, an open dashed ring,

@@ -225,6 +225,31 @@ describe.skipIf(!haveBrowser)('published site in a real browser', () => {
     expect(results).toEqual(Object.fromEntries(targets.map((t) => [t, []])));
   });
 
+  it('overview map: land drawn, every badge and place name placed, no two boxes overlapping (390 and 1280 px)', async () => {
+    for (const width of [390, 1280]) {
+      const { page } = await openPage('/');
+      await page.setViewportSize({ width, height: 900 });
+      const found = await page.evaluate(() => {
+        const rects = [...document.querySelectorAll('svg.map .badge circle, svg.map .place-label, svg.map .zone-label')].map((n) => n.getBoundingClientRect());
+        const overlaps: string[] = [];
+        for (let i = 0; i < rects.length; i++) for (let j = i + 1; j < rects.length; j++) {
+          const a = rects[i]!;
+          const b = rects[j]!;
+          if (a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom) overlaps.push(`${i}×${j}`);
+        }
+        return { badges: document.querySelectorAll('svg.map .badge').length, places: document.querySelectorAll('svg.map .place-label').length, land: document.querySelectorAll('svg.map path.land').length, overlaps };
+      });
+      await page.close();
+      if (!process.env['WRACKLINE_TEST_SITE'] && !process.env['WRACKLINE_TEST_MODEL']) {
+        const geojson = JSON.parse(readFileSync(join(root, 'content', 'demo', 'segments.geojson'), 'utf8')) as { features: unknown[] };
+        expect(found.badges).toBe(geojson.features.length);
+        expect(found.land).toBe(1);
+        expect(found.places).toBeGreaterThanOrEqual(4);
+      }
+      expect(found.overlaps).toEqual([]);
+    }
+  });
+
   it('has no horizontal overflow at 390×844 and 1280×800, and saves screenshots', async () => {
     const htmlUrls = pages.filter((p) => p.url.endsWith('/')).map((p) => p.url);
     const overflow: string[] = [];
