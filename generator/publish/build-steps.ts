@@ -4,7 +4,7 @@
  */
 import type { Bulletin, RegionSummary, SiteModel } from '../model/types.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
-import type { WrittenBulletin } from '../model/assemble-with-memo.ts';
+import type { WrittenBulletin } from '../model/written-bulletin.ts';
 import type { SearchPart } from './search-index.ts';
 
 export interface ModelSet {
