@@ -5,7 +5,7 @@
  * tested; per segment the modelled drift with its percentile and the level from the rule table.
  *
  * It reads only a small summary of each series (`SeriesSummary`), so a build that reuses the
- * summaries of unchanged series from an earlier build (generator/publish/model-memo.ts) gets
+ * summaries of unchanged series from an earlier build (generator/publish/cache/model-memo.ts) gets
  * exactly the values of a build that evaluated every series afresh: both run this same code.
  */
 import { indicatorIds } from '../indicators/index.ts';
