@@ -1,4 +1,5 @@
 /**
+ * Step: all of them: the step functions the conductor (build-release.ts) runs.
  * The steps a build runs, as functions: the command line passes the real ones (the scenario
  * reader, the model builder, Astro, pagefind); tests pass small stand-ins.
  */
