@@ -14,9 +14,9 @@ import type { Progress } from '../progress/progress.ts';
 import { packageRoot } from '../publish/astro-render.ts';
 import { indexSearchParts } from '../publish/search-index.ts';
 import { renderSite } from '../publish/render-site.ts';
-import { openTrendCache, statisticsFingerprint } from '../publish/trend-cache.ts';
-import { openDriftCache, readingFingerprint } from '../publish/drift-cache.ts';
-import { modelFingerprint, openModelMemo } from '../publish/model-memo.ts';
+import { openTrendCache, statisticsFingerprint } from '../publish/cache/trend-results.ts';
+import { openDriftCache, readingFingerprint } from '../publish/cache/drift-figures.ts';
+import { modelFingerprint, openModelMemo } from '../publish/cache/model-memo.ts';
 import { buildRelease } from '../publish/build-release.ts';
 import type { BuildSteps } from '../publish/build-steps.ts';
 import { PublishError } from '../publish/publish-error.ts';
@@ -108,7 +108,7 @@ export async function realSteps(siteRoot: string | undefined, strict = false): P
   return {
     load: async (dir, onProgress, cacheDir) => {
       if (cacheDir === null) return loadScenario(dir, { onProgress, strict });
-      const driftMemo = openDriftCache(cacheDir, await readingFingerprint(packageRoot, generatorVersion));
+      const driftMemo = await openDriftCache(cacheDir, await readingFingerprint(packageRoot, generatorVersion));
       const scenario = await loadScenario(dir, { onProgress, driftMemo, strict });
       // Remembered only for a scenario that passed: an invalid one leaves nothing beside the output.
       if (scenario.report.ok) await driftMemo.save();

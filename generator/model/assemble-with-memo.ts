@@ -6,7 +6,7 @@
  * - a bulletin whose key is known gives its model file, byte for byte.
  * Everything that compares segments (q-values, percentiles, levels) and the region summaries is
  * worked out afresh from the summaries every time, by the same code as a build without memo, and
- * a bulletin is composed only when its key is new. The bulletins come out written (stable JSON,
+ * a bulletin is composed only when its key is new. The bulletins come out written (stable-json.ts,
  * as write-model.ts writes them), ready for the model folder.
  *
  * With an empty memo the result equals assembleModel's, file for file; with a memo filled by any
@@ -27,7 +27,10 @@ import { evaluateSeries, seasonContext, seasonSeries, seriesKey, seriesRecords, 
 import { previousSeasonId } from './seasons.ts';
 import type { IndicatorId, RegionSummary, SiteModel } from './types.ts';
 import { listingOf, type BulletinListing } from './listing.ts';
-import { stableJson } from './write-model.ts';
+import { stableJson } from './stable-json.ts';
+import type { WrittenBulletin } from './written-bulletin.ts';
+
+export type { WrittenBulletin };
 
 /** Results of earlier builds by input key; `keep` records a result of this build. */
 export interface ModelMemo {
@@ -42,18 +45,6 @@ export interface ModelMemo {
    */
   bulletin(key: string): { text: Buffer; sha256: string; listing: BulletinListing } | undefined;
   keepBulletin(key: string, text: Buffer, listing: BulletinListing): void;
-}
-
-/** One bulletin's model file, as write-model.ts writes it. */
-export interface WrittenBulletin {
-  seasonId: string;
-  segmentId: string;
-  text: Buffer;
-  /** SHA-256 of `text` */
-  sha256: string;
-  listing: BulletinListing;
-  /** taken from the memo (true) or composed in this build */
-  reused: boolean;
 }
 
 export interface MemoModelSet {

@@ -1,6 +1,6 @@
 /**
  * Input keys: the SHA-256 of everything one result is computed from, so a build can take the
- * result of an earlier build whose key is the same (generator/publish/model-memo.ts). The code
+ * result of an earlier build whose key is the same (generator/publish/cache/model-memo.ts). The code
  * that computes the results is not in these keys: the memo as a whole belongs to one code
  * fingerprint and is dropped when it changes.
  *

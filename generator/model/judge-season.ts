@@ -7,7 +7,7 @@
  * evidence (the drift model) meets a rule; absence of evidence is never the lowest level.
  *
  * It reads only a small summary of each series (`SeriesSummary`), so a build that reuses the
- * summaries of unchanged series from an earlier build (generator/publish/model-memo.ts) gets
+ * summaries of unchanged series from an earlier build (generator/publish/cache/model-memo.ts) gets
  * exactly the values of a build that evaluated every series afresh: both run this same code.
  */
 import { lowerFirst } from '../bulletin/indicator-words.ts';

@@ -9,28 +9,10 @@
 import { mkdirSync, renameSync, writeFileSync } from 'node:fs';
 import { dirname, join } from 'node:path';
 import type { BulletinModelSet } from './assemble-model.ts';
-import type { WrittenBulletin } from './assemble-with-memo.ts';
 import { listingOf, type BulletinListing } from './listing.ts';
 import { giveTurn } from '../event-loop.ts';
-
-/** JSON with object keys sorted at every depth (arrays keep their order). */
-export function stableJson(value: unknown): string {
-  return `${JSON.stringify(sortKeys(value), null, 2)}\n`;
-}
-
-function sortKeys(value: unknown): unknown {
-  if (Array.isArray(value)) return value.map(sortKeys);
-  if (value !== null && typeof value === 'object') {
-    const out: { [key: string]: unknown } = {};
-    for (const key of Object.keys(value).sort()) {
-      const child = (value as { [key: string]: unknown })[key];
-      if (child !== undefined) out[key] = sortKeys(child);
-    }
-    return out;
-  }
-  if (typeof value === 'number' && !Number.isFinite(value)) return null;
-  return value;
-}
+import { stableJson } from './stable-json.ts';
+import type { WrittenBulletin } from './written-bulletin.ts';
 
 const safeName = /^[a-z0-9][a-z0-9-]*$/;
 

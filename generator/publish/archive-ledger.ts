@@ -1,4 +1,5 @@
 /**
+ * Step: check (past-season pages against the release on line, before the swap).
  * The archive ledger: a record, kept in every published folder as `archive-ledger.json`, of the
  * content hash of each bulletin and region summary of each season. Before a new release is
  * swapped in, the seasons that are past in the new build are compared with the ledger of the

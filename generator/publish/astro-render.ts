@@ -1,4 +1,5 @@
 /**
+ * Step: render (the pages).
  * Renders a model folder into HTML by running `astro build` as a child process.
  *
  * The Astro project is this package's own root (where astro.config.mjs lives), found from this
@@ -78,7 +79,7 @@ export function runNodeScript(
 
 /** Strips terminal colour codes from a line of child output. */
 export function plainText(line: string): string {
-  // eslint-disable-next-line no-control-regex
+  // biome-ignore lint/suspicious/noControlCharactersInRegex: strips the terminal colour codes (ESC [ … m) of Astro's output
   return line.replace(/\x1b\[[0-9;]*[A-Za-z]/g, '');
 }
 

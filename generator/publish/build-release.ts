@@ -1,4 +1,5 @@
 /**
+ * Step: all of them: the conductor (read → model → render → check → swap).
  * One build, start to finish: read and validate the scenario, build the bulletin model, render
  * it, check the result, and publish it atomically. Each step is a function passed in, so the
  * order and the guarantees here are tested with small stand-ins as well as with the real

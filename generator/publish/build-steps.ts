@@ -1,10 +1,11 @@
 /**
+ * Step: all of them: the step functions the conductor (build-release.ts) runs.
  * The steps a build runs, as functions: the command line passes the real ones (the scenario
  * reader, the model builder, Astro, pagefind); tests pass small stand-ins.
  */
 import type { Bulletin, RegionSummary, SiteModel } from '../model/types.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
-import type { WrittenBulletin } from '../model/assemble-with-memo.ts';
+import type { WrittenBulletin } from '../model/written-bulletin.ts';
 import type { SearchPart } from './search-index.ts';
 
 export interface ModelSet {

@@ -1,4 +1,5 @@
 /**
+ * Step: render (memory handed back between the model and the pages).
  * Asks V8 for a full garbage collection now. Used once, between the statistics (which leave a
  * few hundred megabytes of garbage: the scenario, the model, the trend cache) and the pages
  * (when two Astro processes need the memory): V8 collects lazily, so without this the build's

@@ -1,3 +1,4 @@
+// Step: check (page safety, before the swap).
 // A worker thread of html-safety.ts: loads the TypeScript checks through tsx, checks the pages
 // it is given (paths relative to the site folder) and posts their problems back.
 import { parentPort, workerData } from 'node:worker_threads';

@@ -1,4 +1,5 @@
 /**
+ * Step: check (page safety, before the swap).
  * Safety check of built pages, run before a release is published and by the tests:
  * - every HTML page carries a Content-Security-Policy meta tag whose script rules allow no
  *   inline script and no third-party origin;

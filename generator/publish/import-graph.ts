@@ -1,7 +1,8 @@
 /**
+ * Step: render and the cache (what the code fingerprints of page reuse and cache/ cover).
  * The project files a set of files imports, followed through relative import specifiers: what a
  * fingerprint of "the code behind a result" must cover (page-reuse.ts for the site,
- * model-memo.ts for the bulletin model). Packages are covered by package-lock.json instead.
+ * cache/result-cache.ts for the bulletin model). Packages are covered by package-lock.json instead.
  */
 import { readFile } from 'node:fs/promises';
 import path from 'node:path';

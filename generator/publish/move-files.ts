@@ -1,4 +1,7 @@
-/** Moving files of one folder tree into another (one rename each), and linking a file under a second name. */
+/**
+ * Step: render (moving finished files into the release folder).
+ * Moving files of one folder tree into another (one rename each), and linking a file under a second name.
+ */
 import { copyFileSync, linkSync, mkdirSync, renameSync } from 'node:fs';
 import path from 'node:path';
 import { listFiles } from './tree-hash.ts';

@@ -1,4 +1,5 @@
 /**
+ * Step: render (pages taken over from the release on line instead of rendered).
  * Reusing unchanged bulletin pages from the published release.
  *
  * Every page about one bulletin — `/seasons/<season>/<segment>/` with its three downloads, and

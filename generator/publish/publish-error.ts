@@ -1,4 +1,5 @@
 /**
+ * Step: all of them (the one error type).
  * The one error type of the publishing step. `exitCode` follows the command-line contract:
  * 1 when the data would produce a wrong or unsafe publication (an archived page would change,
  * an id is not a slug), 2 when the request itself cannot be carried out (an output folder we

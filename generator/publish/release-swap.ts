@@ -1,4 +1,5 @@
 /**
+ * Step: swap (the release folder made current in one step).
  * Atomic publishing of a built site into the output folder.
  *
  * Design: the output path (`--out`, e.g. `dist`) is a symbolic link to a complete, never

@@ -1,4 +1,5 @@
 /**
+ * Step: swap (removing work folders and retired releases).
  * Deleting large folder trees on a worker thread. A recursive delete through fs/promises sends
  * every unlink through libuv's small thread pool, and while tens of thousands of them wait there,
  * every other file call of the build waits behind them. On a thread of its own, with

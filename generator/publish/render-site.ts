@@ -1,4 +1,5 @@
 /**
+ * Step: render (pages and downloads side by side).
  * The site's files for a model folder: Astro's pages (astro-render.ts) and, written at the same
  * time by this process, the data downloads of each bulletin (write-downloads.ts). The downloads
  * go to a folder of their own first and are moved in once Astro has finished, so the two never

@@ -1,4 +1,5 @@
 /**
+ * Step: check (output paths, wherever a file is written).
  * Output paths that cannot leave the output folder. Ids that become folder names (segment ids,
  * season ids) must be slugs; every path is also resolved and checked to lie inside its root,
  * so a hostile id that slipped past the slug rule still cannot write elsewhere.

@@ -1,4 +1,5 @@
 /**
+ * Step: render (the search index).
  * The site's search index, in parts. Pagefind indexes the pages that ask for it (marked
  * `data-pagefind-body`: the current season's bulletins); the pages are shared among parts by a
  * hash of their path, each part is a pagefind index of its own under `search-index/<part>/`, and

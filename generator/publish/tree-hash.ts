@@ -1,4 +1,5 @@
 /**
+ * Step: swap (the manifest of a release; used by the other steps to compare trees).
  * Content hashes of a folder tree: every regular file's SHA-256 and size, keyed by its path
  * relative to the root with forward slashes, sorted by that path (code-unit order, the same on
  * every machine). The publishing step writes this list as `manifest.json`; the reproducibility

@@ -1,4 +1,5 @@
 /**
+ * Step: render (the downloads).
  * The data downloads of each bulletin, written straight from the model folder (no page is
  * rendered for them):
  *   seasons/<season>/<segment>/bulletin.json     the bulletin's model file, byte for byte (a hard

@@ -6,7 +6,7 @@
  *
  * The key covers everything the drift reader reads: each drift resource's descriptor and the
  * SHA-256 of its file, the loaded segments and the `seasons` and `drift` settings. A store adds
- * its own fingerprint of the reading code (see generator/publish/drift-cache.ts).
+ * its own fingerprint of the reading code (see generator/publish/cache/drift-figures.ts).
  */
 import { createHash } from 'node:crypto';
 import type { ValidationIssue } from '../model/types.ts';

@@ -16,7 +16,8 @@ import { decideDirection, directionIfClear, directionWithQ, trendScore, trendSlo
 import { statsTrendEngine } from '../../generator/model/trend-engine.ts';
 import { writeModel } from '../../generator/model/write-model.ts';
 import { listFiles } from '../../generator/publish/tree-hash.ts';
-import { bulletinMemoFolder, modelMemoFile, openModelMemo } from '../../generator/publish/model-memo.ts';
+import { bulletinShelf, openModelMemo, regionalShelf, summaryShelf } from '../../generator/publish/cache/model-memo.ts';
+import { shelfFile } from '../../generator/publish/cache/result-cache.ts';
 import { loadScenario } from '../../generator/read/load-scenario.ts';
 import type { LoadedScenario } from '../../generator/scenario/types.ts';
 import type { TrendResult } from '../../generator/stats/types.ts';
@@ -80,7 +81,7 @@ describe('assembleModelWithMemo', () => {
     expectSameFiles(await memoFiles(set), reference);
     expect(set.counts.bulletinsReused).toBe(0);
     expect(set.counts.bulletinsComposed).toBe(set.bulletins.length);
-    expect((await readdir(path.join(cache, bulletinMemoFolder))).length).toBe(set.bulletins.length);
+    expect((await readdir(path.join(cache, bulletinShelf))).length).toBe(set.bulletins.length);
   });
 
   test('unchanged data: everything from the memo, same files', async () => {
@@ -110,8 +111,8 @@ describe('assembleModelWithMemo', () => {
   test('a damaged memo file is not used: the bulletin is composed again', async () => {
     const cache = path.join(dir, 'damaged');
     await buildWithMemo(copy(demo), cache);
-    const names = (await readdir(path.join(cache, bulletinMemoFolder))).sort();
-    await writeFile(path.join(cache, bulletinMemoFolder, names[0] as string), '{"damaged": true}\n');
+    const names = (await readdir(path.join(cache, bulletinShelf))).sort();
+    await writeFile(path.join(cache, bulletinShelf, names[0] as string), '{"damaged": true}\n');
     const set = await buildWithMemo(copy(demo), cache);
     expectSameFiles(await memoFiles(set), reference);
     expect(set.counts.bulletinsComposed).toBe(1);
@@ -126,10 +127,10 @@ describe('assembleModelWithMemo', () => {
     expect(set.counts.seriesReused).toBe(0);
   });
 
-  test('an unreadable memo file counts as empty', async () => {
+  test('unreadable memo files count as empty', async () => {
     const cache = path.join(dir, 'unreadable');
     await buildWithMemo(copy(demo), cache);
-    await writeFile(path.join(cache, modelMemoFile), '{ not json');
+    for (const shelf of [summaryShelf, regionalShelf, bulletinShelf]) await writeFile(shelfFile(cache, shelf), '{ not json');
     const set = await buildWithMemo(copy(demo), cache);
     expectSameFiles(await memoFiles(set), reference);
     expect(set.counts.bulletinsReused).toBe(0);

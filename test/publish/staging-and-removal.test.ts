@@ -10,7 +10,7 @@ import path from 'node:path';
 import { afterEach, beforeEach, expect, test } from 'vitest';
 import { placeStaged } from '../../generator/publish/page-reuse.ts';
 import { removeInWorker } from '../../generator/publish/remove-in-worker.ts';
-import { modelFingerprint } from '../../generator/publish/model-memo.ts';
+import { modelFingerprint } from '../../generator/publish/cache/model-memo.ts';
 import { listFiles } from '../../generator/publish/tree-hash.ts';
 import { packageRoot } from './helpers/cli-build.ts';
 

@@ -7,7 +7,8 @@ import { afterEach, beforeEach, expect, test } from 'vitest';
 import type { TrendEngine } from '../../generator/model/evaluate-season.ts';
 import { statsTrendEngine } from '../../generator/model/trend-engine.ts';
 import type { SeriesPoint, TrendOptions } from '../../generator/stats/types.ts';
-import { openTrendCache, statisticsFingerprint, trendCacheFile } from '../../generator/publish/trend-cache.ts';
+import { openTrendCache, statisticsFingerprint, trendShelf } from '../../generator/publish/cache/trend-results.ts';
+import { shelfFile } from '../../generator/publish/cache/result-cache.ts';
 import { packageRoot } from '../../generator/publish/astro-render.ts';
 
 let dir: string;
@@ -61,7 +62,7 @@ test('another series, other options or another fingerprint are computed afresh',
 });
 
 test('a damaged cache file is ignored', async () => {
-  await writeFile(path.join(dir, trendCacheFile), '{ not json');
+  await writeFile(shelfFile(dir, trendShelf), '{ not json');
   const cache = await openTrendCache(dir, 'f1', statsTrendEngine);
   expect(cache.engine.analyze([...series], options).n).toBe(10);
   await cache.save();

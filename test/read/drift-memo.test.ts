@@ -8,7 +8,8 @@ import path from 'node:path';
 import { gunzipSync, gzipSync } from 'node:zlib';
 import { afterEach, beforeEach, expect, test } from 'vitest';
 import { loadScenario } from '../../generator/read/load-scenario.ts';
-import { openDriftCache, readingFingerprint } from '../../generator/publish/drift-cache.ts';
+import { driftShelf, openDriftCache, readingFingerprint } from '../../generator/publish/cache/drift-figures.ts';
+import { shelfFile } from '../../generator/publish/cache/result-cache.ts';
 import { packageRoot } from '../../generator/publish/astro-render.ts';
 
 const demo = path.join(packageRoot, 'content', 'demo');
@@ -23,11 +24,11 @@ afterEach(async () => {
 test('a remembered drift reading equals a fresh one, issues and counts included', async () => {
   const fingerprint = await readingFingerprint(packageRoot, 'test');
   const fresh = await loadScenario(demo);
-  const first = openDriftCache(path.join(dir, 'cache'), fingerprint);
+  const first = await openDriftCache(path.join(dir, 'cache'), fingerprint);
   const filled = await loadScenario(demo, { driftMemo: first });
   expect(first.reused()).toBe(false);
   await first.save();
-  const second = openDriftCache(path.join(dir, 'cache'), fingerprint);
+  const second = await openDriftCache(path.join(dir, 'cache'), fingerprint);
   const remembered = await loadScenario(demo, { driftMemo: second });
   expect(second.reused()).toBe(true);
   expect(fresh.drift).not.toBeNull();
@@ -41,10 +42,10 @@ test('another code fingerprint or a changed drift file reads the positions again
   const scenario = path.join(dir, 'scenario');
   await cp(demo, scenario, { recursive: true });
   const cacheDir = path.join(dir, 'cache');
-  const memo1 = openDriftCache(cacheDir, 'code-1');
+  const memo1 = await openDriftCache(cacheDir, 'code-1');
   await loadScenario(scenario, { driftMemo: memo1 });
   await memo1.save();
-  const otherCode = openDriftCache(cacheDir, 'code-2');
+  const otherCode = await openDriftCache(cacheDir, 'code-2');
   await loadScenario(scenario, { driftMemo: otherCode });
   expect(otherCode.reused()).toBe(false);
   await otherCode.save();
@@ -59,31 +60,31 @@ test('another code fingerprint or a changed drift file reads the positions again
   const lines = text.split('\n');
   lines[1] = `${lines[1]} `; // a trailing blank changes the bytes, not the value
   await writeFile(file, gz ? gzipSync(lines.join('\n')) : lines.join('\n'));
-  const changed = openDriftCache(cacheDir, 'code-2');
+  const changed = await openDriftCache(cacheDir, 'code-2');
   await loadScenario(scenario, { driftMemo: changed });
   expect(changed.reused()).toBe(false);
   await changed.save();
-  const again = openDriftCache(cacheDir, 'code-2');
+  const again = await openDriftCache(cacheDir, 'code-2');
   await loadScenario(scenario, { driftMemo: again });
   expect(again.reused()).toBe(true);
 });
 
 test('nothing is written until the build says so', async () => {
   const cacheDir = path.join(dir, 'cache');
-  const memo = openDriftCache(cacheDir, 'code-1');
+  const memo = await openDriftCache(cacheDir, 'code-1');
   await loadScenario(demo, { driftMemo: memo });
-  await expect(readFile(path.join(cacheDir, 'drift-figures.json'))).rejects.toThrow();
+  await expect(readFile(shelfFile(cacheDir, driftShelf))).rejects.toThrow();
   await memo.save();
-  expect((await readFile(path.join(cacheDir, 'drift-figures.json'))).length).toBeGreaterThan(0);
+  expect((await readFile(shelfFile(cacheDir, driftShelf))).length).toBeGreaterThan(0);
 });
 
 test('a damaged memo file is ignored', async () => {
   const cacheDir = path.join(dir, 'cache');
-  const memo = openDriftCache(cacheDir, 'code-1');
+  const memo = await openDriftCache(cacheDir, 'code-1');
   await loadScenario(demo, { driftMemo: memo });
   await memo.save();
-  await writeFile(path.join(cacheDir, 'drift-figures.json'), '{ not json');
-  const after = openDriftCache(cacheDir, 'code-1');
+  await writeFile(shelfFile(cacheDir, driftShelf), '{ not json');
+  const after = await openDriftCache(cacheDir, 'code-1');
   const loaded = await loadScenario(demo, { driftMemo: after });
   expect(after.reused()).toBe(false);
   expect(loaded.drift).toEqual((await loadScenario(demo)).drift);
