@@ -99,7 +99,7 @@ describe('renderIndicatorChart', () => {
     const titles = [...document.querySelectorAll('title')].map((t) => t.textContent ?? '');
     const censored = indicator.observations.filter((o) => o.censored).length;
     expect(censored).toBeGreaterThan(0);
-    expect(titles.filter((t) => t.includes('below detection limit')).length).toBe(censored);
+    expect(titles.filter((t) => t.includes("below the lab's detection limit (")).length).toBe(censored);
     expect(titles.length).toBe(indicator.observations.filter((o) => o.value !== null).length);
   });
 
