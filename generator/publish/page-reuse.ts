@@ -176,7 +176,9 @@ export async function computeRenderKeys(modelDir: string, fingerprint: string, h
   const current = seasons.find((s) => s.current)?.id ?? '';
   const files = bulletinFiles(modelDir, seasons.map((s) => s.id));
   const fileHashes = hashes ?? (await modelFileHashes(modelDir));
-  const shared = sha256(keyScheme, fingerprint, JSON.stringify(seasons), current, files.map((f) => f.id).join('\n'));
+  // land drawn under every locator map (site.json "map"): other land, every bulletin page again
+  const siteMap = (JSON.parse(readFileSync(path.join(modelDir, 'site.json'), 'utf8')) as { map?: unknown }).map ?? null;
+  const shared = sha256(keyScheme, fingerprint, JSON.stringify(seasons), current, files.map((f) => f.id).join('\n'), sha256(JSON.stringify(siteMap)));
   const regionKeys = new Map<string, string>();
   for (const season of new Set(files.map((f) => f.season))) {
     const text = await readFile(path.join(modelDir, 'regions', `${season}.json`), 'utf8').catch(() => null);
