@@ -28,6 +28,7 @@ export interface ErrorData {
 /** Shows a value in a message: quoted, control characters made visible, long text shortened. */
 export function quoteValue(value: string | null | undefined): string {
   if (value === null || value === undefined) return '(nothing)';
+  // biome-ignore lint/suspicious/noControlCharactersInRegex: control and direction characters are made visible on purpose
   const visible = value.replace(/[\u0000-\u001f\u007f\u061c\u200e\u200f\u202a-\u202e\u2066-\u2069]/g, (c) => `\\u${c.charCodeAt(0).toString(16).padStart(4, '0')}`);
   const short = visible.length > 80 ? `${visible.slice(0, 77)}...` : visible;
   return `"${short}"`;

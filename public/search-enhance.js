@@ -50,4 +50,5 @@ async function start() {
   });
 }
 
-start();
+// An enhancement only: if the index cannot load, the plain list of segments stays as it is.
+start().catch(() => {});

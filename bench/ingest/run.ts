@@ -85,11 +85,11 @@ async function writePositions(path: string, count: number, seed: number): Promis
       if (chunk.length > 4_000_000) {
         const wait = write(chunk);
         chunk = '';
-        if (wait) await wait;
+        if (wait !== null) await wait;
       }
     }
     const wait = write(chunk);
-    if (wait) await wait;
+    if (wait !== null) await wait;
   }
   await new Promise<void>((resolve) => out.end(() => resolve()));
 }

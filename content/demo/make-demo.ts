@@ -341,7 +341,13 @@ async function runFromCommandLine(argv: string[]): Promise<number> {
 }
 
 if (process.argv[1] && resolve(process.argv[1]) === fileURLToPath(import.meta.url)) {
-  runFromCommandLine(process.argv.slice(2)).then((code) => {
-    process.exitCode = code;
-  });
+  runFromCommandLine(process.argv.slice(2)).then(
+    (code) => {
+      process.exitCode = code;
+    },
+    (error: unknown) => {
+      console.error(error);
+      process.exitCode = 1;
+    },
+  );
 }

@@ -37,6 +37,7 @@ export function fillApproval(html: string, approval: Approval): string {
 /** A name fit for the record: one line, printable, 1–120 characters. */
 export function checkApprover(by: string): string {
   const name = by.trim();
+  // biome-ignore lint/suspicious/noControlCharactersInRegex: an approver's name may hold no control character
   if (name.length === 0 || name.length > 120 || /[\u0000-\u001f\u007f]/.test(name)) {
     throw new PublishError(`--by expects the approver's name on one line, 1 to 120 characters, got ${JSON.stringify(by)}`, 2);
   }

@@ -18,16 +18,11 @@ import { filter, filterWeight, presimplify, quantile, simplify, sphericalRingAre
 import type { Objects, Topology } from 'topojson-specification';
 import { LandShapeInvalid, LandUnreadable } from '../errors.ts';
 import type { IssueLog } from './issue-log.ts';
+import type { LandShapes } from '../scenario/types.ts';
 import { toFeatures } from './read-segments.ts';
 
 /** Land as read and simplified: one MultiPolygon, with vertex counts before and after; `coarse`
  * is a second, smaller simplification for the small whole-coast inset of locator maps. */
-export interface LandShapes {
-  geometry: MultiPolygon;
-  coarse: MultiPolygon;
-  verticesRead: number;
-  verticesKept: number;
-}
 
 /** Vertex budget of the drawn land (every map of every page draws it). */
 export const landVertexBudget = 4000;

@@ -6,7 +6,7 @@
  */
 import type { IndicatorId, SegmentKind, ShellfishUse, ValidationReport, AccumulationZone } from '../model/types.ts';
 import type { ScenarioSettings } from './settings.ts';
-import type { LandShapes } from '../read/read-land.ts';
+import type { MultiPolygon } from 'geojson';
 
 export interface Segment {
   id: string;
@@ -61,4 +61,12 @@ export interface LoadedScenario {
   drift: { arrivals: DriftArrivals[]; zones: { season: string; zones: AccumulationZone[] }[] } | null;
   inputs: InputFile[];
   report: ValidationReport;
+}
+
+/** Land polygons for the maps (the optional `land` resource, read by read/read-land.ts). */
+export interface LandShapes {
+  geometry: MultiPolygon;
+  coarse: MultiPolygon;
+  verticesRead: number;
+  verticesKept: number;
 }

@@ -179,8 +179,8 @@ describe.skipIf(!haveBrowser)('published site in a real browser', () => {
       const file = join(siteDir, 'segments', feature.properties.id, 'index.html');
       expect(existsSync(file), file).toBe(true);
       const html = readFileSync(file, 'utf8');
-      expect(html, feature.properties.id).toMatch(/class="map-figure"[^]*?<svg/);
-      expect(html, feature.properties.id).toMatch(/class="chart-figure"[^]*?(<svg|class="chart-empty")/);
+      expect(html, feature.properties.id).toMatch(/class="map-figure"[\s\S]*?<svg/);
+      expect(html, feature.properties.id).toMatch(/class="chart-figure"[\s\S]*?(<svg|class="chart-empty")/);
       // A drawn chart wherever some indicator has a non-zero value (an all-zero series is
       // stated in words instead, with its data table).
       const bulletin = JSON.parse(readFileSync(join(siteDir, 'seasons', '2026-autumn', feature.properties.id, 'bulletin.json'), 'utf8')) as {
