@@ -135,22 +135,36 @@ export async function makeScaleScenario(dir: string, options: ScaleOptions = {})
   await mkdir(join(dir, 'tables'), { recursive: true });
   await mkdir(join(dir, 'drift'), { recursive: true });
   const texts = new Map<string, string>();
-  texts.set('scenario.json', `${JSON.stringify(makeSettings({
-    regionId: 'scale-coast',
-    regionName: 'Scale test coast (invented)',
-    regionDescription: `An invented ${segmentCount}-segment coast for benchmarks. Invented for demonstration: no such place exists.`,
-    orgName: 'Scale Test',
-    seed,
-    monitoringStart: isoDate(firstSeason.startDay),
-  }), null, 2)}\n`);
-  texts.set('datapackage.json', `${JSON.stringify(makeDatapackage({
-    name: 'scale-test-coast',
-    title: 'Scale test scenario (invented)',
-    description: `${segmentCount} segments, ${years} years, about ${positionTarget} drift positions, for benchmarks.`,
-    created: '2026-12-01T00:00:00Z',
-    drift: 'positions',
-    land: true,
-  }), null, 2)}\n`);
+  texts.set(
+    'scenario.json',
+    `${JSON.stringify(
+      makeSettings({
+        regionId: 'scale-coast',
+        regionName: 'Scale test coast (invented)',
+        regionDescription: `An invented ${segmentCount}-segment coast for benchmarks. Invented for demonstration: no such place exists.`,
+        orgName: 'Scale Test',
+        seed,
+        monitoringStart: isoDate(firstSeason.startDay),
+      }),
+      null,
+      2,
+    )}\n`,
+  );
+  texts.set(
+    'datapackage.json',
+    `${JSON.stringify(
+      makeDatapackage({
+        name: 'scale-test-coast',
+        title: 'Scale test scenario (invented)',
+        description: `${segmentCount} segments, ${years} years, about ${positionTarget} drift positions, for benchmarks.`,
+        created: '2026-12-01T00:00:00Z',
+        drift: 'positions',
+        land: true,
+      }),
+      null,
+      2,
+    )}\n`,
+  );
   texts.set('segments.geojson', segmentsGeojson(segmentCount));
   texts.set('land.geojson', landGeojson(segmentCount));
   const tables = makeTables(seed, scaleRecipes(segmentCount), seasons);
@@ -250,7 +264,9 @@ async function runFromCommandLine(argv: string[]): Promise<number> {
   const seconds = (performance.now() - started) / 1000;
   for (const file of summary.files) process.stdout.write(`${file.path.padEnd(34)} ${file.bytes.toLocaleString('en-GB').padStart(14)} bytes\n`);
   const rows = summary.rows;
-  process.stdout.write(`segments ${summary.segments}; rows: beach litter ${rows.beachLitter}, water ${rows.water}, shellfish ${rows.shellfish}, wildlife ${rows.wildlife}, positions ${rows.positions}\n`);
+  process.stdout.write(
+    `segments ${summary.segments}; rows: beach litter ${rows.beachLitter}, water ${rows.water}, shellfish ${rows.shellfish}, wildlife ${rows.wildlife}, positions ${rows.positions}\n`,
+  );
   process.stdout.write(`written in ${seconds.toFixed(1)} s to ${summary.dir}\n`);
   return 0;
 }

@@ -80,8 +80,7 @@ export const SettingsUnreadable = {
 export const SettingsInvalid = {
   name: 'SettingsInvalid',
   title: 'Setting has a wrong value',
-  message: (file: string, jsonPath: string, value: string, expected: string) =>
-    `${file}, at ${jsonPath}: ${value} is not allowed; expected ${expected}`,
+  message: (file: string, jsonPath: string, value: string, expected: string) => `${file}, at ${jsonPath}: ${value} is not allowed; expected ${expected}`,
   hint: 'See schema/scenario.schema.json for every setting and its allowed values',
 } satisfies ErrorData;
 
@@ -142,24 +141,21 @@ export const DelimiterMismatch = {
 export const HeaderMissingColumn = {
   name: 'HeaderMissingColumn',
   title: 'Column missing from the header',
-  message: (file: string, column: string, header: string) =>
-    `${file} row 1, column ${column}: the header has no column ${quoteValue(column)}; found ${quoteValue(header)}`,
+  message: (file: string, column: string, header: string) => `${file} row 1, column ${column}: the header has no column ${quoteValue(column)}; found ${quoteValue(header)}`,
   hint: 'The header row must name every field of the table schema, spelled exactly as in datapackage.json',
 } satisfies ErrorData;
 
 export const HeaderUnknownColumn = {
   name: 'HeaderUnknownColumn',
   title: 'Column not in the table schema',
-  message: (file: string, column: string) =>
-    `${file} row 1, column ${column}: the header names a column the table schema does not describe; it was ignored`,
+  message: (file: string, column: string) => `${file} row 1, column ${column}: the header names a column the table schema does not describe; it was ignored`,
   hint: 'Add the field to the schema in datapackage.json, or remove the column',
 } satisfies ErrorData;
 
 export const HeaderLooksLikeData = {
   name: 'HeaderLooksLikeData',
   title: 'First row is data, not a header',
-  message: (file: string, header: string) =>
-    `${file} row 1, column (header): the first row ${quoteValue(header)} looks like data; expected the column names of the table schema`,
+  message: (file: string, header: string) => `${file} row 1, column (header): the first row ${quoteValue(header)} looks like data; expected the column names of the table schema`,
   hint: 'Add a header row with the field names, or check that "header": true in the dialect is right',
 } satisfies ErrorData;
 
@@ -190,8 +186,7 @@ export const UnitMismatch = {
 export const RowWrongLength = {
   name: 'RowWrongLength',
   title: 'Row has a different number of cells',
-  message: (file: string, row: number, found: number, expected: number) =>
-    `${file} row ${row}, column (all): the row has ${found} cells; expected ${expected}`,
+  message: (file: string, row: number, found: number, expected: number) => `${file} row ${row}, column (all): the row has ${found} cells; expected ${expected}`,
   hint: 'A decimal comma in a comma-separated file, or a stray separator inside an unquoted name, splits a cell in two',
 } satisfies ErrorData;
 
@@ -206,8 +201,7 @@ export const RowTruncated = {
 export const QuoteNotClosed = {
   name: 'QuoteNotClosed',
   title: 'Quoted cell never closed',
-  message: (file: string, row: number, reason: string) =>
-    `${file} row ${row}, column (all): a quoted cell is never closed, so the rest of the file cannot be read (${reason})`,
+  message: (file: string, row: number, reason: string) => `${file} row ${row}, column (all): a quoted cell is never closed, so the rest of the file cannot be read (${reason})`,
   hint: 'Look for a lone double quote in a name or note',
 } satisfies ErrorData;
 
@@ -232,8 +226,7 @@ export const ValueMissing = {
 export const ValueWrongType = {
   name: 'ValueWrongType',
   title: 'Value of the wrong type',
-  message: (file: string, row: number, column: string, value: string, expected: string) =>
-    `${file} row ${row}, column ${column}: ${quoteValue(value)} is not ${expected}`,
+  message: (file: string, row: number, column: string, value: string, expected: string) => `${file} row ${row}, column ${column}: ${quoteValue(value)} is not ${expected}`,
   hint: 'Numbers use a decimal point unless the dialect declares "decimalChar": ","; dates are written YYYY-MM-DD',
 } satisfies ErrorData;
 
@@ -533,16 +526,14 @@ export class InputValidationError extends Error {
 export const ResourceOutsideScenario = {
   name: 'ResourceOutsideScenario',
   title: 'Resource resolves outside the scenario folder',
-  message: (file: string, resolved: string) =>
-    `${file}: this path leads through a symbolic link to ${resolved}, outside the scenario folder; it was not read`,
+  message: (file: string, resolved: string) => `${file}: this path leads through a symbolic link to ${resolved}, outside the scenario folder; it was not read`,
   hint: 'Copy the file into the scenario folder; links may only point to places inside it',
 } satisfies ErrorData;
 
 export const KeyForbidden = {
   name: 'KeyForbidden',
   title: 'Key that could alter objects is not allowed',
-  message: (file: string, path: string) =>
-    `${file}, at ${path}: the keys __proto__, constructor and prototype are not allowed in scenario files; the file was not used`,
+  message: (file: string, path: string) => `${file}, at ${path}: the keys __proto__, constructor and prototype are not allowed in scenario files; the file was not used`,
   hint: 'Remove the key; no setting or property of Wrackline has that name',
 } satisfies ErrorData;
 
@@ -563,8 +554,7 @@ export const InputTooLarge = {
 export const LineTooLong = {
   name: 'LineTooLong',
   title: 'Line longer than any table row',
-  message: (file: string, row: number, limit: string) =>
-    `${file} row ${row}, column (all): the row is longer than ${limit} (no line end found); reading stopped here`,
+  message: (file: string, row: number, limit: string) => `${file} row ${row}, column (all): the row is longer than ${limit} (no line end found); reading stopped here`,
   hint: 'Check the line ends and quotes of the file; a row of a monitoring table is a few hundred characters',
 } satisfies ErrorData;
 

@@ -22,8 +22,12 @@ console.log(`fuzzing ${kinds.length} readers, ${runs.toLocaleString('en-GB')} in
 for (const kind of kinds) {
   const t0 = performance.now();
   const tally = await fuzzReader(kind, runs, seed, concurrency);
-  const exits = Object.entries(tally.exits).map(([code, n]) => `exit ${code}: ${n}`).join(', ');
-  console.log(`${kind.padEnd(9)} inputs tried ${tally.tried.toLocaleString('en-GB')}  crashes ${tally.crashes}  escapes ${tally.escapes}  losses ${tally.losses}  (${exits}; ${((performance.now() - t0) / 1000).toFixed(0)} s)`);
+  const exits = Object.entries(tally.exits)
+    .map(([code, n]) => `exit ${code}: ${n}`)
+    .join(', ');
+  console.log(
+    `${kind.padEnd(9)} inputs tried ${tally.tried.toLocaleString('en-GB')}  crashes ${tally.crashes}  escapes ${tally.escapes}  losses ${tally.losses}  (${exits}; ${((performance.now() - t0) / 1000).toFixed(0)} s)`,
+  );
   for (const example of tally.examples) console.log(`    ${example}`);
   bad += tally.crashes + tally.escapes + tally.losses;
 }

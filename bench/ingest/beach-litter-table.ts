@@ -18,7 +18,14 @@ import { fileURLToPath } from 'node:url';
 import { parseArgs } from 'node:util';
 import { createSeededRandom } from '../../generator/random/seeded-random.ts';
 
-const { values } = parseArgs({ options: { rows: { type: 'string', default: '5000000' }, 'skip-check': { type: 'boolean', default: false }, 'skip-build': { type: 'boolean', default: false }, keep: { type: 'boolean', default: false } } });
+const { values } = parseArgs({
+  options: {
+    rows: { type: 'string', default: '5000000' },
+    'skip-check': { type: 'boolean', default: false },
+    'skip-build': { type: 'boolean', default: false },
+    keep: { type: 'boolean', default: false },
+  },
+});
 const rows = Number(values.rows);
 const root = path.resolve(fileURLToPath(new URL('../..', import.meta.url)));
 const work = mkdtempSync(path.join(tmpdir(), 'wrackline-bench-table-'));
@@ -64,7 +71,11 @@ async function writeTable(file: string): Promise<void> {
 
 function run(args: string[]): Promise<{ code: number | null; seconds: number; peakMiB: number; tail: string }> {
   const started = performance.now();
-  const child = spawn(process.execPath, [path.join(root, 'bin', 'wrackline.mjs'), ...args], { cwd: root, env: { ...process.env, CI: 'true', ASTRO_TELEMETRY_DISABLED: '1' }, stdio: ['ignore', 'pipe', 'pipe'] });
+  const child = spawn(process.execPath, [path.join(root, 'bin', 'wrackline.mjs'), ...args], {
+    cwd: root,
+    env: { ...process.env, CI: 'true', ASTRO_TELEMETRY_DISABLED: '1' },
+    stdio: ['ignore', 'pipe', 'pipe'],
+  });
   let peak = 0;
   const sampler = setInterval(() => {
     if (child.pid) peak = Math.max(peak, treeRssKiB(child.pid));
@@ -72,16 +83,22 @@ function run(args: string[]): Promise<{ code: number | null; seconds: number; pe
   let output = '';
   child.stdout.on('data', (c: Buffer) => (output += c.toString()));
   child.stderr.on('data', (c: Buffer) => (output += c.toString()));
-  return new Promise((resolve) => child.on('close', (code) => {
-    clearInterval(sampler);
-    resolve({ code, seconds: (performance.now() - started) / 1000, peakMiB: peak / 1024, tail: output.split('\n').slice(-6).join('\n') });
-  }));
+  return new Promise((resolve) =>
+    child.on('close', (code) => {
+      clearInterval(sampler);
+      resolve({ code, seconds: (performance.now() - started) / 1000, peakMiB: peak / 1024, tail: output.split('\n').slice(-6).join('\n') });
+    }),
+  );
 }
 
 const table = path.join(scenario, 'tables', 'beach-litter.csv');
 let t0 = performance.now();
 await writeTable(table);
-console.log(`machine: ${cpus().length} cores, load ${loadavg().map((l) => l.toFixed(1)).join(' ')}`);
+console.log(
+  `machine: ${cpus().length} cores, load ${loadavg()
+    .map((l) => l.toFixed(1))
+    .join(' ')}`,
+);
 console.log(`table: ${rows.toLocaleString('en-GB')} rows, ${(statSync(table).size / 1024 / 1024).toFixed(0)} MB, written in ${((performance.now() - t0) / 1000).toFixed(1)} s`);
 t0 = performance.now();
 if (!values['skip-check']) {

@@ -94,7 +94,12 @@ async function writePositions(path: string, count: number, seed: number): Promis
   await new Promise<void>((resolve) => out.end(() => resolve()));
 }
 
-interface StepResult { wallSeconds: number; cpuSeconds: number; peakMegabytes: number; output: string }
+interface StepResult {
+  wallSeconds: number;
+  cpuSeconds: number;
+  peakMegabytes: number;
+  output: string;
+}
 
 function runStep(args: string[]): StepResult {
   const started = performance.now();
@@ -118,12 +123,20 @@ const t0 = performance.now();
 const coastKm = writeSegments();
 await writePositions(join(dir, 'positions.csv'), positionCount, 7);
 const created = (performance.now() - t0) / 1000;
-console.log(`created ${segmentCount.toLocaleString('en-GB')} segments (${coastKm} km of coast) and ${positionCount.toLocaleString('en-GB')} positions (${mb(statSync(join(dir, 'positions.csv')).size)} CSV) in ${created.toFixed(1)} s  [${dir}]`);
+console.log(
+  `created ${segmentCount.toLocaleString('en-GB')} segments (${coastKm} km of coast) and ${positionCount.toLocaleString('en-GB')} positions (${mb(statSync(join(dir, 'positions.csv')).size)} CSV) in ${created.toFixed(1)} s  [${dir}]`,
+);
 
 const assign = runStep(['assign', dir]);
 console.log(`assignment: ${assign.output}`);
-console.log(`  wall time ${assign.wallSeconds.toFixed(1)} s (target < 30 s; includes starting the child process), CPU time ${assign.cpuSeconds.toFixed(1)} s, peak memory ${assign.peakMegabytes.toFixed(0)} MB (target < 1024 MB)`);
-console.log(`  load average while measuring: ${loadavg().map((v) => v.toFixed(1)).join(' ')} on ${cpus().length} cores`);
+console.log(
+  `  wall time ${assign.wallSeconds.toFixed(1)} s (target < 30 s; includes starting the child process), CPU time ${assign.cpuSeconds.toFixed(1)} s, peak memory ${assign.peakMegabytes.toFixed(0)} MB (target < 1024 MB)`,
+);
+console.log(
+  `  load average while measuring: ${loadavg()
+    .map((v) => v.toFixed(1))
+    .join(' ')} on ${cpus().length} cores`,
+);
 
 if (bigBytes > 0) {
   const bigPath = join(dir, 'big-positions.csv');
@@ -136,4 +149,3 @@ if (bigBytes > 0) {
   console.log(`streamed read: ${big.output}`);
   console.log(`  wall time ${big.wallSeconds.toFixed(1)} s, CPU time ${big.cpuSeconds.toFixed(1)} s, peak memory ${big.peakMegabytes.toFixed(0)} MB for a ${mb(size)} file`);
 }
-

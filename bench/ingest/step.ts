@@ -25,7 +25,13 @@ if (mode === 'assign' && target) {
   const started = performance.now();
   const segments = await readSegments(join(target, 'segments.geojson'), 'segments.geojson', log);
   const tally = new DriftTally(segments, settings.seasons, settings.drift.arrivalDistanceKm);
-  await readPositionsCsv({ absolutePath: join(target, 'positions.csv'), file: 'positions.csv', compression: null, log, onPosition: (particle, timeMs, lon, lat, ashore) => tally.add(particle, timeMs, lon, lat, ashore) });
+  await readPositionsCsv({
+    absolutePath: join(target, 'positions.csv'),
+    file: 'positions.csv',
+    compression: null,
+    log,
+    onPosition: (particle, timeMs, lon, lat, ashore) => tally.add(particle, timeMs, lon, lat, ashore),
+  });
   const readSeconds = (performance.now() - started) / 1000;
   const result = summariseTally(tally, segments, settings);
   const totalSeconds = (performance.now() - started) / 1000;

@@ -142,8 +142,12 @@ function report(title: string, figures: BuildFigures, targetSeconds: number): vo
   for (const phase of figures.phases) {
     console.log(`  ${phase.phase.padEnd(12)} ${phase.seconds.toFixed(1).padStart(7)} s  ${phase.detail}`);
   }
-  console.log(`  ${'total wall'.padEnd(12)} ${figures.wallSeconds.toFixed(1).padStart(7)} s  (target < ${targetSeconds} s: ${figures.wallSeconds < targetSeconds ? 'met' : 'NOT met'})`);
-  console.log(`  ${'peak memory'.padEnd(12)} ${figures.peakTreeMiB.toFixed(0).padStart(7)} MiB of the build's process tree (target < 2048 MiB: ${figures.peakTreeMiB < 2048 ? 'met' : 'NOT met'})`);
+  console.log(
+    `  ${'total wall'.padEnd(12)} ${figures.wallSeconds.toFixed(1).padStart(7)} s  (target < ${targetSeconds} s: ${figures.wallSeconds < targetSeconds ? 'met' : 'NOT met'})`,
+  );
+  console.log(
+    `  ${'peak memory'.padEnd(12)} ${figures.peakTreeMiB.toFixed(0).padStart(7)} MiB of the build's process tree (target < 2048 MiB: ${figures.peakTreeMiB < 2048 ? 'met' : 'NOT met'})`,
+  );
   if (figures.summary) console.log(`  ${figures.summary}`);
 }
 
@@ -200,7 +204,9 @@ if (values.reuse && existsSync(path.join(scenario, 'datapackage.json'))) {
   const made = await makeScaleScenario(scenario, options);
   console.log(
     `scenario written in ${((performance.now() - started) / 1000).toFixed(1)} s: ${made.segments} segments, ` +
-      `${Object.entries(made.rows).map(([name, count]) => `${name} ${count.toLocaleString('en-GB')}`).join(', ')}`,
+      `${Object.entries(made.rows)
+        .map(([name, count]) => `${name} ${count.toLocaleString('en-GB')}`)
+        .join(', ')}`,
   );
 }
 

@@ -23,10 +23,21 @@ if (mode === 'trend') {
   const sen = sensSlope(t, y, { varS: mk.varS });
   const end = performance.now();
   const cpu = process.cpuUsage(cpuStart);
-  console.log(JSON.stringify({
-    n, mkMs: mkDone - start, senMs: end - mkDone, totalMs: end - start, cpuMs: (cpu.user + cpu.system) / 1000,
-    peakRssMB: process.resourceUsage().maxRSS / 1024, S: mk.S, tau: mk.tau, slope: sen.slope, lower: sen.lower, upper: sen.upper,
-  }));
+  console.log(
+    JSON.stringify({
+      n,
+      mkMs: mkDone - start,
+      senMs: end - mkDone,
+      totalMs: end - start,
+      cpuMs: (cpu.user + cpu.system) / 1000,
+      peakRssMB: process.resourceUsage().maxRSS / 1024,
+      S: mk.S,
+      tau: mk.tau,
+      slope: sen.slope,
+      lower: sen.lower,
+      upper: sen.upper,
+    }),
+  );
 } else if (mode === 'band') {
   const n = Number(first);
   const resamples = Number(second);
@@ -37,7 +48,17 @@ if (mode === 'trend') {
   const band = trendBand(t, y, { resamples, seed: 42 });
   const end = performance.now();
   const cpu = process.cpuUsage(cpuStart);
-  console.log(JSON.stringify({ n, resamples, ms: end - start, cpuMs: (cpu.user + cpu.system) / 1000, peakRssMB: process.resourceUsage().maxRSS / 1024, probabilityUp: band?.probabilityUp, blockLength: band?.band.blockLength }));
+  console.log(
+    JSON.stringify({
+      n,
+      resamples,
+      ms: end - start,
+      cpuMs: (cpu.user + cpu.system) / 1000,
+      peakRssMB: process.resourceUsage().maxRSS / 1024,
+      probabilityUp: band?.probabilityUp,
+      blockLength: band?.band.blockLength,
+    }),
+  );
 } else {
   console.error('usage: engine-child.ts trend FILE.bin | band N RESAMPLES');
   process.exit(2);

@@ -68,8 +68,12 @@ try {
 const engine = (args: string[]) => timed(node, [...engineEntry, ...args]);
 const scipy = (mode: string, file: string) => timed(python, [join(here, 'scipy-child.py'), mode, file]);
 
-console.log(`Wrackline trend bench — Node ${process.version}, ${cpus().length} cores, load average ${loadavg().map((l) => l.toFixed(2)).join(' ')}`);
-console.log('(wall-clock times rise with the machine\'s load; CPU time of the work is shown beside them)');
+console.log(
+  `Wrackline trend bench — Node ${process.version}, ${cpus().length} cores, load average ${loadavg()
+    .map((l) => l.toFixed(2))
+    .join(' ')}`,
+);
+console.log("(wall-clock times rise with the machine's load; CPU time of the work is shown beside them)");
 const withScipy = hasScipy();
 if (!withScipy) console.log(`SciPy not found at ${python}: SciPy columns skipped`);
 else console.log(`SciPy ${execFileSync(python, ['-c', 'import scipy; print(scipy.__version__)'], { encoding: 'utf8' }).trim()} at ${python}`);
@@ -117,8 +121,15 @@ if (withScipy) {
 
 console.log('\nBootstrap band (moving-block, Theil–Sen refits)');
 const band = engine(['band', '500', '1000']);
-if (band.json) console.log(`n = 500, 1,000 resamples: ${fmt(band.json['ms'] as number)} (CPU time ${fmt(band.json['cpuMs'] as number)}; whole process ${fmt(band.wallMs)}, peak RSS ${(band.json['peakRssMB'] as number).toFixed(0)} MB, block length ${band.json['blockLength']})`);
+if (band.json)
+  console.log(
+    `n = 500, 1,000 resamples: ${fmt(band.json['ms'] as number)} (CPU time ${fmt(band.json['cpuMs'] as number)}; whole process ${fmt(band.wallMs)}, peak RSS ${(band.json['peakRssMB'] as number).toFixed(0)} MB, block length ${band.json['blockLength']})`,
+  );
 else console.log(`band failed: ${band.error}`);
 
-console.log(`\nload average at the end: ${loadavg().map((l) => l.toFixed(2)).join(' ')}`);
+console.log(
+  `\nload average at the end: ${loadavg()
+    .map((l) => l.toFixed(2))
+    .join(' ')}`,
+);
 rmSync(folder, { recursive: true, force: true });

@@ -54,7 +54,9 @@ const sites: RegionalSite[] = Array.from({ length: siteCount }, (_, i) => ({ sit
 let started = performance.now();
 const regional = regionalKendall(sites, { confidence: 0.95 });
 const regionalMs = performance.now() - started;
-console.log(`regional Kendall, ${siteCount} sites: ${(regionalMs / 1000).toFixed(2)} s  (varSCovariance ${regional?.varSCovariance}, pCovariance ${regional?.pCovariance}; digest ${digest(regional)})`);
+console.log(
+  `regional Kendall, ${siteCount} sites: ${(regionalMs / 1000).toFixed(2)} s  (varSCovariance ${regional?.varSCovariance}, pCovariance ${regional?.pCovariance}; digest ${digest(regional)})`,
+);
 
 if (process.argv.includes('--oracle')) {
   // the previous all-pairs covariance sum over the same cycle table (sites as seasons, cycles = years)
@@ -79,7 +81,9 @@ if (process.argv.includes('--oracle')) {
   started = performance.now();
   const fast = totalSeasonCovariance(cells);
   const fastMs = performance.now() - started;
-  console.log(`  covariance sum over ${siteCount} sites: all-pairs form (previous) ${(oracleMs / 1000).toFixed(2)} s, precomputed per site ${(fastMs / 1000).toFixed(3)} s; identical: ${fast === covariance} (${covariance})`);
+  console.log(
+    `  covariance sum over ${siteCount} sites: all-pairs form (previous) ${(oracleMs / 1000).toFixed(2)} s, precomputed per site ${(fastMs / 1000).toFixed(3)} s; identical: ${fast === covariance} (${covariance})`,
+  );
 }
 
 const series = Array.from({ length: seriesCount }, (_, i) => inventSeries(5000 + i));

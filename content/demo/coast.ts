@@ -28,11 +28,11 @@ interface Indentation {
 }
 
 const INDENTATIONS: Indentation[] = [
-  { centreY: 30, halfWidthKm: 3.6, depthKm: 5.5 },    // Ithmere Bay
-  { centreY: 13, halfWidthKm: 1.4, depthKm: 2.8 },    // Quarrow Harbour basin
-  { centreY: -5, halfWidthKm: 0.8, depthKm: 4.5 },    // Aldwen Estuary
-  { centreY: -23, halfWidthKm: 3.2, depthKm: 4.8 },   // Morrin Bay
-  { centreY: -41, halfWidthKm: 2.2, depthKm: 3.2 },   // Osselin Bay
+  { centreY: 30, halfWidthKm: 3.6, depthKm: 5.5 }, // Ithmere Bay
+  { centreY: 13, halfWidthKm: 1.4, depthKm: 2.8 }, // Quarrow Harbour basin
+  { centreY: -5, halfWidthKm: 0.8, depthKm: 4.5 }, // Aldwen Estuary
+  { centreY: -23, halfWidthKm: 3.2, depthKm: 4.8 }, // Morrin Bay
+  { centreY: -41, halfWidthKm: 2.2, depthKm: 3.2 }, // Osselin Bay
 ];
 
 /** x (km east of the origin) of the mainland shore at northing y; land is to the east. */
@@ -192,8 +192,8 @@ export function landFeatureCollection(): object {
   const south = COAST_SOUTH_Y - 40;
   const north = COAST_NORTH_Y + 40;
   const mainland: [number, number][] = [];
-  for (let y = south; y <= north + 1e-9; y += 0.25) mainland.push(round(toLonLat(coastX(y), y)));   // south to north along the shore
-  mainland.push(round(toLonLat(80, north)), round(toLonLat(80, south)));                              // inland, then back south
+  for (let y = south; y <= north + 1e-9; y += 0.25) mainland.push(round(toLonLat(coastX(y), y))); // south to north along the shore
+  mainland.push(round(toLonLat(80, north)), round(toLonLat(80, south))); // inland, then back south
   mainland.push(mainland[0]!);
   // the shore runs south to north with land on the right (east), so the ring goes clockwise: reverse it
   mainland.reverse();

@@ -57,7 +57,7 @@ export interface DriftSetup {
 
 export interface PositionRow {
   particle: number;
-  day: number;              // day number (days since 1970-01-01 UTC), whole days
+  day: number; // day number (days since 1970-01-01 UTC), whole days
   lon: number;
   lat: number;
   ashore: boolean;

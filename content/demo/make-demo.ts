@@ -11,7 +11,21 @@ import { join, resolve } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { gzipSync } from 'node:zlib';
 import { writeNetcdf3 } from '../../generator/drift/netcdf3-writer.ts';
-import { coastX, landFeatureCollection, COAST_NORTH_Y, COAST_SOUTH_Y, ISLAND, islandPoint, onIsland, SEGMENT_PLANS, segmentsFeatureCollection, segmentLonLatLine, toLonLat, segmentLocalLine, localLength } from './coast.ts';
+import {
+  coastX,
+  landFeatureCollection,
+  COAST_NORTH_Y,
+  COAST_SOUTH_Y,
+  ISLAND,
+  islandPoint,
+  onIsland,
+  SEGMENT_PLANS,
+  segmentsFeatureCollection,
+  segmentLonLatLine,
+  toLonLat,
+  segmentLocalLine,
+  localLength,
+} from './coast.ts';
 import { runSeason, type DriftSetup, type PositionRow } from './drift.ts';
 import { makeTables, toCsv, TABLE_HEADERS, SEGMENT_RECIPES, BAD_ROWS } from './monitoring.ts';
 import { makeDatapackage, makeSettings } from './package-files.ts';
@@ -133,39 +147,75 @@ function trajectoriesNetcdf(rows: PositionRow[], epochDay: number, seasonId: str
       { name: 'comment', value: `Invented data for demonstration only. Particles ${firstParticle} to ${firstParticle + ids.length - 1} of the positions file.` },
     ],
     variables: [
-      { name: 'trajectory', type: 'int', dimensions: ['trajectory'], data: ids, attributes: [
-        { name: 'cf_role', value: 'trajectory_id' },
-        { name: 'long_name', value: 'particle number (as in positions.csv.gz)' },
-      ] },
-      { name: 'row_size', type: 'int', dimensions: ['trajectory'], data: sizes, attributes: [
-        { name: 'long_name', value: 'number of positions of this particle' },
-        { name: 'sample_dimension', value: 'obs' },
-      ] },
-      { name: 'time', type: 'double', dimensions: ['obs'], data: rows.map((row) => row.day - epochDay), attributes: [
-        { name: 'standard_name', value: 'time' },
-        { name: 'long_name', value: 'time of the position' },
-        { name: 'units', value: `days since ${epoch} 00:00:00` },
-        { name: 'calendar', value: 'standard' },
-        { name: 'axis', value: 'T' },
-      ] },
-      { name: 'lon', type: 'float', dimensions: ['obs'], data: rows.map((row) => row.lon), attributes: [
-        { name: 'standard_name', value: 'longitude' },
-        { name: 'long_name', value: 'longitude' },
-        { name: 'units', value: 'degrees_east' },
-        { name: 'axis', value: 'X' },
-      ] },
-      { name: 'lat', type: 'float', dimensions: ['obs'], data: rows.map((row) => row.lat), attributes: [
-        { name: 'standard_name', value: 'latitude' },
-        { name: 'long_name', value: 'latitude' },
-        { name: 'units', value: 'degrees_north' },
-        { name: 'axis', value: 'Y' },
-      ] },
-      { name: 'ashore', type: 'byte', dimensions: ['obs'], data: rows.map((row) => (row.ashore ? 1 : 0)), attributes: [
-        { name: 'long_name', value: 'particle has reached the shore' },
-        { name: 'flag_values', value: [0, 1], type: 'byte' },
-        { name: 'flag_meanings', value: 'drifting ashore' },
-        { name: 'coordinates', value: 'time lat lon' },
-      ] },
+      {
+        name: 'trajectory',
+        type: 'int',
+        dimensions: ['trajectory'],
+        data: ids,
+        attributes: [
+          { name: 'cf_role', value: 'trajectory_id' },
+          { name: 'long_name', value: 'particle number (as in positions.csv.gz)' },
+        ],
+      },
+      {
+        name: 'row_size',
+        type: 'int',
+        dimensions: ['trajectory'],
+        data: sizes,
+        attributes: [
+          { name: 'long_name', value: 'number of positions of this particle' },
+          { name: 'sample_dimension', value: 'obs' },
+        ],
+      },
+      {
+        name: 'time',
+        type: 'double',
+        dimensions: ['obs'],
+        data: rows.map((row) => row.day - epochDay),
+        attributes: [
+          { name: 'standard_name', value: 'time' },
+          { name: 'long_name', value: 'time of the position' },
+          { name: 'units', value: `days since ${epoch} 00:00:00` },
+          { name: 'calendar', value: 'standard' },
+          { name: 'axis', value: 'T' },
+        ],
+      },
+      {
+        name: 'lon',
+        type: 'float',
+        dimensions: ['obs'],
+        data: rows.map((row) => row.lon),
+        attributes: [
+          { name: 'standard_name', value: 'longitude' },
+          { name: 'long_name', value: 'longitude' },
+          { name: 'units', value: 'degrees_east' },
+          { name: 'axis', value: 'X' },
+        ],
+      },
+      {
+        name: 'lat',
+        type: 'float',
+        dimensions: ['obs'],
+        data: rows.map((row) => row.lat),
+        attributes: [
+          { name: 'standard_name', value: 'latitude' },
+          { name: 'long_name', value: 'latitude' },
+          { name: 'units', value: 'degrees_north' },
+          { name: 'axis', value: 'Y' },
+        ],
+      },
+      {
+        name: 'ashore',
+        type: 'byte',
+        dimensions: ['obs'],
+        data: rows.map((row) => (row.ashore ? 1 : 0)),
+        attributes: [
+          { name: 'long_name', value: 'particle has reached the shore' },
+          { name: 'flag_values', value: [0, 1], type: 'byte' },
+          { name: 'flag_meanings', value: 'drifting ashore' },
+          { name: 'coordinates', value: 'time lat lon' },
+        ],
+      },
     ],
   });
 }
@@ -183,22 +233,34 @@ export interface DemoSummary {
 /** Write the whole demo scenario folder into `outDir`. */
 export async function makeDemo(outDir: string, seed = DEMO_SEED): Promise<DemoSummary> {
   const files = new Map<string, string | Uint8Array>();
-  files.set('scenario.json', json(makeSettings({
-    regionId: REGION.id,
-    regionName: REGION.name,
-    regionDescription: 'An invented stretch of coast with sandy beaches, three shellfish-farming bays, a harbour town, an estuary and an offshore island. Invented for demonstration: no such place exists.',
-    orgName: REGION.org,
-    seed: 17,
-    monitoringStart: '2016-12-01',
-  })));
-  files.set('datapackage.json', json(makeDatapackage({
-    name: 'demo-tessavar-coast',
-    title: 'Tessavar Coast demonstration scenario (invented)',
-    description: 'Ten years (December 2016 to November 2026) of seasonal monitoring on thirty coastline segments of the invented Tessavar Coast, with a toy drift-model run for the last eight seasons.',
-    created: '2026-12-01T00:00:00Z',
-    drift: 'positions-and-trajectories',
-    land: true,
-  })));
+  files.set(
+    'scenario.json',
+    json(
+      makeSettings({
+        regionId: REGION.id,
+        regionName: REGION.name,
+        regionDescription:
+          'An invented stretch of coast with sandy beaches, three shellfish-farming bays, a harbour town, an estuary and an offshore island. Invented for demonstration: no such place exists.',
+        orgName: REGION.org,
+        seed: 17,
+        monitoringStart: '2016-12-01',
+      }),
+    ),
+  );
+  files.set(
+    'datapackage.json',
+    json(
+      makeDatapackage({
+        name: 'demo-tessavar-coast',
+        title: 'Tessavar Coast demonstration scenario (invented)',
+        description:
+          'Ten years (December 2016 to November 2026) of seasonal monitoring on thirty coastline segments of the invented Tessavar Coast, with a toy drift-model run for the last eight seasons.',
+        created: '2026-12-01T00:00:00Z',
+        drift: 'positions-and-trajectories',
+        land: true,
+      }),
+    ),
+  );
   files.set('segments.geojson', json(segmentsFeatureCollection()));
   files.set('land.geojson', json(landFeatureCollection()));
   const tables = makeTables(seed);

@@ -124,7 +124,13 @@ export const SEGMENT_RECIPES: SegmentRecipe[] = [
   },
   {
     segmentId: 'quarrow-harbour',
-    shows: ['beach litter step change (jump of about 2.6× from 2021-spring)', 'heavy litter, far above the threshold', 'high surface-water counts', 'Clean Coast Index data (narrow strip)', 'ingestion reports'],
+    shows: [
+      'beach litter step change (jump of about 2.6× from 2021-spring)',
+      'heavy litter, far above the threshold',
+      'high surface-water counts',
+      'Clean Coast Index data (narrow strip)',
+      'ingestion reports',
+    ],
     beach: { series: { level: 130, step: { fromSeason: 17, factor: 2.6 }, noise: 0.15 }, surveyedLengthM: 100, stripWidthM: 4, plasticShare: 0.86 },
     water: { level: 6, step: { fromSeason: 17, factor: 1.8 }, noise: 0.3, meshUm: 333 },
     wildlife: { startRate: 0.5, endRate: 0.8, entanglementShare: 0.3 },
@@ -201,7 +207,20 @@ export const SEGMENT_RECIPES: SegmentRecipe[] = [
   {
     segmentId: 'osselin-bay',
     shows: ['farmed oysters with a gappy record', 'surface water with autocorrelated noise'],
-    shellfish: { level: 0.4, noise: 0.25, species: 'Pacific oyster', detectionLimit: 0.05, sampling: { kind: 'gaps', gaps: [[4, 11], [24, 29]], skipChance: 0.25 } },
+    shellfish: {
+      level: 0.4,
+      noise: 0.25,
+      species: 'Pacific oyster',
+      detectionLimit: 0.05,
+      sampling: {
+        kind: 'gaps',
+        gaps: [
+          [4, 11],
+          [24, 29],
+        ],
+        skipChance: 0.25,
+      },
+    },
     water: { level: 0.7, ar1: 0.8, noise: 0.4, meshUm: 333 },
   },
   {
@@ -212,10 +231,7 @@ export const SEGMENT_RECIPES: SegmentRecipe[] = [
   },
   {
     segmentId: 'wendrel-point',
-    shows: [
-      'beach surveys only from 2019 to 2022 (about three times the 20 items/100 m threshold), none in the last four seasons: no level is set',
-      'drift-model arrivals',
-    ],
+    shows: ['beach surveys only from 2019 to 2022 (about three times the 20 items/100 m threshold), none in the last four seasons: no level is set', 'drift-model arrivals'],
     beach: {
       series: { level: 60, noise: 0.15, sampling: { kind: 'only', seasons: Array.from({ length: 16 }, (_, i) => 8 + i) } },
       surveyedLengthM: 100,
@@ -258,8 +274,8 @@ export const SEGMENT_RECIPES: SegmentRecipe[] = [
 
 export interface DrawnValue {
   season: DemoSeason;
-  day: number;             // day number of the sample
-  value: number;           // before any detection-limit censoring
+  day: number; // day number of the sample
+  value: number; // before any detection-limit censoring
 }
 
 function sampled(sampling: Sampling | undefined, season: DemoSeason, random: SeededRandom): boolean {
@@ -371,13 +387,7 @@ export function makeTables(seed: number, recipes: readonly SegmentRecipe[] = SEG
     if (recipe.water) {
       const random = root.derive(`${recipe.segmentId}/water`);
       for (const drawn of drawSeries(recipe.water, random, seasons)) {
-        tables.water.push([
-          `WM-${pad(++waterId, 5)}`,
-          recipe.segmentId,
-          isoDate(drawn.day),
-          censoredText(drawn.value, recipe.water.detectionLimit),
-          String(recipe.water.meshUm),
-        ]);
+        tables.water.push([`WM-${pad(++waterId, 5)}`, recipe.segmentId, isoDate(drawn.day), censoredText(drawn.value, recipe.water.detectionLimit), String(recipe.water.meshUm)]);
       }
     }
     if (recipe.shellfish) {

@@ -7,8 +7,8 @@ export const SEASON_NAMES = ['winter', 'spring', 'summer', 'autumn'] as const;
 export type SeasonName = (typeof SEASON_NAMES)[number];
 
 export interface DemoSeason {
-  index: number;          // 0 = first season of the record
-  id: string;             // "2026-autumn"
+  index: number; // 0 = first season of the record
+  id: string; // "2026-autumn"
   name: SeasonName;
   year: number;
   /** Days since 1970-01-01 (UTC) of the first and last day. */

@@ -14,8 +14,7 @@ export interface Approval {
   replaced: string | null;
 }
 
-export const noApprovalSentence =
-  'No review and approval is recorded for this release: it was published straight from a build, without a staged candidate.';
+export const noApprovalSentence = 'No review and approval is recorded for this release: it was published straight from a build, without a staged candidate.';
 
 export function approvalSentence(approval: Approval): string {
   const date = approval.at.slice(0, 10);

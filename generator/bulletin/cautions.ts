@@ -47,9 +47,7 @@ export function debrisCautions(authorities: readonly Contact[]): Caution[] {
     { id: 'unknown-containers', text: 'Do not open drums, cans or boxes when you do not know what is in them. Keep away and keep others away.' },
     {
       id: 'report-debris',
-      text: report
-        ? `Tell ${report.name} what you found and where.${contactLines(report) ? ` ${contactLines(report)}` : ''}`
-        : 'Tell the local council what you found and where.',
+      text: report ? `Tell ${report.name} what you found and where.${contactLines(report) ? ` ${contactLines(report)}` : ''}` : 'Tell the local council what you found and where.',
     },
     { id: 'wash-hands', text: 'Wash your hands when you are done.' },
   ];

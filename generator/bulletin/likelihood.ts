@@ -12,14 +12,7 @@
  * The IPCC AR5 scale is not used anywhere, so the two schemes are never mixed.
  */
 
-export type LikelihoodWord =
-  | 'highly unlikely'
-  | 'very unlikely'
-  | 'unlikely'
-  | 'about as likely as not'
-  | 'likely'
-  | 'very likely'
-  | 'highly likely';
+export type LikelihoodWord = 'highly unlikely' | 'very unlikely' | 'unlikely' | 'about as likely as not' | 'likely' | 'very likely' | 'highly likely';
 
 /** Upper bounds (inclusive) of each band, in order. */
 export const likelihoodBands: readonly { upTo: number; word: LikelihoodWord }[] = [

@@ -35,7 +35,7 @@ export const regionalHomogeneitySentence =
 
 /** Values reported below the lab's detection limit. */
 export const belowDetectionMethodSentence =
-  "A value reported below the lab's detection limit is never shown as a measurement: the words, tables and downloads say \"below the lab's detection limit\" and give the limit, and the downloads keep the flag.";
+  'A value reported below the lab\'s detection limit is never shown as a measurement: the words, tables and downloads say "below the lab\'s detection limit" and give the limit, and the downloads keep the flag.';
 
 /**
  * How the bulletins word a confidence interval, kept apart from the likelihood words (one scheme,
@@ -53,4 +53,4 @@ export const levelAndTrendMethodSentence =
  * published, but the claims rest on the plain test (stats/serial-correction.ts).
  */
 export const serialCorrectionMethodSentence =
-  'Samples close in time tend to resemble each other, which can make a trend test too confident. We work out the Hamed–Rao correction for this and give it in each bulletin\'s downloads, where it can only enlarge the variance of the test. The rises and falls the bulletins claim rest on the plain test (the Seasonal Kendall test where seasons differ) and the check across places.';
+  "Samples close in time tend to resemble each other, which can make a trend test too confident. We work out the Hamed–Rao correction for this and give it in each bulletin's downloads, where it can only enlarge the variance of the test. The rises and falls the bulletins claim rest on the plain test (the Seasonal Kendall test where seasons differ) and the check across places.";

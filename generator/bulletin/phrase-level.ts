@@ -206,12 +206,7 @@ export function printedValueWords(value: PrintedValue): string {
  * "Plastic in shellfish this season: below the lab's detection limit (0.05 particles per gram of
  * shellfish (wet weight)), against 0.62 last season."
  */
-export function seasonValueSentence(
-  subject: string,
-  unit: string,
-  now: string | PrintedValue | null,
-  before: string | PrintedValue | null,
-): string | null {
+export function seasonValueSentence(subject: string, unit: string, now: string | PrintedValue | null, before: string | PrintedValue | null): string | null {
   if (now === null) return null;
   const current: PrintedValue = typeof now === 'string' ? { text: now, censored: false } : now;
   const last: PrintedValue | null = before === null ? null : typeof before === 'string' ? { text: before, censored: false } : before;

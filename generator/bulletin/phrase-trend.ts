@@ -247,19 +247,12 @@ export function rateSentences(input: TrendPhraseInput): string[] {
   if (rate.slope === 0) {
     if (rate.lower === null || rate.upper === null) return ['Our best guess is close to no change.'];
     const last = lastIntervalNumber(rate);
-    return [
-      'Our best guess is close to no change.',
-      `${ci} runs from ${rateIntervalWords(rate)} ${unitAfter(last ?? '', input.unit)} each year.`,
-    ];
+    return ['Our best guess is close to no change.', `${ci} runs from ${rateIntervalWords(rate)} ${unitAfter(last ?? '', input.unit)} each year.`];
   }
   const sentences = [`Our best guess is about ${amountWords(rate.slope, d)} ${slopeUnit} each year.`];
   if (hasInterval && rate.lower !== null && rate.upper !== null) {
     const spansZero = rate.lower <= 0 && rate.upper >= 0;
-    sentences.push(
-      spansZero
-        ? `But ${lowerFirst(ci)} runs from ${rateIntervalWords(rate)}, so there may be no change at all.`
-        : `${ci} runs from ${rateIntervalWords(rate)}.`,
-    );
+    sentences.push(spansZero ? `But ${lowerFirst(ci)} runs from ${rateIntervalWords(rate)}, so there may be no change at all.` : `${ci} runs from ${rateIntervalWords(rate)}.`);
   }
   return sentences;
 }
@@ -269,9 +262,7 @@ export function censoredSentences(input: TrendPhraseInput): string[] {
   if (!trend || trend.nCensored === 0) return [];
   // Already said in the reason when most values are too low to measure.
   if (input.direction === 'too-little-data' && trend.insufficient?.rule === 'mostly-censored') return [];
-  return [
-    `In ${formatNumber(trend.nCensored, 0)} of ${formatNumber(trend.n, 0)} seasons, the plastic was too little for the lab to measure.`,
-  ];
+  return [`In ${formatNumber(trend.nCensored, 0)} of ${formatNumber(trend.n, 0)} seasons, the plastic was too little for the lab to measure.`];
 }
 
 export function disagreementSentences(input: TrendPhraseInput): string[] {
@@ -307,13 +298,7 @@ export function joinWords(words: readonly string[]): string {
 
 /** All sentences about one indicator's trend, in reading order. */
 export function phraseTrend(input: TrendPhraseInput): string[] {
-  return [
-    ...directionSentences(input),
-    ...censoredSentences(input),
-    ...rateSentences(input),
-    ...disagreementSentences(input),
-    ...samplesSentence(input),
-  ];
+  return [...directionSentences(input), ...censoredSentences(input), ...rateSentences(input), ...disagreementSentences(input), ...samplesSentence(input)];
 }
 
 /**

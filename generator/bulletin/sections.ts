@@ -37,9 +37,7 @@ export function growersSection(input: GrowersInput): { title: string; sentences:
   } else if (tissue && tissue.seasonValue !== null) {
     sentences.push(`Shellfish samples this season held a median of ${formatPlain(tissue.seasonValue)} ${unitAfter(formatPlain(tissue.seasonValue), tissue.unit)}.`);
   } else if (tissue && tissue.assessmentValue !== null && tissue.assessmentValueCensored) {
-    sentences.push(
-      `No shellfish were tested this season. Over the last four seasons the median was ${belowDetectionWords(formatPlain(tissue.assessmentValue), tissue.unit)}.`,
-    );
+    sentences.push(`No shellfish were tested this season. Over the last four seasons the median was ${belowDetectionWords(formatPlain(tissue.assessmentValue), tissue.unit)}.`);
   } else if (tissue && tissue.assessmentValue !== null) {
     sentences.push(
       `No shellfish were tested this season. Over the last four seasons the median was ${formatPlain(tissue.assessmentValue)} ${unitAfter(formatPlain(tissue.assessmentValue), tissue.unit)}.`,

@@ -81,9 +81,7 @@ export function formatReport(report: ValidationReport, limit = 20, checkCommand 
   const warnings = report.issues.length - errors.length;
   const lines = [`The scenario has ${errors.length} error(s) and ${warnings} warning(s); nothing was built or published.`];
   for (const item of errors.slice(0, limit)) {
-    const where = [item.file, item.row === null ? null : `row ${item.row}`, item.column === null ? null : `column ${item.column}`]
-      .filter((part) => part !== null)
-      .join(', ');
+    const where = [item.file, item.row === null ? null : `row ${item.row}`, item.column === null ? null : `column ${item.column}`].filter((part) => part !== null).join(', ');
     // Reader messages usually start with their own place ("file row 3, column x: …"); keep them whole.
     if (item.message.startsWith(item.file)) {
       lines.push(`  - ${item.message} (expected ${item.expected})`);
@@ -199,7 +197,16 @@ export async function runBuild(argv: string[], options: RunBuildOptions = {}): P
   const started = performance.now();
   try {
     const steps = options.steps ?? (await realSteps(values.site === undefined ? undefined : path.resolve(values.site), values.strict === true));
-    const outcome = await buildRelease({ scenario, out, cache, progress, steps, renderAll: values['render-all'] === true, candidate: values.candidate === true, log: (line) => progress.note(`  ${line}`) });
+    const outcome = await buildRelease({
+      scenario,
+      out,
+      cache,
+      progress,
+      steps,
+      renderAll: values['render-all'] === true,
+      candidate: values.candidate === true,
+      log: (line) => progress.note(`  ${line}`),
+    });
     const checkCommand = `npx wrackline check --scenario ${shellWord(path.relative(process.cwd(), scenario) || '.')}`;
     if (outcome.kind === 'invalid') {
       stderr(formatReport(outcome.report, 20, checkCommand));

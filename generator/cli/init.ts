@@ -129,11 +129,27 @@ export function settingsYaml(regionId: string, season: string, published: string
   field('publications[].date', `  date: ${published}`, '  ');
   field('monitoringStart', '# monitoringStart: 2018-01-01');
   out.push(...comment(`${doc('seasons')} (${doc('seasons[].id')} ${doc('seasons[].label')} ${doc('seasons[].months')})`, ''));
-  out.push('# seasons:', '#   - { id: winter, label: Winter, months: [12, 1, 2] }', '#   - { id: spring, label: Spring, months: [3, 4, 5] }', '#   - { id: summer, label: Summer, months: [6, 7, 8] }', '#   - { id: autumn, label: Autumn, months: [9, 10, 11] }');
+  out.push(
+    '# seasons:',
+    '#   - { id: winter, label: Winter, months: [12, 1, 2] }',
+    '#   - { id: spring, label: Spring, months: [3, 4, 5] }',
+    '#   - { id: summer, label: Summer, months: [6, 7, 8] }',
+    '#   - { id: autumn, label: Autumn, months: [9, 10, 11] }',
+  );
   field('corrections', '# corrections: []');
-  out.push(...comment(`${doc('trend')} confidence: ${doc('trend.confidence')} falseDiscoveryRate: ${doc('trend.falseDiscoveryRate')} bootstrapResamples: ${doc('trend.bootstrapResamples')} seed: ${doc('trend.seed')} minYears: ${doc('trend.minYears')} minValues: ${doc('trend.minValues')}`, ''));
+  out.push(
+    ...comment(
+      `${doc('trend')} confidence: ${doc('trend.confidence')} falseDiscoveryRate: ${doc('trend.falseDiscoveryRate')} bootstrapResamples: ${doc('trend.bootstrapResamples')} seed: ${doc('trend.seed')} minYears: ${doc('trend.minYears')} minValues: ${doc('trend.minValues')}`,
+      '',
+    ),
+  );
   out.push('# trend: { confidence: 0.95, falseDiscoveryRate: 0.05, bootstrapResamples: 500, seed: 1, minYears: 5, minValues: 8 }');
-  out.push(...comment(`${doc('drift')} arrivalDistanceKm: ${doc('drift.arrivalDistanceKm')} zoneDistanceKm: ${doc('drift.zoneDistanceKm')} zoneMinParticles: ${doc('drift.zoneMinParticles')}`, ''));
+  out.push(
+    ...comment(
+      `${doc('drift')} arrivalDistanceKm: ${doc('drift.arrivalDistanceKm')} zoneDistanceKm: ${doc('drift.zoneDistanceKm')} zoneMinParticles: ${doc('drift.zoneMinParticles')}`,
+      '',
+    ),
+  );
   out.push('# drift: { arrivalDistanceKm: 2, zoneDistanceKm: 4, zoneMinParticles: 25 }');
   field('riskRules', '# riskRules: []');
   field('leftOutAllowed', '# leftOutAllowed: [{ table: tables/beach-litter.csv, share: 0.2, reason: "why the loss is accepted" }]');
@@ -144,10 +160,20 @@ export function readmeFor(): string {
   const example = {
     type: 'Feature',
     properties: { id: 'north-beach', name: 'North Beach', kind: 'beach', shellfish: 'none', place: 'Northtown' },
-    geometry: { type: 'LineString', coordinates: [[-1.2051, 50.7202], [-1.1987, 50.7231], [-1.1902, 50.7244]] },
+    geometry: {
+      type: 'LineString',
+      coordinates: [
+        [-1.2051, 50.7202],
+        [-1.1987, 50.7231],
+        [-1.1902, 50.7244],
+      ],
+    },
   };
   const tables = monitoring
-    .map((id) => `- \`tables/${id}.csv\` — ${indicatorDefinitions[id].label.toLowerCase()}: ${indicatorDefinitions[id].columns.map((c) => `\`${c.name}\`${c.required ? '' : ' (optional)'}`).join(', ')}`)
+    .map(
+      (id) =>
+        `- \`tables/${id}.csv\` — ${indicatorDefinitions[id].label.toLowerCase()}: ${indicatorDefinitions[id].columns.map((c) => `\`${c.name}\`${c.required ? '' : ' (optional)'}`).join(', ')}`,
+    )
     .join('\n');
   return `# A new Wrackline scenario
 
@@ -203,9 +229,16 @@ export async function runInit(argv: string[], io: { stdout?: (text: string) => v
     return 0;
   }
   const [target, ...extra] = parsed.positionals;
-  if (target === undefined || extra.length > 0) return usageError(stderr, 'init', new Error('give exactly one folder to write the new scenario into, e.g. wrackline init my-coast'));
+  if (target === undefined || extra.length > 0)
+    return usageError(stderr, 'init', new Error('give exactly one folder to write the new scenario into, e.g. wrackline init my-coast'));
   const dir = path.resolve(target);
-  const regionId = path.basename(dir).toLowerCase().replace(/[^a-z0-9-]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 63) || 'my-coast';
+  const regionId =
+    path
+      .basename(dir)
+      .toLowerCase()
+      .replace(/[^a-z0-9-]+/g, '-')
+      .replace(/^-+|-+$/g, '')
+      .slice(0, 63) || 'my-coast';
   const files: [string, string][] = [
     ['datapackage.json', `${JSON.stringify(datapackageFor(regionId), null, 2)}\n`],
     ['scenario.yaml', settingsYaml(regionId, '2026-autumn', '2026-12-01')],

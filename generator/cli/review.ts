@@ -67,7 +67,9 @@ export async function runReview(argv: string[], io: { stdout?: (text: string) =>
     }
     await writeFile(place.reviewPage, reviewPage(report, heading));
     if (!values.quiet) stdout(reviewText(report, heading));
-    stdout(`\nReview page (private, not published): ${place.reviewPage}\nPreview the candidate: wrackline serve --dir ${place.site}\nPublish it: wrackline approve --out ${values.out ?? 'dist'} --by "Your Name"`);
+    stdout(
+      `\nReview page (private, not published): ${place.reviewPage}\nPreview the candidate: wrackline serve --dir ${place.site}\nPublish it: wrackline approve --out ${values.out ?? 'dist'} --by "Your Name"`,
+    );
     return 0;
   } catch (error) {
     stderr(`wrackline review: ${error instanceof Error ? error.message : String(error)}`);

@@ -166,10 +166,7 @@ export function parentWatch(gone: () => void, intervalMs = 500): NodeJS.Timeout 
   return timer;
 }
 
-export async function runServe(
-  argv: string[],
-  io: { stdout?: (text: string) => void; stderr?: (text: string) => void; untilStopped?: Promise<unknown> } = {},
-): Promise<number> {
+export async function runServe(argv: string[], io: { stdout?: (text: string) => void; stderr?: (text: string) => void; untilStopped?: Promise<unknown> } = {}): Promise<number> {
   const { stdout, stderr } = commandWriters(io);
   const parsed = parseCommandOptions(
     'serve',

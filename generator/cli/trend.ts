@@ -269,9 +269,7 @@ export function trendVerdict(result: TrendResult, perUnit: string): string[] {
     const chance = result.probabilityUp === null || result.probabilityUp === undefined ? null : up ? result.probabilityUp : 1 - result.probabilityUp;
     const word = chance === null ? null : likelihoodWord(chance);
     lines.push(
-      word && chance !== null
-        ? `Going ${up ? 'up' : 'down'}: a ${up ? 'rise' : 'fall'} is ${word}; the chance is ${chanceWords(chance)}.`
-        : `Going ${up ? 'up' : 'down'}.`,
+      word && chance !== null ? `Going ${up ? 'up' : 'down'}: a ${up ? 'rise' : 'fall'} is ${word}; the chance is ${chanceWords(chance)}.` : `Going ${up ? 'up' : 'down'}.`,
     );
   } else {
     lines.push('No clear direction: we cannot tell if the values are going up or down.');
@@ -298,8 +296,11 @@ export function trendSummary(result: TrendResult, file: string, perUnit: string,
   if (result.insufficient) lines.push(`Too little data for a trend claim: ${result.insufficient.reason}.`);
   const mk = result.mannKendall;
   if (mk) {
-    lines.push(`Mann–Kendall: S = ${show(mk.S)}, Var(S) = ${show(mk.varS)}, z = ${show(mk.z)}, two-sided p = ${show(mk.p)}` +
-      (mk.pExact !== null && mk.pExact !== undefined ? ` (exact p = ${show(mk.pExact)})` : '') + `, Kendall's tau-b = ${show(mk.tau)}`);
+    lines.push(
+      `Mann–Kendall: S = ${show(mk.S)}, Var(S) = ${show(mk.varS)}, z = ${show(mk.z)}, two-sided p = ${show(mk.p)}` +
+        (mk.pExact !== null && mk.pExact !== undefined ? ` (exact p = ${show(mk.pExact)})` : '') +
+        `, Kendall's tau-b = ${show(mk.tau)}`,
+    );
   } else lines.push('Mann–Kendall: needs at least 2 values');
   const sen = result.sen;
   if (sen) {
@@ -311,10 +312,14 @@ export function trendSummary(result: TrendResult, file: string, perUnit: string,
   }
   const sk = result.seasonalKendall;
   if (sk) {
-    lines.push(`Seasonal Kendall (${sk.seasons.length} seasons): S = ${show(sk.S)}, z = ${show(sk.z)}, p = ${show(sk.p)}; slope ${show(sk.slope)} ${perUnit} (${show(sk.lower)} to ${show(sk.upper)})`);
+    lines.push(
+      `Seasonal Kendall (${sk.seasons.length} seasons): S = ${show(sk.S)}, z = ${show(sk.z)}, p = ${show(sk.p)}; slope ${show(sk.slope)} ${perUnit} (${show(sk.lower)} to ${show(sk.upper)})`,
+    );
     lines.push(`  with the covariance between seasons: p = ${show(sk.pCovariance)}`);
     if (sk.heterogeneity) {
-      lines.push(`  seasons ${sk.heterogeneity.p < 0.05 ? 'disagree' : 'agree'}: heterogeneity chi-square = ${show(sk.heterogeneity.chi2)}, df = ${sk.heterogeneity.df}, p = ${show(sk.heterogeneity.p)}`);
+      lines.push(
+        `  seasons ${sk.heterogeneity.p < 0.05 ? 'disagree' : 'agree'}: heterogeneity chi-square = ${show(sk.heterogeneity.chi2)}, df = ${sk.heterogeneity.df}, p = ${show(sk.heterogeneity.p)}`,
+      );
     }
   }
   const serial = result.serialCorrection;

@@ -55,13 +55,25 @@ export async function readArrivalsTable(
       let keep = true;
       if (!segmentIds.has(segmentId)) {
         log.add(UnknownSegment, UnknownSegment.message(file, row.line, 'segment_id', segmentId, segmentsFile), {
-          file, row: row.line, column: 'segment_id', value: segmentId, expected: `a segment id from ${segmentsFile}`, severity: 'warning', excluded: true,
+          file,
+          row: row.line,
+          column: 'segment_id',
+          value: segmentId,
+          expected: `a segment id from ${segmentsFile}`,
+          severity: 'warning',
+          excluded: true,
         });
         keep = false;
       }
       if (seasonRange(season, seasons) === null) {
         log.add(DriftSeasonUnknown, DriftSeasonUnknown.message(file, row.line, 'season', season), {
-          file, row: row.line, column: 'season', value: season, expected: 'YYYY-<season id>', severity: 'warning', excluded: true,
+          file,
+          row: row.line,
+          column: 'season',
+          value: season,
+          expected: 'YYYY-<season id>',
+          severity: 'warning',
+          excluded: true,
         });
         keep = false;
       }

@@ -14,11 +14,7 @@
  * Unused storage holds missing values (_FillValue, missing_value, the NetCDF default fill or NaN)
  * and is skipped. Time is "<unit> since <reference>" in the standard (Gregorian) calendar.
  */
-import {
-  InputValidationError,
-  NetcdfNotTrajectory,
-  NetcdfValueInvalid,
-} from '../errors.ts';
+import { InputValidationError, NetcdfNotTrajectory, NetcdfValueInvalid } from '../errors.ts';
 import type { IssueLog } from '../read/issue-log.ts';
 import type { AttributeValue, NetcdfDataset, NetcdfVariable } from './netcdf-dataset.ts';
 import type { Position } from './positions-csv.ts';
@@ -38,8 +34,16 @@ function text(value: AttributeValue | undefined): string | null {
 
 function notTrajectory(file: string, column: string, reason: string): InputValidationError {
   return new InputValidationError(NetcdfNotTrajectory, {
-    file, row: null, column, value: null, expected: 'a CF trajectory file (featureType = "trajectory", longitude, latitude, time)',
-    message: NetcdfNotTrajectory.message(file, column, reason), severity: 'error', excluded: true, code: NetcdfNotTrajectory.name, hint: NetcdfNotTrajectory.hint,
+    file,
+    row: null,
+    column,
+    value: null,
+    expected: 'a CF trajectory file (featureType = "trajectory", longitude, latitude, time)',
+    message: NetcdfNotTrajectory.message(file, column, reason),
+    severity: 'error',
+    excluded: true,
+    code: NetcdfNotTrajectory.name,
+    hint: NetcdfNotTrajectory.hint,
   });
 }
 
@@ -52,10 +56,23 @@ function findCoordinate(dataset: NetcdfDataset, standardName: string, names: rea
 }
 
 const unitMilliseconds: { [unit: string]: number } = {
-  s: 1000, sec: 1000, secs: 1000, second: 1000, seconds: 1000,
-  min: 60_000, mins: 60_000, minute: 60_000, minutes: 60_000,
-  h: 3_600_000, hr: 3_600_000, hrs: 3_600_000, hour: 3_600_000, hours: 3_600_000,
-  d: 86_400_000, day: 86_400_000, days: 86_400_000,
+  s: 1000,
+  sec: 1000,
+  secs: 1000,
+  second: 1000,
+  seconds: 1000,
+  min: 60_000,
+  mins: 60_000,
+  minute: 60_000,
+  minutes: 60_000,
+  h: 3_600_000,
+  hr: 3_600_000,
+  hrs: 3_600_000,
+  hour: 3_600_000,
+  hours: 3_600_000,
+  d: 86_400_000,
+  day: 86_400_000,
+  days: 86_400_000,
 };
 
 /** Parses CF time units "<unit> since <reference>" into a scale and an epoch, or a reason. */
@@ -134,13 +151,21 @@ export function decodeTrajectories(dataset: NetcdfDataset, file: string, log: Is
   if (!lon) throw notTrajectory(file, 'lon', 'no longitude variable (standard_name "longitude" or units "degrees_east")');
   if (!lat) throw notTrajectory(file, 'lat', 'no latitude variable (standard_name "latitude" or units "degrees_north")');
   if (!time) throw notTrajectory(file, 'time', 'no time variable (standard_name "time" or units "<unit> since <date>")');
-  if (lon.dimensions.join() !== lat.dimensions.join()) throw notTrajectory(file, 'lat', `longitude ${JSON.stringify(lon.dimensions)} and latitude ${JSON.stringify(lat.dimensions)} have different dimensions`);
+  if (lon.dimensions.join() !== lat.dimensions.join())
+    throw notTrajectory(file, 'lat', `longitude ${JSON.stringify(lon.dimensions)} and latitude ${JSON.stringify(lat.dimensions)} have different dimensions`);
   // CF Conventions §4.1: longitude in degrees_east, latitude in degrees_north (or their listed
   // spellings); anything else (radians, metres of a projection) would place particles wrongly.
-  for (const [variable, axis, pattern] of [[lon, 'longitude', /^degrees?_?(east|e)$/i], [lat, 'latitude', /^degrees?_?(north|n)$/i]] as const) {
+  for (const [variable, axis, pattern] of [
+    [lon, 'longitude', /^degrees?_?(east|e)$/i],
+    [lat, 'latitude', /^degrees?_?(north|n)$/i],
+  ] as const) {
     const declared = text(variable.attributes['units']);
     if (declared !== null && !pattern.test(declared.trim())) {
-      throw notTrajectory(file, variable.name, `${axis} units are ${JSON.stringify(declared)}; expected degrees_${axis === 'longitude' ? 'east' : 'north'} (CF conventions, section 4.1)`);
+      throw notTrajectory(
+        file,
+        variable.name,
+        `${axis} units are ${JSON.stringify(declared)}; expected degrees_${axis === 'longitude' ? 'east' : 'north'} (CF conventions, section 4.1)`,
+      );
     }
   }
   const units = parseTimeUnits(text(time.attributes['units']) ?? '');
@@ -187,7 +212,7 @@ export function decodeTrajectories(dataset: NetcdfDataset, file: string, log: Is
   } else if (indexVariable && lon.dimensions.length === 1) {
     layout = 'indexed-ragged';
     const instanceDimension = text(indexVariable.attributes['instance_dimension']) ?? '';
-    trajectories = dataset.dimensions[instanceDimension] ?? (idVariable?.shape[0] ?? 0);
+    trajectories = dataset.dimensions[instanceDimension] ?? idVariable?.shape[0] ?? 0;
     const index = indexVariable.readNumbers();
     const seen = new Int32Array(Math.max(trajectories, 0));
     const ordinal = new Int32Array(index.length);
@@ -253,7 +278,13 @@ export function decodeTrajectories(dataset: NetcdfDataset, file: string, log: Is
     const row = k + 1;
     const reject = (column: string, value: string, expected: string): void => {
       log.add(NetcdfValueInvalid, NetcdfValueInvalid.message(file, row, trajectory, observation, column, value, expected), {
-        file, row, column, value, expected, severity: 'warning', excluded: true,
+        file,
+        row,
+        column,
+        value,
+        expected,
+        severity: 'warning',
+        excluded: true,
       });
       counts.excluded++;
     };

@@ -61,7 +61,13 @@ export function summariseTally(tally: DriftTally, segments: readonly Segment[], 
     const counts = tally.arrivalsOf(season);
     segments.forEach((segment, s) => {
       const count = counts?.[s] ?? 0;
-      arrivals.push({ segmentId: segment.id, season, arrivals: count, arrivalsPerKm: segment.lengthKm > 0 ? count / segment.lengthKm : 0, nearestZone: nearestZone(tally.index, s, seasonZones) });
+      arrivals.push({
+        segmentId: segment.id,
+        season,
+        arrivals: count,
+        arrivalsPerKm: segment.lengthKm > 0 ? count / segment.lengthKm : 0,
+        nearestZone: nearestZone(tally.index, s, seasonZones),
+      });
     });
   }
   return { arrivals, zones };
@@ -84,7 +90,13 @@ export async function tallyDriftFiles(input: DriftInput): Promise<DriftTally | n
     const count = mainTally.outsideSeasons - before;
     if (count > 0) {
       log.add(PositionsOutsideSeasons, PositionsOutsideSeasons.message(file, count), {
-        file, row: null, column: 'time', value: String(count), expected: 'times inside the seasons of scenario.json', severity: 'warning', excluded: true,
+        file,
+        row: null,
+        column: 'time',
+        value: String(count),
+        expected: 'times inside the seasons of scenario.json',
+        severity: 'warning',
+        excluded: true,
       });
     }
   };
@@ -111,7 +123,12 @@ export async function tallyDriftFiles(input: DriftInput): Promise<DriftTally | n
     try {
       // Trajectory numbers restart in every file: an offset per file keeps particles distinct.
       const offset = fileNumber * 100_000_000;
-      await readTrajectoryFile(absolutePath, resource.path, log, (p) => period.admit(p.timeMs, p.lon, p.lat) && (tally ? tally.add(p.particle + offset, p.timeMs, p.lon, p.lat, p.ashore) : true));
+      await readTrajectoryFile(
+        absolutePath,
+        resource.path,
+        log,
+        (p) => period.admit(p.timeMs, p.lon, p.lat) && (tally ? tally.add(p.particle + offset, p.timeMs, p.lon, p.lat, p.ashore) : true),
+      );
       reportOutside(resource.path, before);
       period.report(resource.path, log);
     } catch (error) {
@@ -148,7 +165,9 @@ export async function readDrift(input: DriftInput): Promise<DriftResult | null> 
       arrivals.push({ segmentId: row.segmentId, season: row.season, arrivals: row.arrivals, arrivalsPerKm: km > 0 ? row.arrivals / km : 0, nearestZone: null });
     }
   }
-  const seasons = [...new Set(arrivals.map((a) => a.season))].sort((a, b) => (seasonRange(a, settings.seasons)?.start ?? a).localeCompare(seasonRange(b, settings.seasons)?.start ?? b));
+  const seasons = [...new Set(arrivals.map((a) => a.season))].sort((a, b) =>
+    (seasonRange(a, settings.seasons)?.start ?? a).localeCompare(seasonRange(b, settings.seasons)?.start ?? b),
+  );
   if (endTables.length === 0) return { arrivals, zones: seasons.map((season) => ({ season, zones: [] })) };
   // End-of-season positions aggregated upstream: zones and each segment's nearest zone as above.
   const ends = new Map<string, { lon: number[]; lat: number[] }>();

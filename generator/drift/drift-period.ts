@@ -32,14 +32,23 @@ export class DriftPeriodGuard {
 
   constructor(settings: ScenarioSettings, segments: readonly Segment[]) {
     this.start = settings.monitoringStart ?? earliestPlausible;
-    const last = settings.publications.map((p) => p.date).sort().pop() ?? '2100-01-01';
+    const last =
+      settings.publications
+        .map((p) => p.date)
+        .sort()
+        .pop() ?? '2100-01-01';
     this.end = last;
     this.startMs = Date.parse(`${this.start}T00:00:00Z`);
     this.endMs = Date.parse(`${last}T00:00:00Z`) + 86_400_000;
-    this.coast = segments.length === 0 ? null : [
-      Math.min(...segments.map((s) => s.bbox[0])), Math.min(...segments.map((s) => s.bbox[1])),
-      Math.max(...segments.map((s) => s.bbox[2])), Math.max(...segments.map((s) => s.bbox[3])),
-    ];
+    this.coast =
+      segments.length === 0
+        ? null
+        : [
+            Math.min(...segments.map((s) => s.bbox[0])),
+            Math.min(...segments.map((s) => s.bbox[1])),
+            Math.max(...segments.map((s) => s.bbox[2])),
+            Math.max(...segments.map((s) => s.bbox[3])),
+          ];
   }
 
   /** Whether a position is inside the period; counts it either way. */
@@ -62,7 +71,13 @@ export class DriftPeriodGuard {
     if (this.outside > 0) {
       const first = this.firstOutside === null || !Number.isFinite(this.firstOutside) ? 'not a date' : new Date(this.firstOutside).toISOString().slice(0, 10);
       log.add(PositionsOutsidePeriod, PositionsOutsidePeriod.message(file, this.outside, first, this.start, this.end), {
-        file, row: null, column: 'time', value: String(this.outside), expected: `times from ${this.start} to ${this.end}`, severity: 'warning', excluded: true,
+        file,
+        row: null,
+        column: 'time',
+        value: String(this.outside),
+        expected: `times from ${this.start} to ${this.end}`,
+        severity: 'warning',
+        excluded: true,
       });
     }
     if (this.admitted > 0 && this.coast) {
@@ -72,7 +87,13 @@ export class DriftPeriodGuard {
         const box = `longitude ${this.west.toFixed(3)}..${this.east.toFixed(3)}, latitude ${this.south.toFixed(3)}..${this.north.toFixed(3)}`;
         const coast = `longitude ${w.toFixed(2)}..${e.toFixed(2)}, latitude ${s.toFixed(2)}..${n.toFixed(2)}`;
         log.add(DriftFarFromCoast, DriftFarFromCoast.message(file, box, coast), {
-          file, row: null, column: 'lon/lat', value: box, expected: 'positions in degrees near the coast', severity: 'error', excluded: true,
+          file,
+          row: null,
+          column: 'lon/lat',
+          value: box,
+          expected: 'positions in degrees near the coast',
+          severity: 'error',
+          excluded: true,
         });
       }
     }

@@ -46,7 +46,11 @@ export class DriftTally {
   positions = 0;
   outsideSeasons = 0;
 
-  constructor(readonly segments: readonly Segment[], seasons: readonly SeasonDefinition[], arrivalDistanceKm: number) {
+  constructor(
+    readonly segments: readonly Segment[],
+    seasons: readonly SeasonDefinition[],
+    arrivalDistanceKm: number,
+  ) {
     this.index = new SegmentIndex(segments, arrivalDistanceKm);
     this.seasons = seasons;
     this.arrivalKm = arrivalDistanceKm;

@@ -47,7 +47,13 @@ export async function readEndPositionsTable(
       const season = String(row.values['season'] ?? '');
       if (seasonRange(season, seasons) === null) {
         log.add(DriftSeasonUnknown, DriftSeasonUnknown.message(file, row.line, 'season', season), {
-          file, row: row.line, column: 'season', value: season, expected: 'YYYY-<season id>', severity: 'warning', excluded: true,
+          file,
+          row: row.line,
+          column: 'season',
+          value: season,
+          expected: 'YYYY-<season id>',
+          severity: 'warning',
+          excluded: true,
         });
         return 'excluded';
       }

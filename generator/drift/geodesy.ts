@@ -75,7 +75,7 @@ export function pointToArcKm(pLon: number, pLat: number, aLon: number, aLat: num
 
 /** Degrees of latitude and of longitude (at a latitude) spanned by a distance in km. */
 export function degreesForKm(km: number, lat: number): { dLat: number; dLon: number } {
-  const dLat = (km / earthRadiusKm) / toRadians;
+  const dLat = km / earthRadiusKm / toRadians;
   const cos = Math.cos(Math.min(89.9, Math.abs(lat)) * toRadians);
   return { dLat, dLon: Math.min(360, dLat / Math.max(cos, 1e-6)) };
 }

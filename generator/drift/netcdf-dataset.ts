@@ -38,8 +38,16 @@ export function shortReason(reason: string): string {
 function unreadable(file: string, reason: string): InputValidationError {
   reason = shortReason(reason);
   return new InputValidationError(NetcdfUnreadable, {
-    file, row: null, column: null, value: null, expected: 'a complete NetCDF-3 or NetCDF-4 file',
-    message: NetcdfUnreadable.message(file, reason), severity: 'error', excluded: true, code: NetcdfUnreadable.name, hint: NetcdfUnreadable.hint,
+    file,
+    row: null,
+    column: null,
+    value: null,
+    expected: 'a complete NetCDF-3 or NetCDF-4 file',
+    message: NetcdfUnreadable.message(file, reason),
+    severity: 'error',
+    excluded: true,
+    code: NetcdfUnreadable.name,
+    hint: NetcdfUnreadable.hint,
   });
 }
 
@@ -123,7 +131,13 @@ export function openNetcdf3(bytes: Uint8Array, file: string): NetcdfDataset {
         const flat = readFlat().map((v) => (typeof v === 'string' ? v : String.fromCharCode(Number(v) || 0)));
         const width = shape.length > 1 ? (shape[shape.length - 1] ?? 1) : count;
         const out: string[] = [];
-        for (let i = 0; i < flat.length; i += Math.max(1, width)) out.push(flat.slice(i, i + width).join('').replace(/\0+$/, ''));
+        for (let i = 0; i < flat.length; i += Math.max(1, width))
+          out.push(
+            flat
+              .slice(i, i + width)
+              .join('')
+              .replace(/\0+$/, ''),
+          );
         return out;
       },
     };

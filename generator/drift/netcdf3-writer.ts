@@ -120,12 +120,24 @@ function encodeValues(type: Netcdf3Type, values: ArrayLike<number> | string): Ui
     const v = values[i] ?? 0;
     const at = i * size;
     switch (type) {
-      case 'byte': view.setInt8(at, v); break;
-      case 'char': view.setUint8(at, v); break;
-      case 'short': view.setInt16(at, v, false); break;
-      case 'int': view.setInt32(at, v, false); break;
-      case 'float': view.setFloat32(at, v, false); break;
-      case 'double': view.setFloat64(at, v, false); break;
+      case 'byte':
+        view.setInt8(at, v);
+        break;
+      case 'char':
+        view.setUint8(at, v);
+        break;
+      case 'short':
+        view.setInt16(at, v, false);
+        break;
+      case 'int':
+        view.setInt32(at, v, false);
+        break;
+      case 'float':
+        view.setFloat32(at, v, false);
+        break;
+      case 'double':
+        view.setFloat64(at, v, false);
+        break;
     }
   }
   return out;

@@ -203,7 +203,13 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
     for (const name of ['particle', 'time', 'lon', 'lat'] as const) {
       if (col[name] < 0) {
         log.add(HeaderMissingColumn, HeaderMissingColumn.message(file, name, cells.join(delimiter)), {
-          file, row: 1, column: name, value: cells.join(delimiter), expected: `a column named ${name}`, severity: 'error', excluded: true,
+          file,
+          row: 1,
+          column: name,
+          value: cells.join(delimiter),
+          expected: `a column named ${name}`,
+          severity: 'error',
+          excluded: true,
         });
         usable = false;
       }
@@ -243,7 +249,14 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
       timeCache.set(timeText, timeMs);
     }
     if (Number.isNaN(timeMs)) {
-      reject(line, 'time', timeText, ValueWrongType, ValueWrongType.message(file, line, 'time', timeText, 'an ISO 8601 date-time such as 2026-09-01T00:00:00Z'), 'an ISO 8601 date-time');
+      reject(
+        line,
+        'time',
+        timeText,
+        ValueWrongType,
+        ValueWrongType.message(file, line, 'time', timeText, 'an ISO 8601 date-time such as 2026-09-01T00:00:00Z'),
+        'an ISO 8601 date-time',
+      );
       return;
     }
     const lon = plainNumber(lonText);
@@ -395,7 +408,13 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
       rest = text.slice(start);
       if (rest.length > maxRecordChars) {
         log.add(LineTooLong, LineTooLong.message(file, lineNo + 1, maxRecordLabel), {
-          file, row: lineNo + 1, column: null, value: null, expected: `rows shorter than ${maxRecordLabel}`, severity: 'error', excluded: true,
+          file,
+          row: lineNo + 1,
+          column: null,
+          value: null,
+          expected: `rows shorter than ${maxRecordLabel}`,
+          severity: 'error',
+          excluded: true,
         });
         raw.destroy();
         return;
@@ -405,12 +424,24 @@ export async function readPositionsCsv(options: PositionsCsvOptions): Promise<vo
     const reason = error instanceof Error ? error.message : String(error);
     if (error instanceof InputBoundExceeded) {
       log.add(InputTooLarge, InputTooLarge.message(file, lineNo + 1, reason), {
-        file, row: lineNo + 1, column: null, value: null, expected: 'a file of ordinary size', severity: 'error', excluded: true,
+        file,
+        row: lineNo + 1,
+        column: null,
+        value: null,
+        expected: 'a file of ordinary size',
+        severity: 'error',
+        excluded: true,
       });
       return;
     }
     log.add(CsvUnreadable, CsvUnreadable.message(file, lineNo + 1, reason), {
-      file, row: lineNo + 1, column: null, value: null, expected: 'a complete, readable (gzip) CSV file', severity: 'error', excluded: true,
+      file,
+      row: lineNo + 1,
+      column: null,
+      value: null,
+      expected: 'a complete, readable (gzip) CSV file',
+      severity: 'error',
+      excluded: true,
     });
     return;
   }

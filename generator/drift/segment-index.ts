@@ -190,7 +190,6 @@ export class SegmentIndex {
     return this.bestSegment < 0 ? null : { segment: this.bestSegment, distanceKm: this.bestKm };
   }
 
-
   /** Distance from a point to one segment's line (all its edges), in km. */
   distanceToSegmentKm(lon: number, lat: number, segment: number): number {
     let best = Infinity;

@@ -20,8 +20,16 @@ export async function readTrajectoryFile(absolutePath: string, file: string, log
     if (error instanceof InputValidationError) throw error;
     const reason = error instanceof Error ? error.message : String(error);
     throw new InputValidationError(NetcdfUnreadable, {
-      file, row: null, column: null, value: null, expected: 'a complete NetCDF-3 or NetCDF-4 file',
-      message: NetcdfUnreadable.message(file, reason), severity: 'error', excluded: true, code: NetcdfUnreadable.name, hint: NetcdfUnreadable.hint,
+      file,
+      row: null,
+      column: null,
+      value: null,
+      expected: 'a complete NetCDF-3 or NetCDF-4 file',
+      message: NetcdfUnreadable.message(file, reason),
+      severity: 'error',
+      excluded: true,
+      code: NetcdfUnreadable.name,
+      hint: NetcdfUnreadable.hint,
     });
   } finally {
     try {

@@ -80,7 +80,12 @@ export function areaName(places: readonly (string | null)[], number: number): st
 }
 
 function slug(text: string): string {
-  return text.toLowerCase().normalize('NFKD').replace(/[^a-z0-9]+/g, '-').replace(/^-+|-+$/g, '').slice(0, 48);
+  return text
+    .toLowerCase()
+    .normalize('NFKD')
+    .replace(/[^a-z0-9]+/g, '-')
+    .replace(/^-+|-+$/g, '')
+    .slice(0, 48);
 }
 
 /** The areas of a coast (every segment in exactly one). */
@@ -107,7 +112,15 @@ export function planAreas(segments: readonly AreaInput[], size = areaSize): Area
     const number = i + 1;
     const parts = all.filter((g) => g.given !== null && g.given === group.given).length;
     const part = all.slice(0, i + 1).filter((g) => g.given !== null && g.given === group.given).length;
-    const name = group.given !== null ? (parts > 1 ? `${group.given} (part ${part} of ${parts})` : group.given) : areaName(group.members.map((s) => s.place), number);
+    const name =
+      group.given !== null
+        ? parts > 1
+          ? `${group.given} (part ${part} of ${parts})`
+          : group.given
+        : areaName(
+            group.members.map((s) => s.place),
+            number,
+          );
     let id = `area-${slug(name) || String(number)}`;
     if (used.has(id)) id = `${id}-${number}`;
     used.add(id);
@@ -154,7 +167,10 @@ export function mapPlaces(segments: readonly AreaInput[], count = 6): MapPlace[]
 }
 
 /** The Regional Kendall runs each area needs: per area and indicator, its segments among `regionalSites`. */
-export function areaRegionalSites(areas: readonly AreaPlan[], regionalSites: readonly { indicator: string; sites: readonly string[] }[]): { area: string; indicator: string; sites: string[] }[] {
+export function areaRegionalSites(
+  areas: readonly AreaPlan[],
+  regionalSites: readonly { indicator: string; sites: readonly string[] }[],
+): { area: string; indicator: string; sites: string[] }[] {
   const out: { area: string; indicator: string; sites: string[] }[] = [];
   for (const area of areas) {
     const members = new Set(area.segmentIds);

@@ -123,18 +123,16 @@ export function assembleModelWithMemo(scenario: LoadedScenario, engine: TrendEng
 
     const segmentIds = context.segments.map((s) => s.id);
     const driftRows = scenario.drift?.arrivals.filter((a) => a.season === seasonId) ?? [];
-    const verdict = judgeSeason(
-      segmentIds,
-      (indicator, segmentId) => summaries.get(seriesKey(indicator, segmentId)) as SeriesSummary,
-      driftRows,
-      settings,
-      rules,
-      engine,
-    );
+    const verdict = judgeSeason(segmentIds, (indicator, segmentId) => summaries.get(seriesKey(indicator, segmentId)) as SeriesSummary, driftRows, settings, rules, engine);
     const seriesOf = (indicator: IndicatorId, segmentId: string): SeasonSeries =>
       evaluated.get(seriesKey(indicator, segmentId))?.series ?? seasonSeries(context, indicator, segmentId);
     const regional = verdict.regionalSites.map(({ indicator, sites }) => {
-      const key = regionalInputKey(seasonId, indicator, settings.trend.confidence, sites.map((site) => ({ site, key: keys.get(seriesKey(indicator, site)) as string })));
+      const key = regionalInputKey(
+        seasonId,
+        indicator,
+        settings.trend.confidence,
+        sites.map((site) => ({ site, key: keys.get(seriesKey(indicator, site)) as string })),
+      );
       let result = memo.regional(key);
       if (result === undefined) result = regionalTrend(context, engine, indicator, sites, seriesOf);
       memo.keepRegional(key, result);
@@ -143,13 +141,18 @@ export function assembleModelWithMemo(scenario: LoadedScenario, engine: TrendEng
     const areas = scenarioAreas(scenario.segments);
     const areaRegional = areas
       ? areaRegionalSites(areas, verdict.regionalSites).map(({ area, indicator: name, sites }) => {
-        const indicator = name as IndicatorId;
-        const key = regionalInputKey(seasonId, indicator, settings.trend.confidence, sites.map((site) => ({ site, key: keys.get(seriesKey(indicator, site)) as string })));
-        let result = memo.regional(key);
-        if (result === undefined) result = regionalTrend(context, engine, indicator, sites, seriesOf);
-        memo.keepRegional(key, result);
-        return { area, indicator, result, segments: sites.length };
-      })
+          const indicator = name as IndicatorId;
+          const key = regionalInputKey(
+            seasonId,
+            indicator,
+            settings.trend.confidence,
+            sites.map((site) => ({ site, key: keys.get(seriesKey(indicator, site)) as string })),
+          );
+          let result = memo.regional(key);
+          if (result === undefined) result = regionalTrend(context, engine, indicator, sites, seriesOf);
+          memo.keepRegional(key, result);
+          return { area, indicator, result, segments: sites.length };
+        })
       : undefined;
     const zones = scenario.drift?.zones.find((z) => z.season === seasonId)?.zones ?? [];
     seasons.set(seasonId, { context, keys, summaries, evaluated, verdict, regional, zones, ...(areaRegional ? { areaRegional } : {}) });
@@ -157,7 +160,13 @@ export function assembleModelWithMemo(scenario: LoadedScenario, engine: TrendEng
   });
 
   // The season as composeRegion reads it: every segment's level and directions (the verdicts).
-  const judged = (state: SeasonState): RegionInputs => ({ season: state.context.season, segments: state.verdict.segments, regional: state.regional, zones: state.zones, ...(state.areaRegional ? { areaRegional: state.areaRegional } : {}) });
+  const judged = (state: SeasonState): RegionInputs => ({
+    season: state.context.season,
+    segments: state.verdict.segments,
+    regional: state.regional,
+    zones: state.zones,
+    ...(state.areaRegional ? { areaRegional: state.areaRegional } : {}),
+  });
   const side = (state: SeasonState, segmentId: string): SeasonSide => ({
     seasonId: state.context.seasonId,
     seriesKeys: indicatorIds.map((indicator) => state.keys.get(seriesKey(indicator, segmentId)) as string),

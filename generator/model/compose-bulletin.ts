@@ -127,7 +127,10 @@ function indicatorBulletin(evaluation: IndicatorEvaluation, scenario: LoadedScen
     seasonValueText:
       evaluation.seasonValue === null
         ? null
-        : printedValueWords({ text: isCount(evaluation.indicator) ? formatNumber(evaluation.seasonValue, 0) : formatPlain(evaluation.seasonValue), censored: evaluation.seasonValueCensored }),
+        : printedValueWords({
+            text: isCount(evaluation.indicator) ? formatNumber(evaluation.seasonValue, 0) : formatPlain(evaluation.seasonValue),
+            censored: evaluation.seasonValueCensored,
+          }),
     assessmentValue: evaluation.assessmentValue,
     assessmentValueCensored: evaluation.assessmentValueCensored,
     trend: evaluation.trend,
@@ -206,19 +209,14 @@ export function composeBulletin(
 
   // Counts with nothing ever reported have no trend to tell; they are left out of the headline and
   // the summary's trend sentence (their own section says "none reported").
-  const moving = evaluation.indicators
-    .filter((e) => !noneEverReported(e))
-    .map((e) => ({ subject: indicatorSubjects[e.indicator], direction: e.direction }));
+  const moving = evaluation.indicators.filter((e) => !noneEverReported(e)).map((e) => ({ subject: indicatorSubjects[e.indicator], direction: e.direction }));
   const previousLevel = before?.level ?? null;
   const summary = [levelSummarySentence(evaluation.level, previousLevel), whySentence(evaluation.level), mainTrendSentence(moving)];
 
   const changes: string[] = [];
   const reason = explainLevelChange(evaluation.level, previousLevel, context.rules, evaluation.levelInputs);
   // An unchanged level is said once, in the summary; a change is said here with its reason.
-  const levelChange =
-    previousLevel && previousLevel.rank !== evaluation.level.rank
-      ? levelChangeWithReason(evaluation.level, previousLevel, reason?.clause ?? null)
-      : null;
+  const levelChange = previousLevel && previousLevel.rank !== evaluation.level.rank ? levelChangeWithReason(evaluation.level, previousLevel, reason?.clause ?? null) : null;
   if (levelChange) changes.push(levelChange);
   const levelAndTrend = levelAndTrendSentence(evaluation.level, previousLevel, moving);
   if (levelAndTrend) changes.push(levelAndTrend);
@@ -227,11 +225,7 @@ export function composeBulletin(
     const subject = indicatorSubjects[e.indicator];
     const oldValue = old?.seasonValue === null || old?.seasonValue === undefined ? null : old.seasonValue;
     const valueSentence = isCount(e.indicator)
-      ? seasonCountSentence(
-          'animals harmed by litter',
-          e.seasonValue === null ? null : Math.round(e.seasonValue),
-          oldValue === null ? null : Math.round(oldValue),
-        )
+      ? seasonCountSentence('animals harmed by litter', e.seasonValue === null ? null : Math.round(e.seasonValue), oldValue === null ? null : Math.round(oldValue))
       : seasonValueSentence(
           subject,
           getIndicator(e.indicator).unit,
@@ -327,4 +321,3 @@ export function composeBulletin(
     permalink,
   };
 }
-

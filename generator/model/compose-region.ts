@@ -63,14 +63,11 @@ export const namedAtHighest = 5;
  * and North Beach." Names up to five places (segment order), then "and N more"; each name is a part
  * of its own with the segment id, so the page can link it to the bulletin.
  */
-export function highestLevelHeadline(
-  lead: string,
-  levelText: string,
-  atHighest: readonly { id: string; name: string }[],
-  total: number,
-): HeadlinePart[] {
+export function highestLevelHeadline(lead: string, levelText: string, atHighest: readonly { id: string; name: string }[], total: number): HeadlinePart[] {
   const n = atHighest.length;
-  const parts: HeadlinePart[] = [{ text: `${lead}: the highest level is ${levelText}, at ${formatNumber(n, 0)} of ${formatNumber(total, 0)} ${total === 1 ? 'place' : 'places'}: ` }];
+  const parts: HeadlinePart[] = [
+    { text: `${lead}: the highest level is ${levelText}, at ${formatNumber(n, 0)} of ${formatNumber(total, 0)} ${total === 1 ? 'place' : 'places'}: ` },
+  ];
   const named = atHighest.slice(0, namedAtHighest);
   const more = n - named.length;
   named.forEach((place, i) => {
@@ -153,9 +150,7 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
   if (previous) {
     const places = (n: number): string => (n === 0 ? 'no place' : `${formatNumber(n, 0)} ${n === 1 ? 'place' : 'places'}`);
     summary.push(
-      up === 0 && down === 0
-        ? 'Since last season, no place went up or down a level.'
-        : `Since last season, ${places(up)} went up a level and ${places(down)} went down.`,
+      up === 0 && down === 0 ? 'Since last season, no place went up or down a level.' : `Since last season, ${places(up)} went up a level and ${places(down)} went down.`,
     );
   }
   for (const trend of regionalTrends) summary.push(trend.sentence);
@@ -163,14 +158,15 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
   const plans = scenarioAreas(scenario.segments);
   const highest = Math.max(0, ...rows.map((r) => r.level.rank));
   const highestLabel = levelScale.find((l) => l.rank === highest)?.label ?? 'Scant';
-  const headlineParts: HeadlinePart[] = highest === 0
-    ? [{ text: `${settings.region.name}, ${lowerFirst(now.season.label)}: no place has a level set, because no survey was made in the last four seasons.` }]
-    : highestLevelHeadline(
-    `${settings.region.name}, ${lowerFirst(now.season.label)}`,
-    `${highestLabel} (level ${highest} of 4)`,
-    rows.filter((r) => r.level.rank === highest),
-    rows.length,
-  );
+  const headlineParts: HeadlinePart[] =
+    highest === 0
+      ? [{ text: `${settings.region.name}, ${lowerFirst(now.season.label)}: no place has a level set, because no survey was made in the last four seasons.` }]
+      : highestLevelHeadline(
+          `${settings.region.name}, ${lowerFirst(now.season.label)}`,
+          `${highestLabel} (level ${highest} of 4)`,
+          rows.filter((r) => r.level.rank === highest),
+          rows.length,
+        );
   return {
     schemaVersion: 1,
     invented: settings.invented,
@@ -183,10 +179,7 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
     regionalTrends,
     zones: now.zones,
     cautions: {
-      shellfish:
-        rows.some((r) => r.shellfish !== 'none') || regionalTrends.some((t) => t.indicator === 'shellfish-tissue')
-          ? shellfishCautions(settings.authorities)
-          : [],
+      shellfish: rows.some((r) => r.shellfish !== 'none') || regionalTrends.some((t) => t.indicator === 'shellfish-tissue') ? shellfishCautions(settings.authorities) : [],
       debris: debrisCautions(settings.authorities),
     },
     authorities: settings.authorities.map((a) => ({ ...a })),
@@ -197,7 +190,6 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
   };
 }
 
-
 /** An area's line on the overview and the head of its page: highest level, counts, its own trends. */
 export function composeArea(plan: AreaPlan, rows: readonly { id: string; name: string; level: LevelResult }[], regionalTrends: RegionalTrend[]): AreaSummary {
   const byId = new Map(rows.map((r) => [r.id, r] as const));
@@ -205,7 +197,10 @@ export function composeArea(plan: AreaPlan, rows: readonly { id: string; name: s
   // highest level first, then by name: the order of the area's map badges and of its lists
   members.sort((a, b) => b.level.rank - a.level.rank || a.name.localeCompare(b.name, 'en') || (a.id < b.id ? -1 : 1));
   const highest = members[0]?.level ?? null;
-  const counts = levelScale.slice().reverse().map((l) => ({ level: l.id, rank: l.rank, label: l.label, n: members.filter((m) => m.level.id === l.id).length }));
+  const counts = levelScale
+    .slice()
+    .reverse()
+    .map((l) => ({ level: l.id, rank: l.rank, label: l.label, n: members.filter((m) => m.level.id === l.id).length }));
   const notSet = members.filter((m) => m.level.rank === 0).length;
   const levelWords = [...counts.filter((c) => c.n > 0).map((c) => `${formatNumber(c.n, 0)} ${c.label}`), ...(notSet > 0 ? [`${formatNumber(notSet, 0)} with no level set`] : [])];
   const summary = [`Levels of the ${formatNumber(members.length, 0)} places in this area: ${levelWords.join(', ')}.`];

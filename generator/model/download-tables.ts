@@ -34,10 +34,60 @@ export function observationsCsv(b: Bulletin): string {
 export function resultsCsv(b: Bulletin): string {
   const rows = b.indicators.map((i): Cell[] => {
     const t = i.trend;
-    return [b.segment.id, b.season.id, i.indicator, i.unitShort, t?.n ?? 0, t?.nCensored ?? 0, i.seasonValue, i.seasonValueCensored ?? false, i.assessmentValue, i.assessmentValueCensored ?? false,
-      t?.mannKendall?.S, t?.mannKendall?.z, t?.mannKendall?.p, t?.mannKendall?.tau, i.qValue,
-      t?.sen?.slope, t?.sen?.lower, t?.sen?.upper, t?.sen?.confidence, i.direction, i.probabilityUp, i.threshold?.value ?? null, b.level.id, b.level.rank];
+    return [
+      b.segment.id,
+      b.season.id,
+      i.indicator,
+      i.unitShort,
+      t?.n ?? 0,
+      t?.nCensored ?? 0,
+      i.seasonValue,
+      i.seasonValueCensored ?? false,
+      i.assessmentValue,
+      i.assessmentValueCensored ?? false,
+      t?.mannKendall?.S,
+      t?.mannKendall?.z,
+      t?.mannKendall?.p,
+      t?.mannKendall?.tau,
+      i.qValue,
+      t?.sen?.slope,
+      t?.sen?.lower,
+      t?.sen?.upper,
+      t?.sen?.confidence,
+      i.direction,
+      i.probabilityUp,
+      i.threshold?.value ?? null,
+      b.level.id,
+      b.level.rank,
+    ];
   });
-  return toCsv(['segment_id', 'bulletin_season', 'indicator', 'unit', 'n', 'n_below_detection', 'season_median', 'season_median_below_detection_limit', 'assessment_median', 'assessment_median_below_detection_limit',
-    'mk_S', 'mk_z', 'mk_p', 'kendall_tau', 'bh_q', 'sen_slope_per_year', 'sen_lower', 'sen_upper', 'confidence', 'direction', 'probability_up', 'threshold', 'level', 'level_rank'], rows);
+  return toCsv(
+    [
+      'segment_id',
+      'bulletin_season',
+      'indicator',
+      'unit',
+      'n',
+      'n_below_detection',
+      'season_median',
+      'season_median_below_detection_limit',
+      'assessment_median',
+      'assessment_median_below_detection_limit',
+      'mk_S',
+      'mk_z',
+      'mk_p',
+      'kendall_tau',
+      'bh_q',
+      'sen_slope_per_year',
+      'sen_lower',
+      'sen_upper',
+      'confidence',
+      'direction',
+      'probability_up',
+      'threshold',
+      'level',
+      'level_rank',
+    ],
+    rows,
+  );
 }

@@ -89,16 +89,20 @@ export function evaluateSeason(scenario: LoadedScenario, seasonId: string, rules
   const areas = scenarioAreas(scenario.segments);
   const areaRegional = areas
     ? areaRegionalSites(areas, verdict.regionalSites).map(({ area, indicator, sites }) => ({
-      area,
-      indicator: indicator as IndicatorId,
-      result: regionalTrend(context, engine, indicator as IndicatorId, sites, (i, s) => entryOf(i, s).series),
-      segments: sites.length,
-    }))
+        area,
+        indicator: indicator as IndicatorId,
+        result: regionalTrend(context, engine, indicator as IndicatorId, sites, (i, s) => entryOf(i, s).series),
+        segments: sites.length,
+      }))
     : undefined;
   const segments = new Map<string, SegmentEvaluation>();
   for (const id of segmentIds) {
     const own = verdict.segments.get(id);
-    if (own) segments.set(id, segmentEvaluation(own, (indicator) => entryOf(indicator, id).evaluation));
+    if (own)
+      segments.set(
+        id,
+        segmentEvaluation(own, (indicator) => entryOf(indicator, id).evaluation),
+      );
   }
   const zones = scenario.drift?.zones.find((z) => z.season === seasonId)?.zones ?? [];
   return { season: context.season, segments, regional, zones, ...(areaRegional ? { areaRegional } : {}) };

@@ -104,12 +104,7 @@ export function finishTrend(values: readonly SeasonValue[], pending: PendingTren
   return shortfall ? { ...result, insufficient: result.insufficient ?? shortfall } : result;
 }
 
-export function runTrend(
-  engine: TrendEngine,
-  values: readonly SeasonValue[],
-  settings: ScenarioSettings,
-  seed: number,
-): TrendResult | null {
+export function runTrend(engine: TrendEngine, values: readonly SeasonValue[], settings: ScenarioSettings, seed: number): TrendResult | null {
   const pending = trendRequest(values, settings, seed);
   if (!pending) return null;
   let outcome: TrendOutcome;
@@ -274,9 +269,7 @@ export function seriesEvaluation(context: SeasonContext, indicator: IndicatorId,
     ? median(values.filter((v) => assessment.has(v.season) && v.value !== null).map((v) => v.value ?? 0))
     : median(inAssessment.map((r) => r.value ?? 0));
   const assessmentValueCensored = assessmentMedian?.censored ?? false;
-  const cci = median(
-    inAssessment.map((r) => r.extra['cleanCoastIndex']).filter((x): x is number => typeof x === 'number' && Number.isFinite(x)),
-  );
+  const cci = median(inAssessment.map((r) => r.extra['cleanCoastIndex']).filter((x): x is number => typeof x === 'number' && Number.isFinite(x)));
   const years = values.filter((v) => v.value !== null).map((v) => parseSeasonId(v.season)?.year ?? Math.floor(v.t));
   return {
     indicator,

@@ -17,9 +17,9 @@ import type { SeasonRef } from './types.ts';
 import { parseSeasonId, previousSeasonId, seasonMidYear, seasonRef } from './seasons.ts';
 
 export interface SeasonValue {
-  season: string;            // "2026-autumn"
-  seasonName: string;        // "autumn"
-  t: number;                 // decimal year of the middle of the season
+  season: string; // "2026-autumn"
+  seasonName: string; // "autumn"
+  t: number; // decimal year of the middle of the season
   value: number | null;
   censored: boolean;
   samples: number;

@@ -25,10 +25,10 @@ export type SegmentKind = 'beach' | 'bay' | 'harbour' | 'estuary' | 'island-shor
 export type ShellfishUse = 'farmed' | 'gathered' | 'farmed-and-gathered' | 'none';
 
 export interface SeasonRef {
-  id: SeasonId;            // "2026-autumn"
-  label: string;           // "Autumn 2026"
-  start: string;           // ISO 8601 date, first day
-  end: string;             // ISO 8601 date, last day
+  id: SeasonId; // "2026-autumn"
+  label: string; // "Autumn 2026"
+  start: string; // ISO 8601 date, first day
+  end: string; // ISO 8601 date, last day
 }
 
 export interface Contact {
@@ -40,12 +40,12 @@ export interface Contact {
 }
 
 export interface SegmentInfo {
-  id: string;                       // URL-safe slug
-  name: string;                     // plain text from the input; always escaped on output
+  id: string; // URL-safe slug
+  name: string; // plain text from the input; always escaped on output
   kind: SegmentKind;
   shellfish: ShellfishUse;
-  place: string | null;             // nearest locality, plain text
-  lengthKm: number;                 // geodesic length of the segment line
+  place: string | null; // nearest locality, plain text
+  lengthKm: number; // geodesic length of the segment line
   /** GeoJSON geometry (WGS84 lon/lat), simplified for maps. */
   geometry: GeoJSON.Geometry;
   /** [west, south, east, north] */
@@ -53,22 +53,22 @@ export interface SegmentInfo {
 }
 
 export interface Observation {
-  date: string;                     // ISO 8601 date of the survey or sample
-  t: number;                        // decimal year
+  date: string; // ISO 8601 date of the survey or sample
+  t: number; // decimal year
   season: SeasonId;
-  value: number | null;             // normalised value in the indicator's unit; for censored = detection limit
-  censored: boolean;                // true when reported as "<x"
-  note?: string;                    // e.g. species, mesh size
+  value: number | null; // normalised value in the indicator's unit; for censored = detection limit
+  censored: boolean; // true when reported as "<x"
+  note?: string; // e.g. species, mesh size
 }
 
 export type Direction = 'rising' | 'falling' | 'no-clear-direction' | 'too-little-data';
 
 export interface IndicatorBulletin {
   indicator: IndicatorId;
-  label: string;                    // "Beach litter"
-  unit: string;                     // "items per 100 m of beach"
-  unitShort: string;                // "items/100 m"
-  observations: Observation[];      // everything up to the end of the season, oldest first
+  label: string; // "Beach litter"
+  unit: string; // "items per 100 m of beach"
+  unitShort: string; // "items/100 m"
+  observations: Observation[]; // everything up to the end of the season, oldest first
   /** Value for the published season alone (median of its samples), null when none. */
   seasonValue: number | null;
   /**
@@ -82,13 +82,13 @@ export interface IndicatorBulletin {
   assessmentValue: number | null;
   /** True when that median is below the lab's detection limit (as seasonValueCensored). */
   assessmentValueCensored: boolean;
-  trend: TrendResult | null;        // null when there is no data at all
+  trend: TrendResult | null; // null when there is no data at all
   /** Benjamini–Hochberg q-value of this segment's trend among all segments, this indicator. */
   qValue: number | null;
   direction: Direction;
   /** Probability the trend is upward (bootstrap), null when unknown. */
   probabilityUp: number | null;
-  likelihoodWords: string | null;   // "very likely", from one documented scheme
+  likelihoodWords: string | null; // "very likely", from one documented scheme
   threshold: { value: number; label: string; source: string } | null;
   /** Plain-language sentences about this indicator, in order. */
   sentences: string[];
@@ -106,14 +106,14 @@ export interface IndicatorBulletin {
 export interface RuleHit {
   ruleId: string;
   level: LevelId;
-  text: string;                     // "Median beach litter 43 items/100 m is at or above 20 (EU threshold value)"
+  text: string; // "Median beach litter 43 items/100 m is at or above 20 (EU threshold value)"
 }
 
 export interface LevelResult {
   id: LevelId;
-  rank: 0 | 1 | 2 | 3 | 4;          // 0 for 'not-set'
-  label: string;                    // our own words
-  hits: RuleHit[];                  // rules that matched; the highest sets the level
+  rank: 0 | 1 | 2 | 3 | 4; // 0 for 'not-set'
+  label: string; // our own words
+  hits: RuleHit[]; // rules that matched; the highest sets the level
   /**
    * Where no survey was made in the last four seasons: why no level is set ("No survey here in
    * the last four seasons; the last, in autumn 2022, found 62 items per 100 m of beach."), or, when
@@ -123,23 +123,23 @@ export interface LevelResult {
 }
 
 export interface AccumulationZone {
-  id: string;                       // "zone-1"
+  id: string; // "zone-1"
   lon: number;
   lat: number;
   particles: number;
   radiusKm: number;
-  hull: [number, number][];         // convex hull, lon/lat
+  hull: [number, number][]; // convex hull, lon/lat
 }
 
 export interface DriftBulletin {
-  arrivals: number;                 // modelled particles arriving this season
+  arrivals: number; // modelled particles arriving this season
   arrivalsPerKm: number;
-  regionPercentile: number;         // 0..100 among segments this season
+  regionPercentile: number; // 0..100 among segments this season
   nearestZone: { id: string; distanceKm: number } | null;
 }
 
 export interface Caution {
-  id: string;                       // "not-a-closure", "check-authority", …
+  id: string; // "not-a-closure", "check-authority", …
   text: string;
 }
 
@@ -153,7 +153,7 @@ export interface PublisherNote {
 
 export interface Bulletin {
   schemaVersion: 1;
-  invented: boolean;                // demo data: every page says so
+  invented: boolean; // demo data: every page says so
   season: SeasonRef;
   previousSeason: SeasonRef | null;
   /**
@@ -161,20 +161,20 @@ export interface Bulletin {
    * not (e.g. 2026-spring before the first published season): then link no bulletin for it.
    */
   previousSeasonPublished?: boolean;
-  published: string;                // ISO date from the scenario, never the clock
+  published: string; // ISO date from the scenario, never the clock
   correction: { date: string; reason: string } | null;
   /** Notes from the publisher for this bulletin, season-wide first; absent when none. */
   notes?: PublisherNote[];
   segment: SegmentInfo;
   level: LevelResult;
   previousLevel: LevelResult | null;
-  headline: string;                 // one sentence
-  summary: string[];                // 2–4 sentences: level now and last season, main trend
-  changes: string[];                // "what changed since last season"
+  headline: string; // one sentence
+  summary: string[]; // 2–4 sentences: level now and last season, main trend
+  changes: string[]; // "what changed since last season"
   indicators: IndicatorBulletin[];
   drift: DriftBulletin | null;
   sections: {
-    growers: { title: string; sentences: string[] } | null;   // only where shellfish ≠ none
+    growers: { title: string; sentences: string[] } | null; // only where shellfish ≠ none
     visitors: { title: string; sentences: string[] };
     reporters: {
       keyNumbers: { label: string; value: string }[];
@@ -185,7 +185,7 @@ export interface Bulletin {
   };
   cautions: { shellfish: Caution[]; debris: Caution[] };
   authorities: Contact[];
-  permalink: string;                // "/seasons/2026-autumn/<segment>/"
+  permalink: string; // "/seasons/2026-autumn/<segment>/"
 }
 
 export interface RegionalTrend {
@@ -247,12 +247,12 @@ export interface RegionSummary {
 }
 
 export interface AreaSummary {
-  id: string;                       // URL-safe slug, "area-…"
-  number: number;                   // 1…, in order along the coast; the badge on the overview map
+  id: string; // URL-safe slug, "area-…"
+  number: number; // 1…, in order along the coast; the badge on the overview map
   name: string;
-  segmentIds: string[];             // in the order of the area's table and map list
-  level: Pick<LevelResult, 'id' | 'rank' | 'label'>;   // the highest level in the area
-  counts: { level: LevelId; rank: number; label: string; n: number }[];   // every level, highest first
+  segmentIds: string[]; // in the order of the area's table and map list
+  level: Pick<LevelResult, 'id' | 'rank' | 'label'>; // the highest level in the area
+  counts: { level: LevelId; rank: number; label: string; n: number }[]; // every level, highest first
   headline: string;
   summary: string[];
   /** Regional Kendall over the area's own segments, per indicator */
@@ -272,14 +272,14 @@ export interface SiteMapModel {
 }
 
 export interface ValidationIssue {
-  file: string;                     // path relative to the scenario folder
-  row: number | null;               // 1-based data row (header = row 1 of the file is reported as row 1)
+  file: string; // path relative to the scenario folder
+  row: number | null; // 1-based data row (header = row 1 of the file is reported as row 1)
   column: string | null;
   value: string | null;
   expected: string;
   message: string;
   severity: 'error' | 'warning';
-  excluded: boolean;                // the record was left out of the bulletin
+  excluded: boolean; // the record was left out of the bulletin
   /** Catalogue entry name (generator/errors.ts), e.g. "DuplicateKey". */
   code?: string;
   /** How to fix the input, from the catalogue. */
@@ -287,7 +287,7 @@ export interface ValidationIssue {
 }
 
 export interface ValidationReport {
-  ok: boolean;                      // no errors
+  ok: boolean; // no errors
   files: { file: string; read: number; kept: number; excluded: number }[];
   issues: ValidationIssue[];
   /** Causes with more issues than the reader keeps one by one: how many more were only counted. */

@@ -39,7 +39,6 @@ function writeJson(path: string, value: unknown): void {
   writeText(path, stableJson(value));
 }
 
-
 /** `written`: bulletins whose model file text is ready (assemble-with-memo.ts), written as they are. */
 export async function writeModel(dir: string, set: BulletinModelSet & { written?: readonly WrittenBulletin[] }): Promise<void> {
   madeDirs.clear();
@@ -50,10 +49,7 @@ export async function writeModel(dir: string, set: BulletinModelSet & { written?
   }
   for (const [i, bulletin] of set.bulletins.entries()) {
     if (i % 32 === 31) await giveTurn();
-    writeJson(
-      join(dir, 'bulletins', checkedName('season', bulletin.season.id), `${checkedName('segment', bulletin.segment.id)}.json`),
-      bulletin,
-    );
+    writeJson(join(dir, 'bulletins', checkedName('season', bulletin.season.id), `${checkedName('segment', bulletin.segment.id)}.json`), bulletin);
   }
   const listings = new Map<string, BulletinListing[]>();
   const list = (listing: BulletinListing): void => {

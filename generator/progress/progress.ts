@@ -82,8 +82,7 @@ export function createProgress(options: ProgressOptions = {}): Progress {
   const live = !quiet && stream.isTTY === true;
   const redrawEveryMs = options.redrawEveryMs ?? 100;
   const ended: PhaseTiming[] = [];
-  let running: { phase: string; startedAt: number; done: number | null; total: number | null; detail: string; unit: string; drawnAt: number } | null =
-    null;
+  let running: { phase: string; startedAt: number; done: number | null; total: number | null; detail: string; unit: string; drawnAt: number } | null = null;
 
   const line = (phase: string, detail: string): string => `  ${phase.padEnd(12)} ${detail}`;
 

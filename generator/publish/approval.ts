@@ -83,7 +83,10 @@ export async function approveCandidate(options: { out: string; by: string; at: D
     }
     const present = await listFiles(place.site);
     const listed = new Set([...manifest.files.map((entry) => entry.file), manifestFileName]);
-    const hashes = await hashFilesIn(place.site, manifest.files.map((entry) => entry.file));
+    const hashes = await hashFilesIn(
+      place.site,
+      manifest.files.map((entry) => entry.file),
+    );
     const altered = manifest.files.find((entry, i) => hashes[i]?.sha256 !== entry.sha256) ?? present.find((file) => !listed.has(file));
     if (altered !== undefined) {
       const file = typeof altered === 'string' ? altered : altered.file;

@@ -105,12 +105,7 @@ function sha256(text: string): string {
   return createHash('sha256').update(text).digest('hex');
 }
 
-function entryFor(
-  segment: string | null,
-  page: string,
-  content: { [field: string]: unknown },
-  correction: LedgerEntry['correction'],
-): LedgerEntry {
+function entryFor(segment: string | null, page: string, content: { [field: string]: unknown }, correction: LedgerEntry['correction']): LedgerEntry {
   const parts: { [field: string]: string } = {};
   // The whole content's canonical text is made of its fields' texts (same as canonicalJson(content)).
   const pieces: string[] = [];
@@ -207,23 +202,14 @@ export interface ArchiveViolation {
 }
 
 function correctionCovers(corrections: readonly Correction[], season: string, segment: string | null): Correction | null {
-  return (
-    corrections.find(
-      (correction) =>
-        correction.season === season && (correction.segment === null || segment === null || correction.segment === segment),
-    ) ?? null
-  );
+  return corrections.find((correction) => correction.season === season && (correction.segment === null || segment === null || correction.segment === segment)) ?? null;
 }
 
 /**
  * Compares the seasons that are past in `next` with what `previous` published. Returns every
  * violation; an empty list means the archive is intact.
  */
-export function compareLedgers(
-  previous: ArchiveLedger | null,
-  next: ArchiveLedger,
-  corrections: readonly Correction[],
-): ArchiveViolation[] {
+export function compareLedgers(previous: ArchiveLedger | null, next: ArchiveLedger, corrections: readonly Correction[]): ArchiveViolation[] {
   if (previous === null) return [];
   const violations: ArchiveViolation[] = [];
   const nextSeasons = new Map(next.seasons.map((season) => [season.season, season]));

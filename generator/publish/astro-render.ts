@@ -246,10 +246,13 @@ export async function renderWithAstro(options: RenderOptions): Promise<{ pages: 
       await writeFile(only, `${JSON.stringify(list)}\n`);
       const own = new Set(list);
       // Pages listing every bulletin are rendered by each process alike: count them once.
-      const onPage = i === 0 ? count : (page: string): void => {
-        const owner = ownerOf(page.replace(/^\/+/, ''), current);
-        if (owner !== null && own.has(owner)) count();
-      };
+      const onPage =
+        i === 0
+          ? count
+          : (page: string): void => {
+              const owner = ownerOf(page.replace(/^\/+/, ''), current);
+              if (owner !== null && own.has(owner)) count();
+            };
       runs.push({ siteRoot, modelDir: options.modelDir, outDir: i === 0 ? options.outDir : path.join(shardRoot, `site-${i}`), only, onPage });
     }
     const outcomes = await Promise.allSettled(runs.map((run, i) => runAstro(run, scratchOf(i))));

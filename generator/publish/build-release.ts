@@ -88,9 +88,7 @@ function checkIds(set: ModelSet): void {
 }
 
 /** Reading, statistics and writing the model: the large objects live only inside this step. */
-async function prepareModel(
-  options: BuildReleaseOptions,
-): Promise<
+async function prepareModel(options: BuildReleaseOptions): Promise<
   | { kind: 'invalid'; report: ValidationReport }
   | {
       kind: 'ready';
@@ -204,9 +202,13 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     const pageFiles = await listFiles(siteDir);
     const broughtHashes = new Map(brought.map((entry) => [entry.file, entry]));
     progress.start('checks', undefined, 'files');
-    const pagesHashed = [...(await hashFilesIn(siteDir, pageFiles.filter((file) => !broughtHashes.has(file)))), ...brought].sort((a, b) =>
-      compareCodeUnits(a.file, b.file),
-    );
+    const pagesHashed = [
+      ...(await hashFilesIn(
+        siteDir,
+        pageFiles.filter((file) => !broughtHashes.has(file)),
+      )),
+      ...brought,
+    ].sort((a, b) => compareCodeUnits(a.file, b.file));
     progress.update(pagesHashed.length);
     const search = await startSearchIndex({
       siteDir,
@@ -322,12 +324,7 @@ async function startSearchIndex(input: {
   const previous = onLine ? readSearchParts(onLine.release) : null;
   const parts = planSearchParts(await pagesToIndex(siteDir, input.pageFiles, input.takenOverPages, previous));
   const takenOver = onLine
-    ? partsToTakeOver(
-        previous,
-        parts,
-        new Map(input.pagesHashed.map((entry) => [entry.file, entry.sha256])),
-        new Map(onLine.files.map((entry) => [entry.file, entry.sha256])),
-      )
+    ? partsToTakeOver(previous, parts, new Map(input.pagesHashed.map((entry) => [entry.file, entry.sha256])), new Map(onLine.files.map((entry) => [entry.file, entry.sha256])))
     : [];
   const toIndex = parts.filter((part) => !takenOver.includes(part));
   if (parts.length > 0 && toIndex.length === parts.length) input.note(`  checks: the search index (${parts.length} parts) is built meanwhile`);

@@ -19,10 +19,7 @@ export interface ModelSet {
 export interface BuildSteps {
   /** `cacheDir`: where figures from earlier builds may be kept (null: read everything afresh). */
   load(dir: string, onProgress: (phase: string, done: number, total?: number) => void, cacheDir: string | null): Promise<LoadedScenario>;
-  model(
-    scenario: LoadedScenario,
-    options: { cacheDir: string | null; onProgress: (done: number, total?: number) => void; log: (line: string) => void },
-  ): Promise<ModelSet>;
+  model(scenario: LoadedScenario, options: { cacheDir: string | null; onProgress: (done: number, total?: number) => void; log: (line: string) => void }): Promise<ModelSet>;
   write(modelDir: string, set: ModelSet): Promise<void>;
   /**
    * `only`: a JSON file listing the "season/segment" bulletins whose own pages to render (pages

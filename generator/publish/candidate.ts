@@ -59,7 +59,10 @@ export async function hashInputs(scenario: string, files: readonly string[]): Pr
 
 /** Inputs whose content differs from the record (or that are gone), by file name. */
 export async function changedInputs(record: CandidateRecord): Promise<string[]> {
-  const now = await hashInputs(record.scenario, record.inputs.map((entry) => entry.file));
+  const now = await hashInputs(
+    record.scenario,
+    record.inputs.map((entry) => entry.file),
+  );
   return record.inputs.filter((entry, i) => now[i]?.sha256 !== entry.sha256).map((entry) => entry.file);
 }
 

@@ -29,7 +29,10 @@ export async function importedFiles(root: string, start: readonly string[]): Pro
     // type-only imports vanish when the code runs
     const code = text.replace(typeOnly, '');
     for (const match of code.matchAll(importPattern)) {
-      const target = path.relative(root, path.resolve(root, path.dirname(file), match[1] ?? '')).split(path.sep).join('/');
+      const target = path
+        .relative(root, path.resolve(root, path.dirname(file), match[1] ?? ''))
+        .split(path.sep)
+        .join('/');
       if (target.startsWith('..') || seen.has(target)) continue;
       seen.add(target);
       found.add(target);

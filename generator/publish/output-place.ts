@@ -89,7 +89,8 @@ export async function outputPlaceProblem(out: string): Promise<string | null> {
 
   const place = placeFor(absolute);
   const stateInfo = await lstat(place.state).catch(() => null);
-  if (stateInfo && !stateInfo.isDirectory()) return `--out ${absolute}: ${place.state} exists and is not a folder; this tool keeps its releases and cache there. Move it away or choose another --out`;
+  if (stateInfo && !stateInfo.isDirectory())
+    return `--out ${absolute}: ${place.state} exists and is not a folder; this tool keeps its releases and cache there. Move it away or choose another --out`;
   const found = await inspectOutput(place).catch(() => ({ kind: 'other' as const }));
   if (found.kind === 'other') return `--out ${absolute} exists and is not a folder. Choose another --out`;
   if (found.kind === 'link' && found.release === null) {
@@ -125,7 +126,8 @@ const writeFailures: { [code: string]: string } = {
 export function plainWriteFailure(error: unknown, out: string): string | null {
   const code = errorCode(error);
   const message = error instanceof Error ? error.message : String(error);
-  const found = code && writeFailures[code] ? code : Object.keys(writeFailures).find((c) => message.includes(c)) ?? (/no space left on device/i.test(message) ? 'ENOSPC' : undefined);
+  const found =
+    code && writeFailures[code] ? code : (Object.keys(writeFailures).find((c) => message.includes(c)) ?? (/no space left on device/i.test(message) ? 'ENOSPC' : undefined));
   if (!found) return null;
   const where = typeof error === 'object' && error !== null && 'path' in error ? String((error as { path: unknown }).path) : path.resolve(out);
   return `cannot write ${where}: ${writeFailures[found]} (${found}). Nothing was published; the site at ${path.resolve(out)} is as it was.\nFix the place (space, permissions) or choose another --out, then build again`;

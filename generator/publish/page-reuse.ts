@@ -96,7 +96,12 @@ export async function siteFingerprint(root: string, version: string): Promise<st
       files.push(text === null ? `${item}\0missing` : item);
     }
   }
-  files.push(...(await importedProjectFiles(root, files.filter((file) => !file.endsWith('\0missing')))));
+  files.push(
+    ...(await importedProjectFiles(
+      root,
+      files.filter((file) => !file.endsWith('\0missing')),
+    )),
+  );
   const hash = createHash('sha256').update(`${keyScheme}\nwrackline ${version}\n`);
   for (const file of files.sort(compareCodeUnits)) {
     const text = file.endsWith('\0missing') ? null : await readFile(path.join(root, file)).catch(() => null);
@@ -158,7 +163,10 @@ function modelSeasons(modelDir: string): { id: string; current?: boolean }[] {
  */
 export async function modelFileHashes(modelDir: string, known: ReadonlyMap<string, string> = new Map()): Promise<Map<string, string>> {
   const hashes = new Map<string, string>();
-  for (const [i, entry] of bulletinFiles(modelDir, modelSeasons(modelDir).map((s) => s.id)).entries()) {
+  for (const [i, entry] of bulletinFiles(
+    modelDir,
+    modelSeasons(modelDir).map((s) => s.id),
+  ).entries()) {
     const given = known.get(entry.id);
     if (given !== undefined) {
       hashes.set(entry.id, given);
@@ -174,7 +182,10 @@ export async function modelFileHashes(modelDir: string, known: ReadonlyMap<strin
 export async function computeRenderKeys(modelDir: string, fingerprint: string, hashes?: ReadonlyMap<string, string>): Promise<RenderKeys> {
   const seasons = modelSeasons(modelDir);
   const current = seasons.find((s) => s.current)?.id ?? '';
-  const files = bulletinFiles(modelDir, seasons.map((s) => s.id));
+  const files = bulletinFiles(
+    modelDir,
+    seasons.map((s) => s.id),
+  );
   const fileHashes = hashes ?? (await modelFileHashes(modelDir));
   // land drawn under every locator map (site.json "map"): other land, every bulletin page again
   const siteMap = (JSON.parse(readFileSync(path.join(modelDir, 'site.json'), 'utf8')) as { map?: unknown }).map ?? null;
@@ -194,7 +205,11 @@ export async function computeRenderKeys(modelDir: string, fingerprint: string, h
 }
 
 export function renderKeysText(keys: RenderKeys): string {
-  const bulletins = Object.fromEntries(Object.keys(keys.bulletins).sort(compareCodeUnits).map((id) => [id, keys.bulletins[id]]));
+  const bulletins = Object.fromEntries(
+    Object.keys(keys.bulletins)
+      .sort(compareCodeUnits)
+      .map((id) => [id, keys.bulletins[id]]),
+  );
   return `${JSON.stringify({ scheme: keys.scheme, shared: keys.shared, current: keys.current, bulletins }, null, 2)}\n`;
 }
 
@@ -213,9 +228,7 @@ export async function readRenderKeys(release: string): Promise<RenderKeys | null
   }
 }
 
-export type RenderPlan =
-  | { kind: 'all'; reason: string }
-  | { kind: 'some'; render: string[]; reuse: string[] };
+export type RenderPlan = { kind: 'all'; reason: string } | { kind: 'some'; render: string[]; reuse: string[] };
 
 /** Which bulletins to render, given the keys on line (null: none) and the new keys. */
 export function planRender(previous: RenderKeys | null, next: RenderKeys): RenderPlan {

@@ -100,9 +100,7 @@ async function swapLink(place: PublishPlace, releaseId: string): Promise<void> {
 }
 
 /** What is at `out` now. */
-export async function inspectOutput(
-  place: PublishPlace,
-): Promise<{ kind: 'missing' } | { kind: 'link'; release: string | null } | { kind: 'folder' } | { kind: 'other' }> {
+export async function inspectOutput(place: PublishPlace): Promise<{ kind: 'missing' } | { kind: 'link'; release: string | null } | { kind: 'folder' } | { kind: 'other' }> {
   let info;
   try {
     info = await lstat(place.out);
@@ -158,7 +156,10 @@ async function holdsTree(folder: string, tree: string): Promise<boolean> {
   if (present.length !== expected.size || present.some((file) => !expected.has(file))) return false;
   const manifests = await Promise.all([readFile(path.join(folder, manifestFileName)), readFile(path.join(tree, manifestFileName))]);
   if (!manifests[0].equals(manifests[1])) return false;
-  const hashes = await hashFilesIn(folder, wanted.files.map((entry) => entry.file));
+  const hashes = await hashFilesIn(
+    folder,
+    wanted.files.map((entry) => entry.file),
+  );
   return hashes.every((entry, i) => entry.sha256 === wanted.files[i]?.sha256 && entry.bytes === wanted.files[i]?.bytes);
 }
 

@@ -17,9 +17,7 @@ export function isSlug(value: string): boolean {
 /** Throws unless `value` is a slug; `what` names it in the message ("segment id"). */
 export function assertSlug(value: string, what: string): void {
   if (!isSlug(value)) {
-    throw new PublishError(
-      `${what} ${JSON.stringify(value)} is not a slug: expected 1–63 lower-case letters, digits and hyphens, starting with a letter or digit`,
-    );
+    throw new PublishError(`${what} ${JSON.stringify(value)} is not a slug: expected 1–63 lower-case letters, digits and hyphens, starting with a letter or digit`);
   }
 }
 

@@ -56,7 +56,10 @@ export function compareCodeUnits(a: string, b: string): number {
  * gets a turn every few files, so child processes' output keeps flowing meanwhile.
  */
 export async function hashTree(root: string, skip: ReadonlySet<string> = new Set()): Promise<FileHash[]> {
-  return hashFilesIn(root, (await listFiles(root)).filter((file) => !skip.has(file)));
+  return hashFilesIn(
+    root,
+    (await listFiles(root)).filter((file) => !skip.has(file)),
+  );
 }
 
 /** Hashes the listed files (relative to `root`), in the order given. */
@@ -78,11 +81,7 @@ export function treeDigest(files: readonly FileHash[]): string {
 }
 
 /** Writes `manifest.json` from a listing of every other file (sorted here) and returns it. */
-export async function writeManifest(
-  root: string,
-  listing?: readonly FileHash[],
-  extra: { [field: string]: unknown } = {},
-): Promise<FileHash[]> {
+export async function writeManifest(root: string, listing?: readonly FileHash[], extra: { [field: string]: unknown } = {}): Promise<FileHash[]> {
   const files = listing
     ? listing.filter((entry) => entry.file !== manifestFileName).sort((a, b) => compareCodeUnits(a.file, b.file))
     : await hashTree(root, new Set([manifestFileName]));

@@ -12,7 +12,10 @@ export type Synonyms = { readonly [folded: string]: string };
 
 /** Trimmed, lower case, runs of spaces, hyphens and underscores made one hyphen. */
 export function foldCategory(value: string): string {
-  return value.trim().toLowerCase().replace(/[\s_-]+/g, '-');
+  return value
+    .trim()
+    .toLowerCase()
+    .replace(/[\s_-]+/g, '-');
 }
 
 /**
@@ -23,8 +26,18 @@ export function foldCategory(value: string): string {
 export const segmentCategoryWords: { kind: Synonyms; shellfish: Synonyms } = {
   kind: { harbor: 'harbour', island: 'island-shore', 'island-coast': 'island-shore', rocky: 'rocky-shore', 'rocky-coast': 'rocky-shore', 'sandy-beach': 'beach' },
   shellfish: {
-    yes: 'farmed-and-gathered', y: 'farmed-and-gathered', true: 'farmed-and-gathered', both: 'farmed-and-gathered',
-    no: 'none', n: 'none', false: 'none', farm: 'farmed', farming: 'farmed', aquaculture: 'farmed', gathering: 'gathered', harvested: 'gathered',
+    yes: 'farmed-and-gathered',
+    y: 'farmed-and-gathered',
+    true: 'farmed-and-gathered',
+    both: 'farmed-and-gathered',
+    no: 'none',
+    n: 'none',
+    false: 'none',
+    farm: 'farmed',
+    farming: 'farmed',
+    aquaculture: 'farmed',
+    gathering: 'gathered',
+    harvested: 'gathered',
   },
 };
 

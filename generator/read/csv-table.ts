@@ -187,14 +187,28 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
   const firstLineEnd = headText.indexOf('\n');
   const firstLine = (firstLineEnd === -1 ? headText : headText.slice(0, firstLineEnd)).replace(/\r$/, '');
   if (firstLineEnd > 0 && headText[firstLineEnd - 1] === '\r') {
-    log.add(WindowsLineEnds, WindowsLineEnds.message(file), { file, row: 1, column: null, value: null, expected: 'lines ending in LF or CR LF', severity: 'warning', excluded: false });
+    log.add(WindowsLineEnds, WindowsLineEnds.message(file), {
+      file,
+      row: 1,
+      column: null,
+      value: null,
+      expected: 'lines ending in LF or CR LF',
+      severity: 'warning',
+      excluded: false,
+    });
   }
   const delimiterCounts = countDelimiters(firstLine);
   if (rules.length > 1 && (delimiterCounts.get(dialect.delimiter) ?? 0) === 0) {
     const found = candidateDelimiters.find((d) => d !== dialect.delimiter && (delimiterCounts.get(d) ?? 0) > 0);
     if (found !== undefined) {
       log.add(DelimiterMismatch, DelimiterMismatch.message(file, found, dialect.delimiter), {
-        file, row: 1, column: null, value: found, expected: `columns separated by ${JSON.stringify(dialect.delimiter)}`, severity: 'error', excluded: true,
+        file,
+        row: 1,
+        column: null,
+        value: found,
+        expected: `columns separated by ${JSON.stringify(dialect.delimiter)}`,
+        severity: 'error',
+        excluded: true,
       });
       await excludeWholeTable(options);
       return;
@@ -238,7 +252,13 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
     const matched = names.filter((n) => known.has(n));
     if (matched.length === 0) {
       log.add(HeaderLooksLikeData, HeaderLooksLikeData.message(file, cells.join(dialect.delimiter)), {
-        file, row: 1, column: null, value: cells.join(dialect.delimiter), expected: `a header naming ${rules.map((r) => r.name).join(', ')}`, severity: 'error', excluded: true,
+        file,
+        row: 1,
+        column: null,
+        value: cells.join(dialect.delimiter),
+        expected: `a header naming ${rules.map((r) => r.name).join(', ')}`,
+        severity: 'error',
+        excluded: true,
       });
       return false;
     }
@@ -253,14 +273,28 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
       }
       const isKnown = known.has(n);
       log.add(HeaderDuplicateColumn, HeaderDuplicateColumn.message(file, n, first + 1, i + 1), {
-        file, row: 1, column: n, value: n, expected: 'each column named once', severity: isKnown ? 'error' : 'warning', excluded: isKnown,
+        file,
+        row: 1,
+        column: n,
+        value: n,
+        expected: 'each column named once',
+        severity: isKnown ? 'error' : 'warning',
+        excluded: isKnown,
       });
       if (isKnown) usable = false;
     });
     names.forEach((n, i) => {
       if (known.has(n) && !columnIndex?.has(n)) columnIndex?.set(n, i);
       else if (!known.has(n)) {
-        log.add(HeaderUnknownColumn, HeaderUnknownColumn.message(file, n), { file, row: 1, column: n, value: n, expected: 'a field of the table schema', severity: 'warning', excluded: false });
+        log.add(HeaderUnknownColumn, HeaderUnknownColumn.message(file, n), {
+          file,
+          row: 1,
+          column: n,
+          value: n,
+          expected: 'a field of the table schema',
+          severity: 'warning',
+          excluded: false,
+        });
       }
     });
     headerLength = cells.length;
@@ -268,7 +302,13 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
       if (columnIndex.has(rule.name)) continue;
       const essential = options.essentialColumns.includes(rule.name) || rule.required;
       log.add(HeaderMissingColumn, HeaderMissingColumn.message(file, rule.name, names.join(dialect.delimiter)), {
-        file, row: 1, column: rule.name, value: names.join(dialect.delimiter), expected: `a column named ${rule.name}`, severity: essential ? 'error' : 'warning', excluded: essential,
+        file,
+        row: 1,
+        column: rule.name,
+        value: names.join(dialect.delimiter),
+        expected: `a column named ${rule.name}`,
+        severity: essential ? 'error' : 'warning',
+        excluded: essential,
       });
       if (essential) usable = false;
     }
@@ -281,7 +321,13 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
       const truncated = isLast && cells.length < headerLength && lastByte.last !== 10 && lastByte.last !== 13;
       const entry = truncated ? RowTruncated : RowWrongLength;
       log.add(entry, entry.message(file, line, cells.length, headerLength), {
-        file, row: line, column: null, value: cells.join(dialect.delimiter), expected: `${headerLength} cells`, severity: 'warning', excluded: true,
+        file,
+        row: line,
+        column: null,
+        value: cells.join(dialect.delimiter),
+        expected: `${headerLength} cells`,
+        severity: 'warning',
+        excluded: true,
       });
       counts.excluded++;
       return;
@@ -294,14 +340,29 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
       const hidden = raw.includes('\ufffd') ? InvalidUtf8 : raw.includes('\0') ? NulInText : null;
       if (hidden !== null) {
         bad = true;
-        log.add(hidden, hidden.message(file, line, rule.name, raw), { file, row: line, column: rule.name, value: raw, expected: 'UTF-8 text without control bytes', severity: 'warning', excluded: true });
+        log.add(hidden, hidden.message(file, line, rule.name, raw), {
+          file,
+          row: line,
+          column: rule.name,
+          value: raw,
+          expected: 'UTF-8 text without control bytes',
+          severity: 'warning',
+          excluded: true,
+        });
         continue;
       }
       const result = parseCell(raw, rule, options.missingValues, dialect.decimalChar, file, line);
       if (!result.ok) {
         bad = true;
         log.add(result.problem.entry, result.problem.message, {
-          file, row: line, column: rule.name, value: raw, expected: result.problem.expected, severity: 'warning', excluded: true, ...(result.problem.hint === undefined ? {} : { hint: result.problem.hint }),
+          file,
+          row: line,
+          column: rule.name,
+          value: raw,
+          expected: result.problem.expected,
+          severity: 'warning',
+          excluded: true,
+          ...(result.problem.hint === undefined ? {} : { hint: result.problem.hint }),
         });
         continue;
       }
@@ -310,12 +371,24 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
       row.censored[rule.name] = result.censored;
       if (rule.type !== 'integer' && rule.type !== 'number' && typeof result.value === 'string' && containsMarkup(result.value)) {
         log.add(MarkupInText, MarkupInText.message(file, line, rule.name, result.value), {
-          file, row: line, column: rule.name, value: result.value, expected: 'plain text', severity: 'warning', excluded: false,
+          file,
+          row: line,
+          column: rule.name,
+          value: result.value,
+          expected: 'plain text',
+          severity: 'warning',
+          excluded: false,
         });
       }
       if (typeof result.value === 'string' && controls.length > 0) {
         log.add(BidiControlInText, BidiControlInText.message(file, line, rule.name, result.value, controls.join(', ')), {
-          file, row: line, column: rule.name, value: result.value, expected: 'text without direction controls', severity: 'warning', excluded: false,
+          file,
+          row: line,
+          column: rule.name,
+          value: result.value,
+          expected: 'text without direction controls',
+          severity: 'warning',
+          excluded: false,
         });
       }
     }
@@ -331,7 +404,13 @@ export async function readCsvTable(options: CsvTableOptions): Promise<void> {
         const column = options.primaryKey.join('+');
         const value = options.primaryKey.map((k) => String(row.values[k] ?? '')).join('+');
         log.add(DuplicateKey, DuplicateKey.message(file, line, column, value, first), {
-          file, row: line, column, value, expected: 'a unique id', severity: 'warning', excluded: true,
+          file,
+          row: line,
+          column,
+          value,
+          expected: 'a unique id',
+          severity: 'warning',
+          excluded: true,
         });
         counts.excluded++;
         options.onLeftOut?.(row);

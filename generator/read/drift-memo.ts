@@ -29,12 +29,7 @@ export interface DriftMemo {
 }
 
 /** The key of one drift reading: null when some drift file has no digest (it could not be read). */
-export function driftMemoKey(
-  resources: readonly ResourceEntry[],
-  inputs: readonly InputFile[],
-  segments: readonly Segment[],
-  settings: ScenarioSettings,
-): string | null {
+export function driftMemoKey(resources: readonly ResourceEntry[], inputs: readonly InputFile[], segments: readonly Segment[], settings: ScenarioSettings): string | null {
   const digests = new Map(inputs.map((input) => [input.file, input.sha256]));
   const files: unknown[] = [];
   for (const resource of resources) {
@@ -52,7 +47,10 @@ export function driftLogEntries(log: IssueLog, issuesBefore: number, files: read
   const wanted = new Set(files);
   return {
     issues: log.issues.slice(issuesBefore),
-    counts: log.report().files.filter((counts) => wanted.has(counts.file)).map((counts) => ({ ...counts })),
+    counts: log
+      .report()
+      .files.filter((counts) => wanted.has(counts.file))
+      .map((counts) => ({ ...counts })),
   };
 }
 

@@ -121,7 +121,15 @@ export function checkSchema(resource: ResourceEntry, schema: TableSchema, defini
       // The record id is optional: the row number stands in for it.
       if (column.required && column.name !== definition.keyColumn) {
         const expected = `a field ${column.name} of type ${column.type}${column.unit ? ` in ${column.unit}` : ''}`;
-        log.add(SchemaFieldMissing, SchemaFieldMissing.message(file, column.name, expected), { file, row: 1, column: column.name, value: null, expected, severity: 'error', excluded: true });
+        log.add(SchemaFieldMissing, SchemaFieldMissing.message(file, column.name, expected), {
+          file,
+          row: 1,
+          column: column.name,
+          value: null,
+          expected,
+          severity: 'error',
+          excluded: true,
+        });
         usable = false;
       }
       continue;
@@ -129,25 +137,50 @@ export function checkSchema(resource: ResourceEntry, schema: TableSchema, defini
     if ((field.type === 'date' || field.type === 'datetime') && field.format !== undefined && field.format !== 'default' && !dateFormatUnderstood(field.format)) {
       const expected = 'a date format such as "%d/%m/%Y" (directives %d, %m, %Y)';
       log.add(SchemaFieldType, `${file} row 1, column ${field.name}: date format ${JSON.stringify(field.format)} is not understood; expected ${expected}`, {
-        file, row: 1, column: field.name, value: field.format, expected, severity: 'error', excluded: true, hint: 'Table Schema date patterns use %d (day), %m (month) and %Y (four-digit year) with any separators',
+        file,
+        row: 1,
+        column: field.name,
+        value: field.format,
+        expected,
+        severity: 'error',
+        excluded: true,
+        hint: 'Table Schema date patterns use %d (day), %m (month) and %Y (four-digit year) with any separators',
       });
       usable = false;
     }
     const allowed = compatibleTypes[column.type] ?? [column.type];
     if (!allowed.includes(field.type)) {
       log.add(SchemaFieldType, SchemaFieldType.message(file, column.name, field.type, `type ${column.type}`), {
-        file, row: 1, column: column.name, value: field.type, expected: `type ${column.type}`, severity: 'error', excluded: true,
+        file,
+        row: 1,
+        column: column.name,
+        value: field.type,
+        expected: `type ${column.type}`,
+        severity: 'error',
+        excluded: true,
       });
       usable = false;
     }
     if (column.unit) {
       if (field.unit === undefined) {
         log.add(UnitMismatch, `${file} row 1, column ${column.name}: no unit is declared; expected "${column.unit}"; values were read as ${column.unit}`, {
-          file, row: 1, column: column.name, value: null, expected: column.unit, severity: 'warning', excluded: false,
+          file,
+          row: 1,
+          column: column.name,
+          value: null,
+          expected: column.unit,
+          severity: 'warning',
+          excluded: false,
         });
       } else if (![column.unit, ...(column.unitAlternatives ?? [])].some((unit) => sameUnit(field.unit ?? '', unit))) {
         log.add(UnitMismatch, UnitMismatch.message(file, column.name, field.unit, column.unit), {
-          file, row: 1, column: column.name, value: field.unit, expected: column.unit, severity: 'error', excluded: true,
+          file,
+          row: 1,
+          column: column.name,
+          value: field.unit,
+          expected: column.unit,
+          severity: 'error',
+          excluded: true,
         });
         usable = false;
       }
@@ -231,7 +264,13 @@ export async function readIndicatorTable(input: IndicatorTableInput): Promise<Sc
   });
   for (const [segment, seen] of leftOutRows) {
     log.add(SegmentLeftOut, SegmentLeftOut.message(file, seen.rows, segment, seen.first), {
-      file, row: seen.first, column: segmentColumn, value: segment, expected: `a segment kept in ${input.segmentsFile}`, severity: 'warning', excluded: true,
+      file,
+      row: seen.first,
+      column: segmentColumn,
+      value: segment,
+      expected: `a segment kept in ${input.segmentsFile}`,
+      severity: 'warning',
+      excluded: true,
     });
   }
   return records;
@@ -250,7 +289,13 @@ export async function readIndicatorTable(input: IndicatorTableInput): Promise<Sc
       if (typeof value === 'string' && !input.segmentIds.has(value)) {
         const suggestion = nearestWord(value, knownIds);
         log.add(UnknownSegment, `${UnknownSegment.message(file, line, column, value, input.segmentsFile)}${didYouMean(suggestion)}`, {
-          file, row: line, column, value, expected: `a segment id from ${input.segmentsFile}`, severity: 'warning', excluded: true,
+          file,
+          row: line,
+          column,
+          value,
+          expected: `a segment id from ${input.segmentsFile}`,
+          severity: 'warning',
+          excluded: true,
           ...(suggestion === null ? {} : { hint: `Write "${suggestion}", the segment id in ${input.segmentsFile} closest to ${JSON.stringify(value)}` }),
         });
         keep = false;
@@ -261,24 +306,48 @@ export async function readIndicatorTable(input: IndicatorTableInput): Promise<Sc
       // no period to compare with
     } else if (period.start !== null && date < period.start) {
       log.add(DateBeforeScenario, DateBeforeScenario.message(file, line, dateColumn, date, period.start), {
-        file, row: line, column: dateColumn, value: date, expected: `${period.start} or later`, severity: 'warning', excluded: true,
+        file,
+        row: line,
+        column: dateColumn,
+        value: date,
+        expected: `${period.start} or later`,
+        severity: 'warning',
+        excluded: true,
       });
       keep = false;
     } else if (date > period.published) {
       log.add(DateInFuture, DateInFuture.message(file, line, dateColumn, date, period.published), {
-        file, row: line, column: dateColumn, value: date, expected: `${period.published} or earlier`, severity: 'warning', excluded: true,
+        file,
+        row: line,
+        column: dateColumn,
+        value: date,
+        expected: `${period.published} or earlier`,
+        severity: 'warning',
+        excluded: true,
       });
       keep = false;
     } else if (date > period.end) {
       log.add(DateAfterScenario, DateAfterScenario.message(file, line, dateColumn, date, period.end), {
-        file, row: line, column: dateColumn, value: date, expected: `${period.end} or earlier`, severity: 'warning', excluded: true,
+        file,
+        row: line,
+        column: dateColumn,
+        value: date,
+        expected: `${period.end} or earlier`,
+        severity: 'warning',
+        excluded: true,
       });
       keep = false;
     }
     const season = seasonOfDate(date, settings.seasons);
     if (!season) {
       log.add(DateNotInSeason, DateNotInSeason.message(file, line, dateColumn, date), {
-        file, row: line, column: dateColumn, value: date, expected: 'a date in a month covered by the seasons of scenario.json', severity: 'warning', excluded: true,
+        file,
+        row: line,
+        column: dateColumn,
+        value: date,
+        expected: 'a date in a month covered by the seasons of scenario.json',
+        severity: 'warning',
+        excluded: true,
       });
       keep = false;
     }
@@ -306,4 +375,3 @@ function renameKeys<T>(values: { [column: string]: T }, names: ColumnNames): { [
   for (const [key, value] of Object.entries(values)) out[names.ours(key)] = value;
   return out;
 }
-

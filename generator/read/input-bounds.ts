@@ -47,7 +47,9 @@ export class ExpansionGuard extends Transform {
     }
     const compressed = this.compressedBytes?.();
     if (compressed !== undefined && this.total > expansionAllowance && this.total > compressed * maxExpansionRatio) {
-      callback(new InputBoundExceeded(`the compressed file expands more than ${maxExpansionRatio} times (${megabytes(compressed)} to over ${megabytes(this.total)}), as a gzip bomb does`));
+      callback(
+        new InputBoundExceeded(`the compressed file expands more than ${maxExpansionRatio} times (${megabytes(compressed)} to over ${megabytes(this.total)}), as a gzip bomb does`),
+      );
       return;
     }
     callback(null, chunk);

@@ -58,7 +58,10 @@ export class IssueLog {
   /** Adds an issue raised elsewhere (e.g. carried by an InputValidationError); capped like add(). */
   push(raw: ValidationIssue): void {
     // A value or message holding direction controls is shown as an isolate (bidi-controls.ts).
-    const item = bidiControls(`${raw.value ?? ''}${raw.message}`).length === 0 ? raw : { ...raw, value: raw.value === null ? null : isolateBidi(raw.value), message: isolateBidi(raw.message) };
+    const item =
+      bidiControls(`${raw.value ?? ''}${raw.message}`).length === 0
+        ? raw
+        : { ...raw, value: raw.value === null ? null : isolateBidi(raw.value), message: isolateBidi(raw.message) };
     if (item.severity === 'error') this.errors = true;
     const key = causeKey(item);
     const seen = this.kept.get(key) ?? 0;

@@ -12,9 +12,7 @@ export const maxJsonDepth = 64;
 export const maxJsonBytes = 512 * 1024 * 1024;
 export const forbiddenKeys: ReadonlySet<string> = new Set(['__proto__', 'constructor', 'prototype']);
 
-export type JsonOutcome =
-  | { ok: true; value: unknown; forbidden: string[] }
-  | { ok: false; kind: 'bounds' | 'syntax'; reason: string };
+export type JsonOutcome = { ok: true; value: unknown; forbidden: string[] } | { ok: false; kind: 'bounds' | 'syntax'; reason: string };
 
 /** Deepest nesting of arrays and objects in a JSON text, stopping early past `limit`. */
 export function jsonDepth(text: string, limit = maxJsonDepth): number {
@@ -24,7 +22,8 @@ export function jsonDepth(text: string, limit = maxJsonDepth): number {
   for (let i = 0; i < text.length; i++) {
     const c = text.charCodeAt(i);
     if (inString) {
-      if (c === 92) i++; // backslash: skip the escaped character
+      if (c === 92)
+        i++; // backslash: skip the escaped character
       else if (c === 34) inString = false;
     } else if (c === 34) inString = true;
     else if (c === 123 || c === 91) {

@@ -9,7 +9,17 @@
  */
 import { realpath, stat } from 'node:fs/promises';
 import { join, resolve } from 'node:path';
-import { InputValidationError, NoUsableRows, ResourceFileMissing, ResourceInvalid, ResourceOutsideScenario, RuleWithoutData, ScenarioError, ScenarioFolderUnreadable, SettingsInvalid } from '../errors.ts';
+import {
+  InputValidationError,
+  NoUsableRows,
+  ResourceFileMissing,
+  ResourceInvalid,
+  ResourceOutsideScenario,
+  RuleWithoutData,
+  ScenarioError,
+  ScenarioFolderUnreadable,
+  SettingsInvalid,
+} from '../errors.ts';
 import { readDrift } from '../drift/drift-model.ts';
 import { driftLogEntries, driftMemoKey, replayDriftLog, type DriftMemo } from './drift-memo.ts';
 import { indicatorDefinitions } from '../indicators/index.ts';
@@ -62,13 +72,25 @@ function periodOf(settings: ScenarioSettings, file: string, log: IssueLog): Scen
     if (!range) {
       const path = `$.publications[${i}].season`;
       log.add(SettingsInvalid, SettingsInvalid.message(file, path, JSON.stringify(publication.season), 'YYYY-<season id> with a season defined in "seasons"'), {
-        file, row: null, column: path, value: publication.season, expected: 'YYYY-<season id>', severity: 'error', excluded: true,
+        file,
+        row: null,
+        column: path,
+        value: publication.season,
+        expected: 'YYYY-<season id>',
+        severity: 'error',
+        excluded: true,
       });
       ok = false;
     } else if (publication.date < range.end) {
       const path = `$.publications[${i}].date`;
       log.add(SettingsInvalid, SettingsInvalid.message(file, path, JSON.stringify(publication.date), `a date after the season ends (${range.end})`), {
-        file, row: null, column: path, value: publication.date, expected: `after ${range.end}`, severity: 'warning', excluded: false,
+        file,
+        row: null,
+        column: path,
+        value: publication.date,
+        expected: `after ${range.end}`,
+        severity: 'warning',
+        excluded: false,
       });
     }
   });
@@ -107,7 +129,13 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
       const placement = await placeInFolder(realRoot, resource.path);
       if (!placement.inside) {
         log.add(ResourceOutsideScenario, ResourceOutsideScenario.message(resource.path, placement.real), {
-          file: resource.path, row: null, column: null, value: resource.path, expected: 'a file inside the scenario folder', severity: 'error', excluded: true,
+          file: resource.path,
+          row: null,
+          column: null,
+          value: resource.path,
+          expected: 'a file inside the scenario folder',
+          severity: 'error',
+          excluded: true,
         });
         continue;
       }
@@ -119,7 +147,13 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
     } catch (error) {
       const reason = error instanceof Error ? error.message : String(error);
       log.add(ResourceFileMissing, ResourceFileMissing.message(resource.path, reason), {
-        file: resource.path, row: null, column: null, value: resource.path, expected: 'an existing file', severity: 'error', excluded: true,
+        file: resource.path,
+        row: null,
+        column: null,
+        value: resource.path,
+        expected: 'an existing file',
+        severity: 'error',
+        excluded: true,
       });
     }
   }
@@ -127,7 +161,13 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
     if (!/^utf-?8$/i.test(resource.encoding)) {
       const path = `resources[${resource.index}].encoding`;
       log.add(ResourceInvalid, ResourceInvalid.message(descriptorName, path, `encoding ${JSON.stringify(resource.encoding)} is not supported; the file was read as UTF-8`), {
-        file: descriptorName, row: null, column: path, value: resource.encoding, expected: 'utf-8', severity: 'warning', excluded: false,
+        file: descriptorName,
+        row: null,
+        column: path,
+        value: resource.encoding,
+        expected: 'utf-8',
+        severity: 'warning',
+        excluded: false,
       });
     }
   }
@@ -135,13 +175,25 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
     const found = descriptor.resources.filter((r) => r.role === role);
     if (found.length === 0) {
       log.add(ResourceInvalid, ResourceInvalid.message(descriptorName, 'resources', `no resource has role "${role}"; expected exactly one`), {
-        file: descriptorName, row: null, column: 'resources', value: null, expected: `one resource with role "${role}"`, severity: 'error', excluded: true,
+        file: descriptorName,
+        row: null,
+        column: 'resources',
+        value: null,
+        expected: `one resource with role "${role}"`,
+        severity: 'error',
+        excluded: true,
       });
       return null;
     }
     if (found.length > 1) {
       log.add(ResourceInvalid, ResourceInvalid.message(descriptorName, `resources[${found[1]?.index ?? 0}]`, `a second resource has role "${role}"; only the first is used`), {
-        file: descriptorName, row: null, column: `resources[${found[1]?.index ?? 0}]`, value: found[1]?.name ?? null, expected: `one resource with role "${role}"`, severity: 'error', excluded: true,
+        file: descriptorName,
+        row: null,
+        column: `resources[${found[1]?.index ?? 0}]`,
+        value: found[1]?.name ?? null,
+        expected: `one resource with role "${role}"`,
+        severity: 'error',
+        excluded: true,
       });
     }
     const first = found[0] ?? null;
@@ -166,7 +218,13 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
   if (landResources.length > 1) {
     const extra = landResources[1]!;
     log.add(ResourceInvalid, ResourceInvalid.message(descriptorName, `resources[${extra.index}]`, 'a second resource has role "land"; only the first is used'), {
-      file: descriptorName, row: null, column: `resources[${extra.index}]`, value: extra.name, expected: 'at most one resource with role "land"', severity: 'warning', excluded: true,
+      file: descriptorName,
+      row: null,
+      column: `resources[${extra.index}]`,
+      value: extra.name,
+      expected: 'at most one resource with role "land"',
+      severity: 'warning',
+      excluded: true,
     });
   }
   const landResource = landResources[0] && present.includes(landResources[0]) ? landResources[0] : null;
@@ -207,7 +265,15 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
   const driftResources = present
     .filter((r) => r.role === 'drift-positions' || r.role === 'drift-trajectories' || r.role === 'drift-arrivals' || r.role === 'drift-end-positions')
     .map((resource) => ({ resource, absolutePath: join(root, resource.path) }));
-  const memoKey = options.driftMemo && driftResources.length > 0 ? driftMemoKey(driftResources.map((r) => r.resource), inputs, segments, settings) : null;
+  const memoKey =
+    options.driftMemo && driftResources.length > 0
+      ? driftMemoKey(
+          driftResources.map((r) => r.resource),
+          inputs,
+          segments,
+          settings,
+        )
+      : null;
   const remembered = memoKey === null ? null : await options.driftMemo?.get(memoKey);
   let drift: LoadedScenario['drift'];
   if (remembered) {
@@ -218,7 +284,11 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
     const issuesBefore = log.issues.length;
     drift = await readDrift({ resources: driftResources, segments, settings, segmentsFile, log, onProgress: progress });
     if (memoKey !== null) {
-      const entries = driftLogEntries(log, issuesBefore, driftResources.map((r) => r.resource.path));
+      const entries = driftLogEntries(
+        log,
+        issuesBefore,
+        driftResources.map((r) => r.resource.path),
+      );
       // Only a reading without errors is remembered: a broken file is read (and reported) again.
       if (!entries.issues.some((item) => item.severity === 'error')) await options.driftMemo?.set(memoKey, { drift, ...entries });
     }
@@ -228,7 +298,13 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
     const hasError = log.issues.some((item) => item.file === counts.file && item.severity === 'error');
     if (counts.read > 0 && counts.kept === 0 && !hasError) {
       log.add(NoUsableRows, NoUsableRows.message(counts.file, counts.read), {
-        file: counts.file, row: 2, column: null, value: null, expected: 'at least one usable record', severity: 'error', excluded: true,
+        file: counts.file,
+        row: 2,
+        column: null,
+        value: null,
+        expected: 'at least one usable record',
+        severity: 'error',
+        excluded: true,
       });
     }
   }
@@ -241,7 +317,13 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
     if (withData.has(rule.indicator)) return;
     const path = `$.riskRules[${i}].indicator`;
     log.add(RuleWithoutData, RuleWithoutData.message(settingsFile, path, rule.id, rule.indicator), {
-      file: settingsFile, row: null, column: path, value: rule.indicator, expected: 'an indicator the scenario has data for', severity: 'warning', excluded: false,
+      file: settingsFile,
+      row: null,
+      column: path,
+      value: rule.indicator,
+      expected: 'an indicator the scenario has data for',
+      severity: 'warning',
+      excluded: false,
     });
   });
   if (options.strict) log.makeWarningsErrors();

@@ -73,16 +73,32 @@ export function guardLosses(tables: readonly TableRows[], counts: readonly FileC
     // A table no row of which was kept is already an error (NoUsableRows) when nothing else is.
     if (share > allowed) {
       const acceptance = `to accept it on purpose, add to ${settingsFile}: "leftOutAllowed": [{ "table": "${table.file}", "share": ${Math.ceil(share * 100) / 100}, "reason": "…" }]`;
-      log.add(TableLoss, TableLoss.message(table.file, count.excluded, count.read, causesOf(log, table.file), accepted ? `${percent(allowed)} accepted in ${settingsFile}` : `${percent(allowed)}`), {
-        file: table.file, row: null, column: null, value: `${count.excluded} of ${count.read}`, expected: `at most ${percent(allowed)} of the rows left out`, severity: 'error', excluded: false,
-        hint: `Fix the rows listed as warnings for ${table.file}; ${acceptance}`,
-      });
+      log.add(
+        TableLoss,
+        TableLoss.message(table.file, count.excluded, count.read, causesOf(log, table.file), accepted ? `${percent(allowed)} accepted in ${settingsFile}` : `${percent(allowed)}`),
+        {
+          file: table.file,
+          row: null,
+          column: null,
+          value: `${count.excluded} of ${count.read}`,
+          expected: `at most ${percent(allowed)} of the rows left out`,
+          severity: 'error',
+          excluded: false,
+          hint: `Fix the rows listed as warnings for ${table.file}; ${acceptance}`,
+        },
+      );
     }
     if (accepted) continue;
     for (const [segment, rows] of table.series) {
       if (rows.read === 0 || rows.kept > 0) continue;
       log.add(SeriesLoss, SeriesLoss.message(table.file, segment, rows.read, causesOf(log, table.file, rows.leftOut)), {
-        file: table.file, row: null, column: null, value: segment, expected: 'at least one row kept for each segment that has rows', severity: 'error', excluded: false,
+        file: table.file,
+        row: null,
+        column: null,
+        value: segment,
+        expected: 'at least one row kept for each segment that has rows',
+        severity: 'error',
+        excluded: false,
         hint: `Fix the rows of ${segment} listed as warnings; to accept the loss on purpose, list the table in ${settingsFile}: "leftOutAllowed": [{ "table": "${table.file}", "share": …, "reason": "…" }]`,
       });
     }

@@ -42,7 +42,13 @@ const fieldSchema = z
   })
   .passthrough();
 
-const keyList = z.union([z.string().min(1).transform((s) => [s]), z.array(z.string().min(1))]);
+const keyList = z.union([
+  z
+    .string()
+    .min(1)
+    .transform((s) => [s]),
+  z.array(z.string().min(1)),
+]);
 
 export const tableSchemaSchema = z
   .object({
@@ -149,7 +155,13 @@ export async function readPackageDescriptor(descriptorPath: string, displayName:
       for (const problem of parsed.error.issues) {
         const path = `${at}${formatZodPath(problem.path)}`;
         log.add(ResourceInvalid, ResourceInvalid.message(displayName, path, problem.message), {
-          file: displayName, row: null, column: path, value: null, expected: problem.message, severity: 'error', excluded: true,
+          file: displayName,
+          row: null,
+          column: path,
+          value: null,
+          expected: problem.message,
+          severity: 'error',
+          excluded: true,
         });
       }
       return;
@@ -158,26 +170,62 @@ export async function readPackageDescriptor(descriptorPath: string, displayName:
     const path = safeRelativePath(resource.path);
     if (path === null) {
       const message = ResourceInvalid.message(displayName, `${at}.path`, `path ${JSON.stringify(resource.path)} leaves the scenario folder; expected a relative path inside it`);
-      log.add(ResourceInvalid, message, { file: displayName, row: null, column: `${at}.path`, value: resource.path, expected: 'a relative path inside the scenario folder', severity: 'error', excluded: true });
+      log.add(ResourceInvalid, message, {
+        file: displayName,
+        row: null,
+        column: `${at}.path`,
+        value: resource.path,
+        expected: 'a relative path inside the scenario folder',
+        severity: 'error',
+        excluded: true,
+      });
       return;
     }
     let indicator: IndicatorId | null = null;
     if (resource.role === 'indicator') {
       if (!isIndicatorId(resource.indicator) || resource.indicator === 'drift-arrivals') {
-        const message = ResourceInvalid.message(displayName, `${at}.indicator`, `${JSON.stringify(resource.indicator ?? null)} is not a monitoring indicator; expected beach-litter, water-microplastics, shellfish-tissue or wildlife-reports`);
-        log.add(ResourceInvalid, message, { file: displayName, row: null, column: `${at}.indicator`, value: resource.indicator ?? null, expected: 'a known indicator id', severity: 'error', excluded: true });
+        const message = ResourceInvalid.message(
+          displayName,
+          `${at}.indicator`,
+          `${JSON.stringify(resource.indicator ?? null)} is not a monitoring indicator; expected beach-litter, water-microplastics, shellfish-tissue or wildlife-reports`,
+        );
+        log.add(ResourceInvalid, message, {
+          file: displayName,
+          row: null,
+          column: `${at}.indicator`,
+          value: resource.indicator ?? null,
+          expected: 'a known indicator id',
+          severity: 'error',
+          excluded: true,
+        });
         return;
       }
       indicator = resource.indicator;
       if (!resource.schema) {
         const message = ResourceInvalid.message(displayName, `${at}.schema`, 'an indicator table needs a Table Schema; none is given');
-        log.add(ResourceInvalid, message, { file: displayName, row: null, column: `${at}.schema`, value: null, expected: 'a Table Schema with fields', severity: 'error', excluded: true });
+        log.add(ResourceInvalid, message, {
+          file: displayName,
+          row: null,
+          column: `${at}.schema`,
+          value: null,
+          expected: 'a Table Schema with fields',
+          severity: 'error',
+          excluded: true,
+        });
         return;
       }
     }
     if (names.has(resource.name)) {
       const message = ResourceInvalid.message(displayName, `${at}.name`, `resource name ${JSON.stringify(resource.name)} is used twice; expected unique names`);
-      log.add(ResourceInvalid, message, { file: displayName, row: null, column: `${at}.name`, value: resource.name, expected: 'a unique resource name', severity: 'error', excluded: true });
+      log.add(ResourceInvalid, message, {
+        file: displayName,
+        row: null,
+        column: `${at}.name`,
+        value: resource.name,
+        expected: 'a unique resource name',
+        severity: 'error',
+        excluded: true,
+      });
       return;
     }
     names.add(resource.name);

@@ -37,7 +37,8 @@ function ringProblem(ring: unknown): string | null {
   for (const position of ring) {
     if (!Array.isArray(position) || position.length < 2) return `position ${JSON.stringify(position)} is not [longitude, latitude]`;
     const [lon, lat] = position as unknown[];
-    if (typeof lon !== 'number' || typeof lat !== 'number' || !Number.isFinite(lon) || !Number.isFinite(lat)) return `position ${JSON.stringify(position)} is not two finite numbers`;
+    if (typeof lon !== 'number' || typeof lat !== 'number' || !Number.isFinite(lon) || !Number.isFinite(lat))
+      return `position ${JSON.stringify(position)} is not two finite numbers`;
     if (lon < -180 || lon > 180 || lat < -90 || lat > 90) return `position [${lon}, ${lat}] is not a valid longitude/latitude; expected longitude −180..180 and latitude −90..90`;
   }
   const first = ring[0] as number[];
@@ -85,7 +86,10 @@ export function simplifyLand(polygons: readonly Position[][][], budget = landVer
     // topojson-simplify sorts weights in descending order: the p-quantile keeps about a share p of the points
     const minWeight = quantile(topo, budget / total);
     topo = simplify(topo, minWeight);
-    topo = filter(topo, filterWeight(topo, minWeight, (ring) => sphericalRingArea(ring, false))) as Topology<Objects<{}>>;
+    topo = filter(
+      topo,
+      filterWeight(topo, minWeight, (ring) => sphericalRingArea(ring, false)),
+    ) as Topology<Objects<{}>>;
   }
   const back = topologyFeature(topo, topo.objects['land']!) as unknown as FeatureCollection<Polygon | MultiPolygon | null>;
   const out: Position[][][] = [];
@@ -105,12 +109,28 @@ export async function readLand(absolutePath: string, file: string, log: IssueLog
     json = JSON.parse((await readFile(absolutePath, 'utf8')).replace(/^\ufeff/, ''));
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
-    log.add(LandUnreadable, LandUnreadable.message(file, reason), { file, row: 1, column: null, value: null, expected: 'GeoJSON or TopoJSON land polygons', severity: 'error', excluded: true });
+    log.add(LandUnreadable, LandUnreadable.message(file, reason), {
+      file,
+      row: 1,
+      column: null,
+      value: null,
+      expected: 'GeoJSON or TopoJSON land polygons',
+      severity: 'error',
+      excluded: true,
+    });
     return null;
   }
   const features = toFeatures(json);
   if ('reason' in features) {
-    log.add(LandUnreadable, LandUnreadable.message(file, features.reason), { file, row: 1, column: null, value: null, expected: 'GeoJSON FeatureCollection or TopoJSON Topology', severity: 'error', excluded: true });
+    log.add(LandUnreadable, LandUnreadable.message(file, features.reason), {
+      file,
+      row: 1,
+      column: null,
+      value: null,
+      expected: 'GeoJSON FeatureCollection or TopoJSON Topology',
+      severity: 'error',
+      excluded: true,
+    });
     return null;
   }
   const polygons: Position[][][] = [];
@@ -120,7 +140,13 @@ export async function readLand(absolutePath: string, file: string, log: IssueLog
     if ('reason' in found) {
       counts.excluded++;
       log.add(LandShapeInvalid, LandShapeInvalid.message(file, i + 1, found.reason), {
-        file, row: i + 1, column: 'geometry', value: null, expected: 'a Polygon or MultiPolygon in WGS84 longitude/latitude', severity: 'warning', excluded: true,
+        file,
+        row: i + 1,
+        column: 'geometry',
+        value: null,
+        expected: 'a Polygon or MultiPolygon in WGS84 longitude/latitude',
+        severity: 'warning',
+        excluded: true,
       });
       return;
     }

@@ -202,7 +202,13 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
     const idValue = properties['id'] ?? raw['id'];
     const id = typeof idValue === 'string' ? idValue : typeof idValue === 'number' ? String(idValue) : '';
     if (!segmentIdPattern.test(id)) {
-      exclude(SegmentPropertyInvalid, SegmentPropertyInvalid.message(file, row, 'id', id, 'a lower-case URL slug: letters a–z, digits and hyphens, at most 63 characters'), 'id', id, 'a URL-safe slug');
+      exclude(
+        SegmentPropertyInvalid,
+        SegmentPropertyInvalid.message(file, row, 'id', id, 'a lower-case URL slug: letters a–z, digits and hyphens, at most 63 characters'),
+        'id',
+        id,
+        'a URL-safe slug',
+      );
       ok = false;
     } else if (firstUse.has(id)) {
       const first = firstUse.get(id) ?? 0;
@@ -211,7 +217,13 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
     }
     const name = properties['name'];
     if (typeof name !== 'string' || name.trim() === '') {
-      exclude(SegmentPropertyInvalid, SegmentPropertyInvalid.message(file, row, 'name', JSON.stringify(name ?? null), 'a non-empty name'), 'name', name === undefined ? null : String(name), 'a non-empty name');
+      exclude(
+        SegmentPropertyInvalid,
+        SegmentPropertyInvalid.message(file, row, 'name', JSON.stringify(name ?? null), 'a non-empty name'),
+        'name',
+        name === undefined ? null : String(name),
+        'a non-empty name',
+      );
       ok = false;
     }
     // Category words are matched after trimming, case and space/hyphen/underscore folding and
@@ -223,7 +235,13 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
       if (match.ok) return match.value;
       const expected = `one of ${allowed.join(', ')}`;
       log.add(SegmentPropertyInvalid, `${SegmentPropertyInvalid.message(file, row, column, String(value ?? ''), expected)}${didYouMean(match.suggestion)}`, {
-        file, row, column, value: value === undefined ? null : String(value), expected, severity: 'error', excluded: true,
+        file,
+        row,
+        column,
+        value: value === undefined ? null : String(value),
+        expected,
+        severity: 'error',
+        excluded: true,
         ...(match.suggestion === null ? { hint: `Write one of ${allowed.join(', ')}; case, spaces and underscores do not matter` } : { hint: `Write "${match.suggestion}"` }),
       });
       return null;
@@ -234,13 +252,24 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
     const placeValue = properties['place'];
     const place = typeof placeValue === 'string' && placeValue.trim() !== '' ? placeValue : null;
     const areaValue = properties['area']; // optional: the segment's area on a national coast (generator/model/areas.ts)
-    for (const [column, text] of [['name', name], ['place', place]] as const) {
+    for (const [column, text] of [
+      ['name', name],
+      ['place', place],
+    ] as const) {
       if (typeof text === 'string' && containsMarkup(text)) {
         log.add(MarkupInText, MarkupInText.message(file, row, column, text), { file, row, column, value: text, expected: 'plain text', severity: 'warning', excluded: false });
       }
       const controls = typeof text === 'string' ? bidiControls(text) : [];
       if (typeof text === 'string' && controls.length > 0) {
-        log.add(BidiControlInText, BidiControlInText.message(file, row, column, text, controls.join(', ')), { file, row, column, value: text, expected: 'text without direction controls', severity: 'warning', excluded: false });
+        log.add(BidiControlInText, BidiControlInText.message(file, row, column, text, controls.join(', ')), {
+          file,
+          row,
+          column,
+          value: text,
+          expected: 'text without direction controls',
+          severity: 'warning',
+          excluded: false,
+        });
       }
     }
     const geometry = raw['geometry'];
@@ -253,7 +282,14 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
       if (checked.badPosition) {
         const swapHint = checked.swapped ? 'Did you swap longitude and latitude? GeoJSON writes each position as [longitude, latitude]' : undefined;
         log.add(CoordinateOutOfRange, CoordinateOutOfRange.message(file, row, checked.badPosition), {
-          file, row, column: 'geometry', value: checked.badPosition, expected: 'longitude −180..180, latitude −90..90', severity: 'error', excluded: true, ...(swapHint ? { hint: swapHint } : {}),
+          file,
+          row,
+          column: 'geometry',
+          value: checked.badPosition,
+          expected: 'longitude −180..180, latitude −90..90',
+          severity: 'error',
+          excluded: true,
+          ...(swapHint ? { hint: swapHint } : {}),
         });
         ok = false;
       } else if (checked.problem) {
@@ -267,7 +303,13 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
             const partName = checked.lines.length > 1 ? `${checked.rings ? 'ring' : 'line'} ${part + 1}, ` : '';
             const detail = `${partName}edges starting at positions ${crossing.firstEdge} and ${crossing.secondEdge}`;
             log.add(GeometrySelfIntersects, GeometrySelfIntersects.message(file, row, id, where, detail), {
-              file, row, column: 'geometry', value: where, expected: 'a line that does not cross itself', severity: 'warning', excluded: false,
+              file,
+              row,
+              column: 'geometry',
+              value: where,
+              expected: 'a line that does not cross itself',
+              severity: 'warning',
+              excluded: false,
             });
             break;
           }
@@ -320,12 +362,36 @@ export async function readSegments(absolutePath: string, file: string, log: Issu
   }
   if (!outcome.ok || outcome.forbidden.length > 0) {
     if (!outcome.ok && outcome.kind === 'syntax') {
-      log.add(SegmentsUnreadable, SegmentsUnreadable.message(file, outcome.reason), { file, row: 1, column: null, value: null, expected: 'GeoJSON or TopoJSON', severity: 'error', excluded: true });
+      log.add(SegmentsUnreadable, SegmentsUnreadable.message(file, outcome.reason), {
+        file,
+        row: 1,
+        column: null,
+        value: null,
+        expected: 'GeoJSON or TopoJSON',
+        severity: 'error',
+        excluded: true,
+      });
     } else if (!outcome.ok) {
-      log.add(JsonTooDeep, JsonTooDeep.message(file, outcome.reason), { file, row: null, column: null, value: null, expected: 'GeoJSON or TopoJSON nested at most a few levels deep', severity: 'error', excluded: true });
+      log.add(JsonTooDeep, JsonTooDeep.message(file, outcome.reason), {
+        file,
+        row: null,
+        column: null,
+        value: null,
+        expected: 'GeoJSON or TopoJSON nested at most a few levels deep',
+        severity: 'error',
+        excluded: true,
+      });
     } else {
       for (const path of outcome.forbidden) {
-        log.add(KeyForbidden, KeyForbidden.message(file, path), { file, row: null, column: path, value: path.split(/[.[]/).pop() ?? null, expected: 'no key named __proto__, constructor or prototype', severity: 'error', excluded: true });
+        log.add(KeyForbidden, KeyForbidden.message(file, path), {
+          file,
+          row: null,
+          column: path,
+          value: path.split(/[.[]/).pop() ?? null,
+          expected: 'no key named __proto__, constructor or prototype',
+          severity: 'error',
+          excluded: true,
+        });
       }
     }
     log.countsFor(file);
@@ -334,7 +400,15 @@ export async function readSegments(absolutePath: string, file: string, log: Issu
   const json = outcome.value;
   const features = toFeatures(json);
   if ('reason' in features) {
-    log.add(SegmentsUnreadable, SegmentsUnreadable.message(file, features.reason), { file, row: 1, column: null, value: null, expected: 'GeoJSON FeatureCollection or TopoJSON Topology', severity: 'error', excluded: true });
+    log.add(SegmentsUnreadable, SegmentsUnreadable.message(file, features.reason), {
+      file,
+      row: 1,
+      column: null,
+      value: null,
+      expected: 'GeoJSON FeatureCollection or TopoJSON Topology',
+      severity: 'error',
+      excluded: true,
+    });
     log.countsFor(file);
     return [];
   }

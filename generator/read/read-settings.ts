@@ -64,7 +64,13 @@ export function validateSettings(json: unknown, file: string, log: IssueLog): Sc
   for (const keyPath of unknownSettingKeys(json)) {
     const jsonPath = `$${formatZodPath(keyPath)}`;
     log.add(SettingUnknown, SettingUnknown.message(file, jsonPath), {
-      file, row: null, column: jsonPath, value: String(keyPath[keyPath.length - 1] ?? ''), expected: 'a setting described in schema/scenario.schema.json', severity: 'warning', excluded: false,
+      file,
+      row: null,
+      column: jsonPath,
+      value: String(keyPath[keyPath.length - 1] ?? ''),
+      expected: 'a setting described in schema/scenario.schema.json',
+      severity: 'warning',
+      excluded: false,
     });
   }
   const parsed = settingsSchema.safeParse(json);
@@ -74,7 +80,13 @@ export function validateSettings(json: unknown, file: string, log: IssueLog): Sc
     const value = valueAt(json, problem.path);
     const shown = showValue(value);
     log.add(SettingsInvalid, SettingsInvalid.message(file, jsonPath, shown, problem.message), {
-      file, row: null, column: jsonPath, value: value === undefined ? null : JSON.stringify(value), expected: problem.message, severity: 'error', excluded: true,
+      file,
+      row: null,
+      column: jsonPath,
+      value: value === undefined ? null : JSON.stringify(value),
+      expected: problem.message,
+      severity: 'error',
+      excluded: true,
     });
   }
   return null;
@@ -88,7 +100,13 @@ export function isYamlSettings(file: string, format: string | null = null): bool
 export async function readSettings(absolutePath: string, file: string, log: IssueLog, format: string | null = null): Promise<ScenarioSettings | null> {
   const unreadable = (reason: string): null => {
     log.add(SettingsUnreadable, SettingsUnreadable.message(file, reason), {
-      file, row: null, column: null, value: null, expected: 'a JSON object of settings', severity: 'error', excluded: true,
+      file,
+      row: null,
+      column: null,
+      value: null,
+      expected: 'a JSON object of settings',
+      severity: 'error',
+      excluded: true,
     });
     return null;
   };
@@ -102,14 +120,26 @@ export async function readSettings(absolutePath: string, file: string, log: Issu
   if (!outcome.ok) {
     if (outcome.kind === 'syntax') return unreadable(outcome.reason);
     log.add(JsonTooDeep, JsonTooDeep.message(file, outcome.reason), {
-      file, row: null, column: null, value: null, expected: `settings nested at most a few levels deep`, severity: 'error', excluded: true,
+      file,
+      row: null,
+      column: null,
+      value: null,
+      expected: `settings nested at most a few levels deep`,
+      severity: 'error',
+      excluded: true,
     });
     return null;
   }
   if (outcome.forbidden.length > 0) {
     for (const path of outcome.forbidden) {
       log.add(KeyForbidden, KeyForbidden.message(file, path), {
-        file, row: null, column: path, value: path.split(/[.[]/).pop() ?? null, expected: 'no key named __proto__, constructor or prototype', severity: 'error', excluded: true,
+        file,
+        row: null,
+        column: path,
+        value: path.split(/[.[]/).pop() ?? null,
+        expected: 'no key named __proto__, constructor or prototype',
+        severity: 'error',
+        excluded: true,
       });
     }
     return null;
@@ -123,7 +153,13 @@ function isolateSettingText(value: unknown, file: string, log: IssueLog, path: s
     const controls = bidiControls(value);
     if (controls.length === 0) return value;
     log.add(BidiControlInText, BidiControlInText.message(file, null, path, value, controls.join(', ')), {
-      file, row: null, column: path, value, expected: 'text without direction controls', severity: 'warning', excluded: false,
+      file,
+      row: null,
+      column: path,
+      value,
+      expected: 'text without direction controls',
+      severity: 'warning',
+      excluded: false,
     });
     return isolateBidi(value);
   }

@@ -10,16 +10,7 @@
  * Each problem carries a hint fitting that very problem.
  */
 import type { ErrorData } from '../errors.ts';
-import {
-  CensoredNotAllowed,
-  DecimalCommaFound,
-  ValueAboveMaximum,
-  ValueBelowMinimum,
-  ValueMissing,
-  ValueNotAllowed,
-  ValueNotFinite,
-  ValueWrongType,
-} from '../errors.ts';
+import { CensoredNotAllowed, DecimalCommaFound, ValueAboveMaximum, ValueBelowMinimum, ValueMissing, ValueNotAllowed, ValueNotFinite, ValueWrongType } from '../errors.ts';
 import { parseIsoDate } from './season-calendar.ts';
 import { didYouMean, matchCategory } from './category-words.ts';
 
@@ -45,9 +36,7 @@ export interface CellProblem {
   hint?: string;
 }
 
-export type CellResult =
-  | { ok: true; value: string | number | null; censored: boolean }
-  | { ok: false; problem: CellProblem };
+export type CellResult = { ok: true; value: string | number | null; censored: boolean } | { ok: false; problem: CellProblem };
 
 const plainNumber = /^[+-]?(\d+(\.\d*)?|\.\d+)([eE][+-]?\d+)?$/;
 const plainInteger = /^[+-]?\d+$/;
@@ -124,11 +113,15 @@ export function describeRule(rule: CellRule): string {
   if (rule.exclusiveMinimum !== null) bounds.push(`> ${rule.exclusiveMinimum}`);
   if (rule.maximum !== null) bounds.push(`≤ ${rule.maximum}`);
   const base =
-    rule.type === 'integer' ? 'a whole number' :
-    rule.type === 'number' ? 'a number' :
-    rule.type === 'date' ? 'a date YYYY-MM-DD' :
-    rule.type === 'datetime' ? 'a date-time YYYY-MM-DDThh:mm:ssZ' :
-    'text';
+    rule.type === 'integer'
+      ? 'a whole number'
+      : rule.type === 'number'
+        ? 'a number'
+        : rule.type === 'date'
+          ? 'a date YYYY-MM-DD'
+          : rule.type === 'datetime'
+            ? 'a date-time YYYY-MM-DDThh:mm:ssZ'
+            : 'text';
   return bounds.length > 0 ? `${base} ${bounds.join(' and ')}` : base;
 }
 
@@ -198,7 +191,12 @@ export function parseCell(raw: string, rule: CellRule, missingValues: readonly s
       const text = raw.trim();
       const ms = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}(:\d{2}(\.\d+)?)?(Z|[+-]\d{2}:?\d{2})$/.test(text) ? Date.parse(text) : Number.NaN;
       if (!Number.isFinite(ms) || !parseIsoDate(text.slice(0, 10))) {
-        return fail(ValueWrongType, ValueWrongType.message(file, row, rule.name, raw, expected), expected, 'Date-times are written YYYY-MM-DDThh:mm:ssZ (ISO 8601, with a time zone)');
+        return fail(
+          ValueWrongType,
+          ValueWrongType.message(file, row, rule.name, raw, expected),
+          expected,
+          'Date-times are written YYYY-MM-DDThh:mm:ssZ (ISO 8601, with a time zone)',
+        );
       }
       return { ok: true, value: text, censored: false };
     }

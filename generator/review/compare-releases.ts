@@ -156,7 +156,11 @@ export function claimChanges(old: Bulletin | null, next: Bulletin): ClaimChange[
 export function sentencesOf(bulletin: Bulletin): Map<string, string[]> {
   const out = new Map<string, string[]>();
   out.set('headline', [bulletin.headline]);
-  if (bulletin.notes && bulletin.notes.length > 0) out.set('note from the publisher', bulletin.notes.map((note) => note.text));
+  if (bulletin.notes && bulletin.notes.length > 0)
+    out.set(
+      'note from the publisher',
+      bulletin.notes.map((note) => note.text),
+    );
   out.set('summary', bulletin.summary);
   out.set('since last season', bulletin.changes);
   for (const indicator of bulletin.indicators) out.set(indicator.indicator, indicator.sentences);
@@ -311,8 +315,14 @@ export function compareReleases(online: ReleaseContent, candidate: ReleaseConten
     claimChanges: claimList,
     sentenceChanges: sentences,
     leftOut: online.leftOut === null || candidate.leftOut === null ? null : leftOutChanges(online.leftOut, candidate.leftOut),
-    pagesAdded: [...newPages].filter((file) => !oldPages.has(file)).sort(compareText).map(pageUrl),
-    pagesRemoved: [...oldPages].filter((file) => !newPages.has(file)).sort(compareText).map(pageUrl),
+    pagesAdded: [...newPages]
+      .filter((file) => !oldPages.has(file))
+      .sort(compareText)
+      .map(pageUrl),
+    pagesRemoved: [...oldPages]
+      .filter((file) => !newPages.has(file))
+      .sort(compareText)
+      .map(pageUrl),
     archivedChanged,
     segmentsAdded: segments.filter((segment) => !oldLatest.has(segment)),
     segmentsRemoved: [...oldLatest.keys()].filter((segment) => !newLatest.has(segment)).sort(compareText),

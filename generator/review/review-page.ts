@@ -30,7 +30,9 @@ export function reviewPage(report: ChangeReport, heading: ReviewHeading): string
   const e = escapeHtml;
   const levelRows = report.levelChanges.map((change) => {
     const way = change.fromRank === null ? '' : change.toRank > change.fromRank ? 'up' : 'down';
-    return `<tr><td class="${way}">${e(levelLine(change))}</td><td><ul class="rules">${levelReasons(change).map((r) => `<li>${e(r)}</li>`).join('')}</ul></td></tr>`;
+    return `<tr><td class="${way}">${e(levelLine(change))}</td><td><ul class="rules">${levelReasons(change)
+      .map((r) => `<li>${e(r)}</li>`)
+      .join('')}</ul></td></tr>`;
   });
   const sentenceRows = report.sentenceChanges.map(
     (change) =>
@@ -63,20 +65,39 @@ export function reviewPage(report: ChangeReport, heading: ReviewHeading): string
     `<h1>What the candidate changes for readers</h1>`,
     `<p>Candidate <code>${e(heading.candidate.slice(0, 20))}</code> (<code>${e(heading.candidateFolder)}</code>) against ${heading.onLine === null ? 'nothing published yet' : `the release on line <code>${e(heading.onLine)}</code>`}.</p>`,
     `<h2 id="levels">Levels that change (${report.levelChanges.length})</h2>`,
-    levelRows.length === 0 ? '<p>No level goes up or down.</p>' : `<table><thead><tr><th scope="col">Segment</th><th scope="col">Rule that moved it</th></tr></thead><tbody>${levelRows.join('')}</tbody></table>`,
+    levelRows.length === 0
+      ? '<p>No level goes up or down.</p>'
+      : `<table><thead><tr><th scope="col">Segment</th><th scope="col">Rule that moved it</th></tr></thead><tbody>${levelRows.join('')}</tbody></table>`,
     `<h2 id="claims">Trend claims that change (${report.claimChanges.length})</h2>`,
-    list(report.claimChanges.map((change) => e(claimLine(change))), 'No trend claim appears, disappears or reverses.'),
+    list(
+      report.claimChanges.map((change) => e(claimLine(change))),
+      'No trend claim appears, disappears or reverses.',
+    ),
     `<h2 id="sentences">Sentences that change (${report.sentenceChanges.length})</h2>`,
-    sentenceRows.length === 0 ? '<p>No sentence changes.</p>' : `<table><thead><tr><th scope="col">Where</th><th scope="col">Old</th><th scope="col">New</th></tr></thead><tbody>${sentenceRows.join('')}</tbody></table>`,
+    sentenceRows.length === 0
+      ? '<p>No sentence changes.</p>'
+      : `<table><thead><tr><th scope="col">Where</th><th scope="col">Old</th><th scope="col">New</th></tr></thead><tbody>${sentenceRows.join('')}</tbody></table>`,
     ...(report.archivedChanged.length > 0
-      ? [`<h2 id="archive">Archived bulletins that change (${report.archivedChanged.length})</h2>`, list(report.archivedChanged.map((id) => `<code>${e(id)}</code>`), '')]
+      ? [
+          `<h2 id="archive">Archived bulletins that change (${report.archivedChanged.length})</h2>`,
+          list(
+            report.archivedChanged.map((id) => `<code>${e(id)}</code>`),
+            '',
+          ),
+        ]
       : []),
     `<h2 id="left-out">Records newly left out or taken back in</h2>`,
     leftOut,
     `<h2 id="pages-added">Pages added (${report.pagesAdded.length})</h2>`,
-    list(report.pagesAdded.map((page) => `<code>${e(page)}</code>`), 'None.'),
+    list(
+      report.pagesAdded.map((page) => `<code>${e(page)}</code>`),
+      'None.',
+    ),
     `<h2 id="pages-removed">Pages removed (${report.pagesRemoved.length})</h2>`,
-    list(report.pagesRemoved.map((page) => `<code>${e(page)}</code>`), 'None.'),
+    list(
+      report.pagesRemoved.map((page) => `<code>${e(page)}</code>`),
+      'None.',
+    ),
     '</body></html>',
     '',
   ].join('\n');

@@ -36,7 +36,9 @@ export function claimLine(change: ClaimChange): string {
 }
 
 export function recordLine(record: LeftOutRecord): string {
-  const where = [record.file, record.row === null ? null : `row ${record.row}`, record.column === null ? null : `column ${record.column}`].filter((part) => part !== null).join(', ');
+  const where = [record.file, record.row === null ? null : `row ${record.row}`, record.column === null ? null : `column ${record.column}`]
+    .filter((part) => part !== null)
+    .join(', ');
   // Reader messages usually start with their own place ("file row 3, column x: …"); keep them whole.
   if (record.message.startsWith(record.file)) return record.message;
   return `${where}${record.value === null ? '' : ` value ${JSON.stringify(record.value)}`}: ${record.message}`;
@@ -62,7 +64,13 @@ export function reviewText(report: ChangeReport, heading: ReviewHeading): string
     for (const reason of levelReasons(change)) levels.push(`      ${reason}`);
   }
   out.push(...section('Levels that change', levels, 'no level goes up or down', report.levelChanges.length));
-  out.push(...section('Trend claims that change', report.claimChanges.map((change) => `  ${claimLine(change)}`), 'no trend claim appears, disappears or reverses'));
+  out.push(
+    ...section(
+      'Trend claims that change',
+      report.claimChanges.map((change) => `  ${claimLine(change)}`),
+      'no trend claim appears, disappears or reverses',
+    ),
+  );
   const sentences: string[] = [];
   let last = '';
   for (const change of report.sentenceChanges) {
@@ -92,7 +100,19 @@ export function reviewText(report: ChangeReport, heading: ReviewHeading): string
     const moved = report.leftOut.reduce((sum, group) => sum + group.newlyLeftOut.length + group.takenBackIn.length, 0);
     out.push(...section('Records newly left out or taken back in, by cause', lines, 'the same records are left out', moved));
   }
-  out.push(...section('Pages added', report.pagesAdded.map((page) => `  + ${page}`), 'none'));
-  out.push(...section('Pages removed', report.pagesRemoved.map((page) => `  - ${page}`), 'none'));
+  out.push(
+    ...section(
+      'Pages added',
+      report.pagesAdded.map((page) => `  + ${page}`),
+      'none',
+    ),
+  );
+  out.push(
+    ...section(
+      'Pages removed',
+      report.pagesRemoved.map((page) => `  - ${page}`),
+      'none',
+    ),
+  );
   return out.join('\n');
 }

@@ -73,9 +73,7 @@ export function formatThreshold(measure: RiskRule['measure'], value: number): st
 
 /** Fill {value} (measured, rounded to two significant figures) and {threshold} in a rule text. */
 export function ruleText(rule: RiskRule, value: number): string {
-  return rule.text
-    .replaceAll('{value}', formatMeasure(rule.measure, value))
-    .replaceAll('{threshold}', formatThreshold(rule.measure, rule.value));
+  return rule.text.replaceAll('{value}', formatMeasure(rule.measure, value)).replaceAll('{threshold}', formatThreshold(rule.measure, rule.value));
 }
 
 /** Evaluate the rule table. Hits are ordered by level (highest first), then by table order. */

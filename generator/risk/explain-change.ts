@@ -49,10 +49,7 @@ export function ruleChangeClause(rule: RiskRule, inputs: LevelInputs, holds: boo
     }
     case 'assessment-median':
     case 'clean-coast-index': {
-      const what =
-        rule.measure === 'assessment-median'
-          ? `the median ${subject} over the last four seasons`
-          : 'the Clean Coast Index over the last four seasons';
+      const what = rule.measure === 'assessment-median' ? `the median ${subject} over the last four seasons` : 'the Clean Coast Index over the last four seasons';
       const unit = rule.measure === 'assessment-median' ? ` ${getIndicator(rule.indicator).unit}` : '';
       if (value === null) return holds ? `${what} now meets the rule "${rule.id}"` : `there are no values left for ${what}`;
       return `${what} is now ${formatMeasure(rule.measure, value)}${unit}, ${holds ? words.holds : words.fails} ${threshold}`;
@@ -61,17 +58,10 @@ export function ruleChangeClause(rule: RiskRule, inputs: LevelInputs, holds: boo
 }
 
 /** The clause explaining a level change, or null when the level did not change or no rule is found. */
-export function explainLevelChange(
-  level: LevelResult,
-  previous: LevelResult | null,
-  rules: readonly RiskRule[],
-  inputs: LevelInputs,
-): { ruleId: string; clause: string } | null {
+export function explainLevelChange(level: LevelResult, previous: LevelResult | null, rules: readonly RiskRule[], inputs: LevelInputs): { ruleId: string; clause: string } | null {
   if (!previous || previous.rank === level.rank) return null;
   const up = level.rank > previous.rank;
-  const hit = up
-    ? level.hits.find((h) => levelRank(h.level) > previous.rank)
-    : previous.hits.find((h) => levelRank(h.level) > level.rank);
+  const hit = up ? level.hits.find((h) => levelRank(h.level) > previous.rank) : previous.hits.find((h) => levelRank(h.level) > level.rank);
   if (!hit) return null;
   const rule = rules.find((r) => r.id === hit.ruleId);
   if (!rule) return null;

@@ -12,7 +12,8 @@ export interface SettingDoc {
 
 const contact = (prefix: string, example: { role: string; name: string }): { [path: string]: SettingDoc } => ({
   [`${prefix}.role`]: {
-    description: 'What this contact is for: shellfish-sanitation (harvest areas), public-health, debris-report (where to report debris), publisher (who publishes the bulletins) or wildlife-rescue.',
+    description:
+      'What this contact is for: shellfish-sanitation (harvest areas), public-health, debris-report (where to report debris), publisher (who publishes the bulletins) or wildlife-rescue.',
     example: example.role,
   },
   [`${prefix}.name`]: { description: 'Name of the office or organisation, as readers should look it up.', example: example.name },
@@ -30,11 +31,15 @@ export const settingsDocs: { readonly [path: string]: SettingDoc } = {
   region: { description: 'The stretch of coast the bulletins cover.', example: { id: 'north-coast', name: 'North Coast' } },
   'region.id': { description: 'Short id of the region: lower-case letters, digits and hyphens. Used in file names.', example: 'north-coast' },
   'region.name': { description: 'Name of the region as readers know it.', example: 'North Coast' },
-  'region.description': { description: 'One or two sentences about the region, shown on the overview page (optional).', example: 'Sandy beaches and two shellfish-farming bays between the river mouth and the cape.' },
+  'region.description': {
+    description: 'One or two sentences about the region, shown on the overview page (optional).',
+    example: 'Sandy beaches and two shellfish-farming bays between the river mouth and the cape.',
+  },
   publisher: { description: 'Who publishes the bulletins; shown on every page.', example: { role: 'publisher', name: 'Coastal Monitoring Office' } },
   ...contact('publisher', { role: 'publisher', name: 'Coastal Monitoring Office' }),
   authorities: {
-    description: 'The authorities a reader is sent to (at least one). A bulletin never opens or closes a shellfish harvest area: it defers to the shellfish-sanitation and public-health authorities listed here.',
+    description:
+      'The authorities a reader is sent to (at least one). A bulletin never opens or closes a shellfish harvest area: it defers to the shellfish-sanitation and public-health authorities listed here.',
     example: [{ role: 'shellfish-sanitation', name: 'Shellfish Sanitation Office', phone: '+00 555 0142' }],
   },
   ...contact('authorities[]', { role: 'shellfish-sanitation', name: 'Shellfish Sanitation Office' }),
@@ -52,9 +57,10 @@ export const settingsDocs: { readonly [path: string]: SettingDoc } = {
     example: [{ season: '2026-summer', date: '2026-09-01' }],
   },
   'publications[].season': { description: 'Season id: the year, a hyphen and a season id from "seasons" (the year of the season\'s last month).', example: '2026-summer' },
-  'publications[].date': { description: 'Date the season\'s bulletins are published (YYYY-MM-DD), after the season ends.', example: '2026-09-01' },
+  'publications[].date': { description: "Date the season's bulletins are published (YYYY-MM-DD), after the season ends.", example: '2026-09-01' },
   corrections: {
-    description: 'Changes to bulletins of a season already published, each with its reason; the page then shows the correction. Without one, a build that would change a past season stops. Default: none.',
+    description:
+      'Changes to bulletins of a season already published, each with its reason; the page then shows the correction. Without one, a build that would change a past season stops. Default: none.',
     example: [{ season: '2026-summer', segment: 'north-beach', date: '2026-10-02', reason: 'A survey was entered twice.' }],
   },
   'corrections[].season': { description: 'Season id of the corrected bulletins.', example: '2026-summer' },
@@ -74,27 +80,44 @@ export const settingsDocs: { readonly [path: string]: SettingDoc } = {
   'drift.zoneMinParticles': { description: 'Fewest particles that form an accumulation zone (DBSCAN). Default 25.', example: 25 },
   riskRules: {
     description:
-      'The rule table that sets each segment\'s level; the highest level among the matching rules wins. When none are given (the default), the built-in rules apply (generator/risk/default-rules.ts, listed on the methods page); built-in rules about an indicator with no data are not used.',
-    example: [{ id: 'litter-at-threshold', level: 'noticeable', indicator: 'beach-litter', measure: 'assessment-median', op: '>=', value: 20, text: 'Beach litter has a median of {value} items per 100 m, at or above {threshold}.' }],
+      "The rule table that sets each segment's level; the highest level among the matching rules wins. When none are given (the default), the built-in rules apply (generator/risk/default-rules.ts, listed on the methods page); built-in rules about an indicator with no data are not used.",
+    example: [
+      {
+        id: 'litter-at-threshold',
+        level: 'noticeable',
+        indicator: 'beach-litter',
+        measure: 'assessment-median',
+        op: '>=',
+        value: 20,
+        text: 'Beach litter has a median of {value} items per 100 m, at or above {threshold}.',
+      },
+    ],
   },
   'riskRules[].id': { description: 'Short id of the rule, shown on the methods page.', example: 'litter-at-threshold' },
   'riskRules[].level': { description: 'The level the rule sets when it matches: scant, noticeable, marked or heavy.', example: 'noticeable' },
   'riskRules[].indicator': { description: 'The indicator the rule looks at. A rule about an indicator with no data is reported by `wrackline check`.', example: 'beach-litter' },
   'riskRules[].measure': {
-    description: 'What is compared: assessment-median (median of the last four seasons), clean-coast-index, region-percentile (rank among the region\'s segments) or probability-up (likelihood of a rise).',
+    description:
+      "What is compared: assessment-median (median of the last four seasons), clean-coast-index, region-percentile (rank among the region's segments) or probability-up (likelihood of a rise).",
     example: 'assessment-median',
   },
   'riskRules[].op': { description: 'How the measure is compared with the value: >=, >, <= or <.', example: '>=' },
-  'riskRules[].value': { description: 'The threshold compared with the measure, in the indicator\'s unit.', example: 20 },
-  'riskRules[].text': { description: 'Plain words shown under "why this level"; {value} and {threshold} are filled in.', example: 'Beach litter has a median of {value} items per 100 m, at or above {threshold}.' },
+  'riskRules[].value': { description: "The threshold compared with the measure, in the indicator's unit.", example: 20 },
+  'riskRules[].text': {
+    description: 'Plain words shown under "why this level"; {value} and {threshold} are filled in.',
+    example: 'Beach litter has a median of {value} items per 100 m, at or above {threshold}.',
+  },
   'riskRules[].source': { description: 'Where the threshold comes from (optional), shown on the methods page.', example: 'Van Loon et al. 2020, JRC' },
-  monitoringStart: { description: 'First day of the monitored period (YYYY-MM-DD); records dated earlier are left out. Optional: without it, every date counts.', example: '2018-01-01' },
+  monitoringStart: {
+    description: 'First day of the monitored period (YYYY-MM-DD); records dated earlier are left out. Optional: without it, every date counts.',
+    example: '2018-01-01',
+  },
   leftOutAllowed: {
     description:
-      'Losses of table rows accepted on purpose. By default a check or build stops when more than 5 % of a table\'s rows are left out, or every row of a segment in a table; an entry here names the table and the share of rows that may be left out (and so also accepts segments losing every row of it).',
+      "Losses of table rows accepted on purpose. By default a check or build stops when more than 5 % of a table's rows are left out, or every row of a segment in a table; an entry here names the table and the share of rows that may be left out (and so also accepts segments losing every row of it).",
     example: [{ table: 'tables/beach-litter.csv', share: 0.2, reason: 'Surveys before 2019 used another protocol and are left out.' }],
   },
   'leftOutAllowed[].table': { description: 'Path of the table as listed in datapackage.json.', example: 'tables/beach-litter.csv' },
-  'leftOutAllowed[].share': { description: 'Share of the table\'s rows that may be left out, from 0 to 1 (0.2 = 20 %).', example: 0.2 },
+  'leftOutAllowed[].share': { description: "Share of the table's rows that may be left out, from 0 to 1 (0.2 = 20 %).", example: 0.2 },
   'leftOutAllowed[].reason': { description: 'Why the loss is accepted, in plain words.', example: 'Surveys before 2019 used another protocol and are left out.' },
 };

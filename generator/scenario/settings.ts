@@ -17,8 +17,8 @@ export const contactSchema = z.object({
 });
 
 export const seasonDefinitionSchema = z.object({
-  id: slug,                                  // "winter"
-  label: z.string().min(1),                  // "Winter"
+  id: slug, // "winter"
+  label: z.string().min(1), // "Winter"
   months: z.array(z.number().int().min(1).max(12)).min(1),
 });
 
@@ -59,9 +59,7 @@ export const settingsSchema = z.object({
   seasons: z.array(seasonDefinitionSchema).default(defaultSeasons),
   /** Published seasons, oldest first; the last one is the season being published now. */
   publications: z.array(z.object({ season: z.string().regex(/^\d{4}-[a-z0-9-]+$/), date: isoDate })).min(1),
-  corrections: z
-    .array(z.object({ season: z.string(), segment: z.string().nullable().default(null), date: isoDate, reason: z.string().min(1) }))
-    .default([]),
+  corrections: z.array(z.object({ season: z.string(), segment: z.string().nullable().default(null), date: isoDate, reason: z.string().min(1) })).default([]),
   /**
    * Notes from the publisher, shown in a labelled box: on one segment's bulletin of a season, or
    * (segment null) on every bulletin and the overview of that season. A safe subset of Markdown:
@@ -97,9 +95,7 @@ export const settingsSchema = z.object({
   /** First day of the monitored period; records dated earlier are left out. Optional. */
   monitoringStart: isoDate.optional(),
   /** Losses of table rows accepted on purpose (the loss guard, generator/read/loss-guard.ts). */
-  leftOutAllowed: z
-    .array(z.object({ table: z.string().min(1), share: z.number().min(0).max(1), reason: z.string().min(1) }))
-    .default([]),
+  leftOutAllowed: z.array(z.object({ table: z.string().min(1), share: z.number().min(0).max(1), reason: z.string().min(1) })).default([]),
 });
 
 export type ScenarioSettings = z.infer<typeof settingsSchema>;

@@ -17,7 +17,7 @@ export interface Segment {
   /** the area the segments file puts it in (property "area"), for national coasts */
   area?: string;
   lengthKm: number;
-  geometry: GeoJSON.Geometry;       // as read, WGS84 lon/lat
+  geometry: GeoJSON.Geometry; // as read, WGS84 lon/lat
   bbox: [number, number, number, number];
 }
 
@@ -25,11 +25,11 @@ export interface Segment {
 export interface Record {
   indicator: IndicatorId;
   segmentId: string;
-  date: string;                     // ISO 8601 date
-  t: number;                        // decimal year
-  season: string;                   // "2026-autumn"
-  seasonName: string;               // "autumn"
-  value: number | null;             // normalised; for censored = detection limit
+  date: string; // ISO 8601 date
+  t: number; // decimal year
+  season: string; // "2026-autumn"
+  seasonName: string; // "autumn"
+  value: number | null; // normalised; for censored = detection limit
   censored: boolean;
   /** Extra numbers some rules need, e.g. cleanCoastIndex for beach litter. */
   extra: { [key: string]: number | string | null };
@@ -46,7 +46,7 @@ export interface DriftArrivals {
 }
 
 export interface InputFile {
-  file: string;                     // relative to the scenario folder
+  file: string; // relative to the scenario folder
   sha256: string;
   bytes: number;
 }
@@ -55,7 +55,7 @@ export interface LoadedScenario {
   dir: string;
   settings: ScenarioSettings;
   segments: Segment[];
-  records: Record[];                // all indicators, sorted by indicator, segment, date
+  records: Record[]; // all indicators, sorted by indicator, segment, date
   /** land polygons for the maps (resource role "land"), simplified; absent when not given */
   land?: LandShapes | null;
   drift: { arrivals: DriftArrivals[]; zones: { season: string; zones: AccumulationZone[] }[] } | null;

@@ -18,9 +18,7 @@
 import type { PreparedSeries } from './series-input.ts';
 import { median } from './sens-slope.ts';
 
-export type CensoredSlopeDecision =
-  | { estimable: true; t: Float64Array; y: Float64Array; droppedCensored: number }
-  | { estimable: false; reason: string };
+export type CensoredSlopeDecision = { estimable: true; t: Float64Array; y: Float64Array; droppedCensored: number } | { estimable: false; reason: string };
 
 export function censoredSlopeRule(series: PreparedSeries): CensoredSlopeDecision {
   const n = series.t.length;

@@ -148,7 +148,12 @@ export interface KendallScore {
 export function kendallScore(t: Float64Array, y: Float64Array, censored?: Uint8Array): KendallScore {
   const n = t.length;
   let anyCensored = false;
-  if (censored) for (let i = 0; i < n; i++) if (censored[i]) { anyCensored = true; break; }
+  if (censored)
+    for (let i = 0; i < n; i++)
+      if (censored[i]) {
+        anyCensored = true;
+        break;
+      }
   if (!anyCensored) return knightScore(t, y);
   const cens = censored as Uint8Array;
   const ranks = denseRanks(y);

@@ -506,7 +506,10 @@ export function selectPairwiseSlopes(t: ArrayLike<number>, y: ArrayLike<number>,
     if (depth > 80) throw new Error('slope selection went too deep; please report');
     if (inside <= Math.max(listLimit, sampleSize)) {
       const slopes = walkInterval(p, lo, hi, 1, inside, uniform);
-      const values = selectPositions(slopes, want.map((k) => k - below - 1));
+      const values = selectPositions(
+        slopes,
+        want.map((k) => k - below - 1),
+      );
       want.forEach((k, i) => found.set(k, values[i] as number));
       return;
     }
@@ -586,7 +589,10 @@ export function selectPairwiseSlopes(t: ArrayLike<number>, y: ArrayLike<number>,
         }
         if (inside <= 64 * listLimit) {
           const slopes = walkInterval(p, lo, hi, 1, inside, uniform);
-          const values = selectPositions(slopes, cluster.map((k) => k - below - 1));
+          const values = selectPositions(
+            slopes,
+            cluster.map((k) => k - below - 1),
+          );
           cluster.forEach((k, i) => found.set(k, values[i] as number));
           continue;
         }

@@ -102,14 +102,7 @@ export interface SlopeWindow {
   hi: number;
 }
 
-function medianSlope(
-  t: Float64Array,
-  y: Float64Array,
-  scratch: Float64Array,
-  uniform: () => number,
-  inverseGaps: Float64Array | null,
-  window: SlopeWindow | null = null,
-): number {
+function medianSlope(t: Float64Array, y: Float64Array, scratch: Float64Array, uniform: () => number, inverseGaps: Float64Array | null, window: SlopeWindow | null = null): number {
   const n = t.length;
   const pairs = countSlopePairs(t);
   const middle = (pairs + 1) / 2;

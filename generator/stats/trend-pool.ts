@@ -173,7 +173,7 @@ export function analyzeInPool(requests: readonly TrendRequest[], options: PoolOp
     if (Atomics.wait(shared, 1, seen, 50) === 'timed-out') {
       waited += 50;
       if (waited >= stallMs) {
-        for (let chunk = 0; chunk < chunks; chunk++) if (!done[chunk]) (computeChunk(chunk), byCaller++);
+        for (let chunk = 0; chunk < chunks; chunk++) if (!done[chunk]) computeChunk(chunk), byCaller++;
       }
     } else waited = 0;
   }

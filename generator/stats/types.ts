@@ -6,10 +6,10 @@
 
 /** One value of a series. `censored` means the value was reported as "<value" (below detection). */
 export interface SeriesPoint {
-  t: number;                 // time, e.g. decimal year
-  value: number | null;      // null = missing
+  t: number; // time, e.g. decimal year
+  value: number | null; // null = missing
   censored?: boolean;
-  season?: string;           // season name for the Seasonal Kendall test ("winter", …)
+  season?: string; // season name for the Seasonal Kendall test ("winter", …)
   /** Cycle (e.g. the year a winter belongs to) for the Hirsch & Slack covariance; defaults to ⌊t⌋. */
   cycle?: number;
 }
@@ -18,9 +18,9 @@ export interface MannKendallResult {
   S: number;
   varS: number;
   z: number | null;
-  p: number | null;          // two-sided, normal approximation with continuity correction
-  tau: number | null;        // Kendall's tau-b
-  pExact?: number | null;    // exact null distribution of S, n ≤ 10 and no ties
+  p: number | null; // two-sided, normal approximation with continuity correction
+  tau: number | null; // Kendall's tau-b
+  pExact?: number | null; // exact null distribution of S, n ≤ 10 and no ties
   /** Kendall's tau-a, S / [n(n−1)/2] (the form EnvStats prints). */
   tauA?: number | null;
 }
@@ -60,7 +60,7 @@ export interface SeasonalKendallResult {
 
 export interface SerialCorrectionResult {
   method: 'hamed-rao-1998';
-  factor: number;            // n/n*
+  factor: number; // n/n*
   varS: number;
   z: number | null;
   p: number | null;
@@ -77,7 +77,7 @@ export interface TrendBand {
 }
 
 export interface TrendResult {
-  n: number;                 // values used
+  n: number; // values used
   nCensored: number;
   mannKendall: MannKendallResult | null;
   sen: SenResult | null;

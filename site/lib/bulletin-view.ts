@@ -89,7 +89,11 @@ export function datasetJsonLd(bulletin: Bulletin, publisherName: string | null):
     datePublished: bulletin.published,
     ...(bulletin.correction ? { dateModified: bulletin.correction.date } : {}),
     temporalCoverage: `${bulletin.indicators.flatMap((i) => i.observations.map((o) => o.date)).sort()[0] ?? bulletin.season.start}/${bulletin.season.end}`,
-    spatialCoverage: { '@type': 'Place', name: bulletin.segment.name, geo: { '@type': 'GeoShape', box: `${bulletin.segment.bbox[1]} ${bulletin.segment.bbox[0]} ${bulletin.segment.bbox[3]} ${bulletin.segment.bbox[2]}` } },
+    spatialCoverage: {
+      '@type': 'Place',
+      name: bulletin.segment.name,
+      geo: { '@type': 'GeoShape', box: `${bulletin.segment.bbox[1]} ${bulletin.segment.bbox[0]} ${bulletin.segment.bbox[3]} ${bulletin.segment.bbox[2]}` },
+    },
     variableMeasured: bulletin.indicators.map((i) => ({ '@type': 'PropertyValue', name: i.label, unitText: i.unit })),
     ...(publisherName ? { publisher: { '@type': 'Organization', name: publisherName } } : {}),
     isAccessibleForFree: true,
@@ -115,8 +119,10 @@ export function permalinkOf(bulletin: { season: { id: string }; segment: { id: s
 
 /** Static paths for every published bulletin: one per season and segment. */
 export function everyBulletinPath(model: LoadedModel): { params: { season: string; segment: string }; props: { bulletin: Bulletin } }[] {
-  return model.site.seasons.flatMap((s) => pageBulletins(bulletinsOf(model, s.id)).map((bulletin) => ({
-    params: { season: assertSlug(s.id, 'season id'), segment: assertSlug(bulletin.segment.id, 'segment id') },
-    props: { bulletin },
-  })));
+  return model.site.seasons.flatMap((s) =>
+    pageBulletins(bulletinsOf(model, s.id)).map((bulletin) => ({
+      params: { season: assertSlug(s.id, 'season id'), segment: assertSlug(bulletin.segment.id, 'segment id') },
+      props: { bulletin },
+    })),
+  );
 }

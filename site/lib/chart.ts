@@ -32,8 +32,10 @@ function dateFromIso(iso: string): Date {
 
 /** Round numbers inside geometry attributes to one decimal; leave text (tick labels) alone. */
 export function roundSvgNumbers(svg: string): string {
-  return svg.replace(/ (d|x|y|x1|x2|y1|y2|cx|cy|r|width|height|transform|points|viewBox)="([^"]*)"/g, (_, name: string, value: string) =>
-    ` ${name}="${value.replace(/-?\d*\.\d+(?:e-?\d+)?/g, (n) => String(Math.round(Number(n) * 10) / 10))}"`);
+  return svg.replace(
+    / (d|x|y|x1|x2|y1|y2|cx|cy|r|width|height|transform|points|viewBox)="([^"]*)"/g,
+    (_, name: string, value: string) => ` ${name}="${value.replace(/-?\d*\.\d+(?:e-?\d+)?/g, (n) => String(Math.round(Number(n) * 10) / 10))}"`,
+  );
 }
 
 /** Plot labels its mark groups with aria-label; inside an image role those labels are noise
@@ -55,7 +57,12 @@ const seasonOrder = ['winter', 'spring', 'summer', 'autumn'];
 
 /** The inputs of the shared chart rule (generator/bulletin/chart-words.ts) for one indicator. */
 export function chartPlanOf(indicator: IndicatorBulletin): ChartPlanInput {
-  return { direction: indicator.direction, seasonsDisagree: indicator.seasonsDisagree, trend: indicator.trend, values: (indicator.seasonTotals ?? indicator.observations).map((o) => o.value) };
+  return {
+    direction: indicator.direction,
+    seasonsDisagree: indicator.seasonsDisagree,
+    trend: indicator.trend,
+    values: (indicator.seasonTotals ?? indicator.observations).map((o) => o.value),
+  };
 }
 
 /** Counts (animals reported) are whole numbers: their axis gets whole-number ticks only. */
@@ -67,7 +74,12 @@ export function isCountIndicator(indicator: Pick<IndicatorBulletin, 'indicator'>
  * The y scale: from 0, with ticks a reader can read. Counts get whole-number ticks (0, 1, 2… or
  * 0, 5, 10…); a series whose values are all 0 gets a 0–1 axis rather than a collapsed one.
  */
-export function yScale(indicator: Pick<IndicatorBulletin, 'indicator' | 'unitShort' | 'threshold'>, values: readonly number[], bandLower: readonly (number | null)[], bandUpper: readonly (number | null)[]): Record<string, unknown> {
+export function yScale(
+  indicator: Pick<IndicatorBulletin, 'indicator' | 'unitShort' | 'threshold'>,
+  values: readonly number[],
+  bandLower: readonly (number | null)[],
+  bandUpper: readonly (number | null)[],
+): Record<string, unknown> {
   const finite = (list: readonly (number | null)[]) => list.filter((v): v is number => v !== null && Number.isFinite(v));
   const top = Math.max(0, ...values, ...finite(bandUpper), indicator.threshold?.value ?? 0);
   const bottom = Math.min(0, ...values, ...finite(bandLower));
@@ -96,14 +108,20 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
   const width = options.width ?? 420;
   const totals = indicator.seasonTotals ?? null;
   const source = totals ?? indicator.observations;
-  const obs = source.filter((o) => o.value !== null).map((o) => ({
-    // Season totals sit at the middle of their season, where the trend band is computed.
-    date: totals ? dateFromDecimalYear(o.t) : dateFromIso(o.date),
-    value: o.value as number,
-    censored: o.censored,
-    season: seasonOfYear(o.season),
-    title: totals ? `${o.season}: ${o.value} ${indicator.unitShort}` : o.censored ? `${o.date}: below the lab's detection limit (${o.value} ${indicator.unitShort})` : `${o.date}: ${o.value} ${indicator.unitShort}`,
-  }));
+  const obs = source
+    .filter((o) => o.value !== null)
+    .map((o) => ({
+      // Season totals sit at the middle of their season, where the trend band is computed.
+      date: totals ? dateFromDecimalYear(o.t) : dateFromIso(o.date),
+      value: o.value as number,
+      censored: o.censored,
+      season: seasonOfYear(o.season),
+      title: totals
+        ? `${o.season}: ${o.value} ${indicator.unitShort}`
+        : o.censored
+          ? `${o.date}: below the lab's detection limit (${o.value} ${indicator.unitShort})`
+          : `${o.date}: ${o.value} ${indicator.unitShort}`,
+    }));
   const seasonal = indicator.seasonsDisagree;
   const band = indicator.trend?.band ?? null;
   const sen = indicator.trend?.sen ?? null;
@@ -130,18 +148,47 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
       const highest = sorted.length > 0 ? sorted[sorted.length - 1]! : 0;
       // Below the line only when there is room between it and the zero line.
       const below = middle >= indicator.threshold.value && indicator.threshold.value / Math.max(highest, indicator.threshold.value) >= 0.12;
-      marks.push(Plot.text([indicator.threshold.value], { y: (d: number) => d, frameAnchor: 'left', dx: 4, dy: below ? 11 : -8, text: () => `threshold ${indicator.threshold!.value} ${indicator.unitShort}`, fill: thresholdColour, fontSize: 12, textAnchor: 'start' }));
+      marks.push(
+        Plot.text([indicator.threshold.value], {
+          y: (d: number) => d,
+          frameAnchor: 'left',
+          dx: 4,
+          dy: below ? 11 : -8,
+          text: () => `threshold ${indicator.threshold!.value} ${indicator.unitShort}`,
+          fill: thresholdColour,
+          fontSize: 12,
+          textAnchor: 'start',
+        }),
+      );
     }
   }
   // Seasons of the year as a 2 × 2 grid of panels (winter, spring / summer, autumn), each named inside its frame.
   const seasonsPresent = seasonOrder.filter((s) => obs.some((o) => o.season === s));
-  const cell = (season: string) => { const i = seasonsPresent.indexOf(season); return { col: i % 2, row: Math.floor(i / 2) }; };
+  const cell = (season: string) => {
+    const i = seasonsPresent.indexOf(season);
+    return { col: i % 2, row: Math.floor(i / 2) };
+  };
   const facet = seasonal ? { fx: (d: { season: string }) => cell(d.season).col, fy: (d: { season: string }) => cell(d.season).row } : {};
   if (seasonal) {
-    marks.push(Plot.text(seasonsPresent.map((season) => ({ season })), { ...facet, text: 'season', frameAnchor: 'top-left', dx: 5, dy: 5, fontWeight: 600, fill: ink }));
+    marks.push(
+      Plot.text(
+        seasonsPresent.map((season) => ({ season })),
+        { ...facet, text: 'season', frameAnchor: 'top-left', dx: 5, dy: 5, fontWeight: 600, fill: ink },
+      ),
+    );
   }
-  marks.push(Plot.dot(obs.filter((o) => !o.censored), { x: 'date', y: 'value', r: 2.6, fill: ink, fillOpacity: 0.8, stroke: '#fff', strokeWidth: 0.6, title: 'title', ...facet }));
-  marks.push(Plot.dot(obs.filter((o) => o.censored), { x: 'date', y: 'value', r: 4, symbol: 'triangle', rotate: 180, fill: '#fff', stroke: ink, strokeWidth: 1.3, title: 'title', ...facet }));
+  marks.push(
+    Plot.dot(
+      obs.filter((o) => !o.censored),
+      { x: 'date', y: 'value', r: 2.6, fill: ink, fillOpacity: 0.8, stroke: '#fff', strokeWidth: 0.6, title: 'title', ...facet },
+    ),
+  );
+  marks.push(
+    Plot.dot(
+      obs.filter((o) => o.censored),
+      { x: 'date', y: 'value', r: 4, symbol: 'triangle', rotate: 180, fill: '#fff', stroke: ink, strokeWidth: 1.3, title: 'title', ...facet },
+    ),
+  );
   if (seasonal) marks.push(Plot.frame({ stroke: '#c8d0d4' }));
 
   const plot = Plot.plot({
@@ -154,10 +201,13 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
     marginTop: 20,
     marginBottom: 30,
     style: { fontSize: '13px', fontFamily: 'inherit', color: ink, background: 'transparent', overflow: 'visible' },
-    x: seasonal
-      ? { type: 'utc', label: null, ticks: 3, inset: 6 }
-      : { type: 'utc', label: null, ticks: 5, inset: 8 },
-    y: yScale(indicator, obs.map((o) => o.value), mark === 'band' && band ? band.lower : [], mark === 'band' && band ? band.upper : []),
+    x: seasonal ? { type: 'utc', label: null, ticks: 3, inset: 6 } : { type: 'utc', label: null, ticks: 5, inset: 8 },
+    y: yScale(
+      indicator,
+      obs.map((o) => o.value),
+      mark === 'band' && band ? band.lower : [],
+      mark === 'band' && band ? band.upper : [],
+    ),
     ...(seasonal ? { fx: { axis: null, padding: 0.06 }, fy: { axis: null, padding: 0.1 } } : {}),
     marks,
   });

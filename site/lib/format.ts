@@ -42,7 +42,10 @@ export function formatPShort(p: number | null | undefined): string {
 
 /** The secondary line of a regional trend: test statistic, p and the median yearly change. */
 export function regionalFigures(t: { S: number | null; p: number | null; slope: number | null; unitShort: string }): string {
-  const test = t.S === null ? 'Regional Kendall test: too little data' : `Regional Kendall test: S = ${withMinus(String(Math.round(t.S)))}, p ${t.p !== null && t.p < 0.001 ? '' : '= '}${formatPShort(t.p)}`;
+  const test =
+    t.S === null
+      ? 'Regional Kendall test: too little data'
+      : `Regional Kendall test: S = ${withMinus(String(Math.round(t.S)))}, p ${t.p !== null && t.p < 0.001 ? '' : '= '}${formatPShort(t.p)}`;
   const slope = t.slope === null ? '' : `; median change ${withMinus(t.slope === 0 ? '0' : formatNumber(t.slope))} ${t.unitShort} a year (Sen's slope)`;
   return `${test}${slope}.`;
 }
@@ -118,11 +121,20 @@ export const contactRoleWords: Record<string, string> = {
 };
 
 export const kindWords: Record<string, string> = {
-  beach: 'Beach', bay: 'Bay', harbour: 'Harbour', estuary: 'Estuary', 'island-shore': 'Island shore', 'rocky-shore': 'Rocky shore', lagoon: 'Lagoon',
+  beach: 'Beach',
+  bay: 'Bay',
+  harbour: 'Harbour',
+  estuary: 'Estuary',
+  'island-shore': 'Island shore',
+  'rocky-shore': 'Rocky shore',
+  lagoon: 'Lagoon',
 };
 
 export const shellfishWords: Record<string, string> = {
-  farmed: 'Shellfish farmed here', gathered: 'Shellfish gathered here', 'farmed-and-gathered': 'Shellfish farmed and gathered here', none: 'No shellfish harvesting recorded',
+  farmed: 'Shellfish farmed here',
+  gathered: 'Shellfish gathered here',
+  'farmed-and-gathered': 'Shellfish farmed and gathered here',
+  none: 'No shellfish harvesting recorded',
 };
 
 export type { LevelId };

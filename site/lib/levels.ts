@@ -8,11 +8,11 @@ import type { LevelId } from '../../generator/model/types.ts';
 
 export interface LevelStyle {
   rank: 0 | 1 | 2 | 3 | 4;
-  fill: string;           // swatch / polygon fill
-  stroke: string;         // line colour on maps (darker than fill for contrast on the sea tint)
-  dash: string | null;    // SVG stroke-dasharray, a second cue besides colour
-  width: number;          // stroke width on the overview map
-  pattern: string;        // id of the SVG pattern used for areas and swatches
+  fill: string; // swatch / polygon fill
+  stroke: string; // line colour on maps (darker than fill for contrast on the sea tint)
+  dash: string | null; // SVG stroke-dasharray, a second cue besides colour
+  width: number; // stroke width on the overview map
+  pattern: string; // id of the SVG pattern used for areas and swatches
 }
 
 export const levelStyles: Record<LevelId, LevelStyle> = {
@@ -40,7 +40,12 @@ export function levelPatternDefs(): string {
     p('wl-pat-0', '#ffffff', '#5f6d76', '<path d="M1 3H2.5M3.5 3H5" stroke="INK" stroke-width="0.8"/>'),
     p('wl-pat-1', levelStyles.scant.fill, '#7d6d44', '<circle cx="3" cy="3" r="0.8" fill="INK"/>'),
     p('wl-pat-2', levelStyles.noticeable.fill, '#5a3a14', '<path d="M0 6L6 0" stroke="INK" stroke-width="0.9"/>'),
-    p('wl-pat-3', levelStyles.marked.fill, '#fff', '<path d="M0 6L6 0M-1 1L1 -1M5 7L7 5" stroke="INK" stroke-width="1.1"/><path d="M0 3L3 0M3 6L6 3" stroke="INK" stroke-width="0.7"/>'),
+    p(
+      'wl-pat-3',
+      levelStyles.marked.fill,
+      '#fff',
+      '<path d="M0 6L6 0M-1 1L1 -1M5 7L7 5" stroke="INK" stroke-width="1.1"/><path d="M0 3L3 0M3 6L6 3" stroke="INK" stroke-width="0.7"/>',
+    ),
     p('wl-pat-4', levelStyles.heavy.fill, '#fff', '<path d="M0 6L6 0M0 0L6 6" stroke="INK" stroke-width="1"/>'),
   ].join('');
 }

@@ -40,14 +40,14 @@ export interface PreparedSegments {
 }
 
 export interface MapOptions {
-  idPrefix: string;                 // makes <title>/<desc> ids unique on the page
+  idPrefix: string; // makes <title>/<desc> ids unique on the page
   title: string;
   description: string;
   segments: PreparedSegments;
   zones?: AccumulationZone[];
-  highlight?: string | null;        // segment id for a locator map
-  width?: number;                   // defaults to 640
-  badges?: boolean;                 // numbered level badges; defaults to true under 80 segments
+  highlight?: string | null; // segment id for a locator map
+  width?: number; // defaults to 640
+  badges?: boolean; // numbered level badges; defaults to true under 80 segments
   /**
    * Where each segment's bulletin is (region maps): its line and badge become links, so a tap on
    * a phone opens the bulletin. Left out of the tab order: the table of all segments below the
@@ -154,13 +154,19 @@ export function simplifiedForScale<F extends Feature<Geometry, P>, P = F['proper
 
 /** A line's or ring's vertices in pixels (for placement); NaN-free points only. */
 function projectedLines(geometry: Geometry, project: (p: [number, number]) => [number, number] | null): Point[][] {
-  const line = (coords: GeoJSON.Position[]): Point[] => coords.map((c) => project([c[0]!, c[1]!])).filter((p): p is Point => p !== null && Number.isFinite(p[0]) && Number.isFinite(p[1]));
+  const line = (coords: GeoJSON.Position[]): Point[] =>
+    coords.map((c) => project([c[0]!, c[1]!])).filter((p): p is Point => p !== null && Number.isFinite(p[0]) && Number.isFinite(p[1]));
   switch (geometry.type) {
-    case 'LineString': return [line(geometry.coordinates)];
-    case 'MultiLineString': return geometry.coordinates.map(line);
-    case 'Polygon': return geometry.coordinates.map(line);
-    case 'MultiPolygon': return geometry.coordinates.flatMap((p) => p.map(line));
-    default: return [];
+    case 'LineString':
+      return [line(geometry.coordinates)];
+    case 'MultiLineString':
+      return geometry.coordinates.map(line);
+    case 'Polygon':
+      return geometry.coordinates.map(line);
+    case 'MultiPolygon':
+      return geometry.coordinates.flatMap((p) => p.map(line));
+    default:
+      return [];
   }
 }
 
@@ -168,13 +174,14 @@ function projectedLines(geometry: Geometry, project: (p: [number, number]) => [n
 function nearestVertex(lines: Point[][], to: Point): Point | null {
   let best: Point | null = null;
   let distance = Infinity;
-  for (const l of lines) for (const p of l) {
-    const d = Math.hypot(p[0] - to[0], p[1] - to[1]);
-    if (d < distance) {
-      distance = d;
-      best = p;
+  for (const l of lines)
+    for (const p of l) {
+      const d = Math.hypot(p[0] - to[0], p[1] - to[1]);
+      if (d < distance) {
+        distance = d;
+        best = p;
+      }
     }
-  }
   return best;
 }
 
@@ -182,7 +189,9 @@ function badgeSvg(label: PlacedLabel, level: LevelId, number: number): string {
   const style = levelStyles[level];
   const cx = (label.box.x + label.box.w / 2).toFixed(1);
   const cy = (label.box.y + label.box.h / 2).toFixed(1);
-  const leader = label.leader ? `<path d="M${label.leader[0][0].toFixed(1)} ${label.leader[0][1].toFixed(1)}L${label.leader[1][0].toFixed(1)} ${label.leader[1][1].toFixed(1)}" stroke="#1f2a33" stroke-width="0.8"/>` : '';
+  const leader = label.leader
+    ? `<path d="M${label.leader[0][0].toFixed(1)} ${label.leader[0][1].toFixed(1)}L${label.leader[1][0].toFixed(1)} ${label.leader[1][1].toFixed(1)}" stroke="#1f2a33" stroke-width="0.8"/>`
+    : '';
   return `<g class="badge">${leader}<circle cx="${cx}" cy="${cy}" r="${badgeRadius}" fill="${style.fill}" stroke="#1f2a33" stroke-width="1.2"${style.rank === 0 ? ' stroke-dasharray="3 2"' : ''}/><text x="${cx}" y="${cy}" dy="0.35em" text-anchor="middle" font-size="10" font-weight="700" fill="${style.rank >= 3 ? '#fff' : '#1f2a33'}">${number > 0 ? number : '?'}</text></g>`;
 }
 
@@ -194,7 +203,9 @@ function textWidth(text: string, size = 11): number {
 function textLabelSvg(label: PlacedLabel, text: string, cls: string, italic: boolean, halo: string): string {
   const x = (label.box.x + label.box.w / 2).toFixed(1);
   const y = (label.box.y + label.box.h / 2).toFixed(1);
-  const leader = label.leader ? `<path d="M${label.leader[0][0].toFixed(1)} ${label.leader[0][1].toFixed(1)}L${label.leader[1][0].toFixed(1)} ${label.leader[1][1].toFixed(1)}" stroke="#55656f" stroke-width="0.7"/>` : '';
+  const leader = label.leader
+    ? `<path d="M${label.leader[0][0].toFixed(1)} ${label.leader[0][1].toFixed(1)}L${label.leader[1][0].toFixed(1)} ${label.leader[1][1].toFixed(1)}" stroke="#55656f" stroke-width="0.7"/>`
+    : '';
   return `${leader}<text class="${cls}" x="${x}" y="${y}" text-anchor="middle" dy="0.35em" font-size="11"${italic ? ' font-style="italic"' : ' font-weight="600"'} fill="#1f2a33" stroke="${halo}" stroke-width="3" paint-order="stroke">${escapeXml(text)}</text>`;
 }
 
@@ -208,14 +219,27 @@ function renderInset(all: Feature<Geometry, Props>[], land: PreparedLand | null,
   const x0 = width - size - 8;
   const y0 = 8;
   const collection = { type: 'FeatureCollection', features: all } as FeatureCollection;
-  const projection = projectionFor(extentOf(collection)).projection.fitExtent([[x0 + 6, y0 + 6], [x0 + size - 6, y0 + size - 6]], collection).clipExtent([[x0, y0], [x0 + size, y0 + size]]);
+  const projection = projectionFor(extentOf(collection))
+    .projection.fitExtent(
+      [
+        [x0 + 6, y0 + 6],
+        [x0 + size - 6, y0 + size - 6],
+      ],
+      collection,
+    )
+    .clipExtent([
+      [x0, y0],
+      [x0 + size, y0 + size],
+    ]);
   const path = geoPath(projection).digits(0);
   const coast = all.map((f) => path(f) ?? '').join('');
   const landPath = land ? land.features.map((f) => path(f) ?? '').join('') : '';
   const [[bx0, by0], [bx1, by1]] = path.bounds(windowFrame);
   const target = all.find((f) => f.properties.id === highlight);
   const c = target ? path.centroid(target) : null;
-  const box = Number.isFinite(bx0) ? `<rect x="${bx0.toFixed(1)}" y="${by0.toFixed(1)}" width="${Math.max(bx1 - bx0, 3).toFixed(1)}" height="${Math.max(by1 - by0, 3).toFixed(1)}" fill="none" stroke="#1f2a33" stroke-width="1.5"/>` : '';
+  const box = Number.isFinite(bx0)
+    ? `<rect x="${bx0.toFixed(1)}" y="${by0.toFixed(1)}" width="${Math.max(bx1 - bx0, 3).toFixed(1)}" height="${Math.max(by1 - by0, 3).toFixed(1)}" fill="none" stroke="#1f2a33" stroke-width="1.5"/>`
+    : '';
   const dot = c && Number.isFinite(c[0]) ? `<circle cx="${c[0].toFixed(1)}" cy="${c[1].toFixed(1)}" r="2.5" fill="#1f2a33"/>` : '';
   return `<g class="inset"><rect x="${x0}" y="${y0}" width="${size}" height="${size}" fill="${land ? mapColours.sea : '#fff'}" fill-opacity="0.95" stroke="#8c9aa3"/>${landPath ? `<path d="${landPath}" fill="${mapColours.land}" stroke="${mapColours.coast}" stroke-width="0.6"/>` : ''}<path d="${coast}" fill="none" stroke="#6b7b85" stroke-width="1.2"/>${box}${dot}</g>`;
 }
@@ -242,10 +266,12 @@ export function renderMapWithLayout(options: MapOptions): { svg: string; layout:
   const land = options.land ?? null;
   let features = allFeatures;
   let windowFrame: GeoPermissibleObjects | null = null;
-  const zones = (options.zones ?? []).filter((z) => z.hull.length >= 4).map((z) => ({
-    zone: z,
-    feature: { type: 'Feature', properties: {}, geometry: rewindForD3({ type: 'Polygon', coordinates: [z.hull] }) } as Feature<Polygon>,
-  }));
+  const zones = (options.zones ?? [])
+    .filter((z) => z.hull.length >= 4)
+    .map((z) => ({
+      zone: z,
+      feature: { type: 'Feature', properties: {}, geometry: rewindForD3({ type: 'Polygon', coordinates: [z.hull] }) } as Feature<Polygon>,
+    }));
 
   // Frame: the whole region, or for a locator the highlighted segment with its surroundings.
   let frame: GeoPermissibleObjects = { type: 'FeatureCollection', features: [...features, ...zones.map((z) => z.feature)] } as FeatureCollection;
@@ -258,7 +284,15 @@ export function renderMapWithLayout(options: MapOptions): { svg: string; layout:
       const spanLat = Math.max(n - s, 0.05) * 1.6;
       const cx = w + lonDelta(w, e) / 2;
       const cy = (s + n) / 2;
-      windowFrame = { type: 'MultiPoint', coordinates: [[cx - spanLon, cy - spanLat], [cx + spanLon, cy + spanLat], [cx - spanLon, cy + spanLat], [cx + spanLon, cy - spanLat]] };
+      windowFrame = {
+        type: 'MultiPoint',
+        coordinates: [
+          [cx - spanLon, cy - spanLat],
+          [cx + spanLon, cy + spanLat],
+          [cx - spanLon, cy + spanLat],
+          [cx + spanLon, cy - spanLat],
+        ],
+      };
       frame = windowFrame;
       features = features.filter((_, i) => {
         const [[fw, fs], [fe, fn]] = options.segments.bounds[i]!;
@@ -271,7 +305,18 @@ export function renderMapWithLayout(options: MapOptions): { svg: string; layout:
   projection.fitWidth(width - 2 * pad, frame);
   const probe = geoPath(projection).bounds(frame);
   const height = Math.round(Math.min(Math.max(probe[1][1] - probe[0][1] + 2 * pad, 220), highlight ? 360 : 560));
-  projection.fitExtent([[pad, pad], [width - pad, height - pad]], frame).clipExtent([[0, 0], [width, height]]);
+  projection
+    .fitExtent(
+      [
+        [pad, pad],
+        [width - pad, height - pad],
+      ],
+      frame,
+    )
+    .clipExtent([
+      [0, 0],
+      [width, height],
+    ]);
   const path = geoPath(projection).digits(1);
   const project = (p: [number, number]) => projection(p) as [number, number] | null;
 
@@ -285,7 +330,9 @@ export function renderMapWithLayout(options: MapOptions): { svg: string; layout:
   parts.push(`<svg class="map" viewBox="0 0 ${width} ${height}" role="${linked ? 'group' : 'img'}" aria-labelledby="${tid} ${did}" preserveAspectRatio="xMidYMid meet">`);
   parts.push(`<title id="${tid}">${escapeXml(options.title)}</title><desc id="${did}">${escapeXml(options.description)}</desc>`);
   const pat = `${options.idPrefix}-zone`;
-  parts.push(`<defs><pattern id="${pat}" width="7" height="7" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><rect width="7" height="7" fill="#dfe8ec"/><path d="M0 0V7" stroke="#5d7482" stroke-width="1.4"/></pattern>${features.some((f) => isArea(f.geometry)) ? levelPatternDefs().replace(/wl-pat-/g, `${options.idPrefix}-pat-`) : ''}</defs>`);
+  parts.push(
+    `<defs><pattern id="${pat}" width="7" height="7" patternUnits="userSpaceOnUse" patternTransform="rotate(45)"><rect width="7" height="7" fill="#dfe8ec"/><path d="M0 0V7" stroke="#5d7482" stroke-width="1.4"/></pattern>${features.some((f) => isArea(f.geometry)) ? levelPatternDefs().replace(/wl-pat-/g, `${options.idPrefix}-pat-`) : ''}</defs>`,
+  );
   parts.push(`<rect class="sea" x="0" y="0" width="${width}" height="${height}" fill="${land ? mapColours.sea : mapColours.plain}"/>`);
   // ground distance of one pixel at the middle of the map, for simplifying what is drawn
   const middle = scaleBar(projection, [width / 2 - 50, height / 2]);
@@ -300,12 +347,16 @@ export function renderMapWithLayout(options: MapOptions): { svg: string; layout:
     const d = path(f);
     if (!d) continue;
     const label = `Offshore accumulation ${zoneName(zone.id).toLowerCase()}: about ${formatNumber(zone.particles)} modelled particles within ${formatNumber(zone.radiusKm)} km`;
-    parts.push(`<path d="${d}" fill="url(#${pat})" fill-opacity="${highlight ? 0.5 : 0.9}" stroke="#3d5563" stroke-width="1" stroke-dasharray="3 2"><title>${escapeXml(label)}</title></path>`);
+    parts.push(
+      `<path d="${d}" fill="url(#${pat})" fill-opacity="${highlight ? 0.5 : 0.9}" stroke="#3d5563" stroke-width="1" stroke-dasharray="3 2"><title>${escapeXml(label)}</title></path>`,
+    );
   }
 
   // Wraps a segment's drawing in a link to its bulletin (region maps with `linkOf`).
-  const linkFor = (id: string, name: string) => (inner: string): string =>
-    linkOf ? `<a href="${escapeXml(linkOf(id))}" tabindex="-1" aria-label="${escapeXml(name)}">${inner}</a>` : inner;
+  const linkFor =
+    (id: string, name: string) =>
+    (inner: string): string =>
+      linkOf ? `<a href="${escapeXml(linkOf(id))}" tabindex="-1" aria-label="${escapeXml(name)}">${inner}</a>` : inner;
   const ordered = [...features].sort((a, b) => {
     if (highlight) return (a.properties.id === highlight ? 1 : 0) - (b.properties.id === highlight ? 1 : 0);
     return levelStyles[a.properties.level].rank - levelStyles[b.properties.level].rank;
@@ -346,7 +397,11 @@ export function renderMapWithLayout(options: MapOptions): { svg: string; layout:
       } else {
         // a white casing separates touching segments; left out on crowded maps to keep pages small
         if (features.length <= 150 || isTarget) parts.push(`<path d="${d}" fill="none" stroke="#fff" stroke-width="${w + 3}" stroke-linecap="round" stroke-linejoin="round"/>`);
-        parts.push(open(`<path d="${d}" fill="none" stroke="${isTarget ? '#1f2a33' : style.stroke}" stroke-width="${w}" stroke-linecap="round" stroke-linejoin="round"${dash}>${title}</path>`));
+        parts.push(
+          open(
+            `<path d="${d}" fill="none" stroke="${isTarget ? '#1f2a33' : style.stroke}" stroke-width="${w}" stroke-linecap="round" stroke-linejoin="round"${dash}>${title}</path>`,
+          ),
+        );
       }
     }
   }

@@ -44,7 +44,18 @@ export const smallSpanKm = 600;
 export function extentOf(object: GeoPermissibleObjects): Extent {
   const [[, south], [, north]] = geoBounds(object);
   const lons: number[] = [];
-  const sink = { point: (x: number) => { lons.push(((x + 540) % 360) - 180); }, lineStart: () => {}, lineEnd: () => {}, polygonStart: () => {}, polygonEnd: () => {}, sphere: () => { lons.push(-180, 0, 180); } };
+  const sink = {
+    point: (x: number) => {
+      lons.push(((x + 540) % 360) - 180);
+    },
+    lineStart: () => {},
+    lineEnd: () => {},
+    polygonStart: () => {},
+    polygonEnd: () => {},
+    sphere: () => {
+      lons.push(-180, 0, 180);
+    },
+  };
   geoStream(object, sink);
   let west = -180;
   let east = 180;

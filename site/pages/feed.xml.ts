@@ -8,6 +8,10 @@ export const GET: APIRoute = async () => {
   const model = await loadModel();
   const context = feedContext(model);
   const all = seasonsNewestFirst(model).flatMap((s) => bulletinsOf(model, s.id));
-  const xml = feedForBulletins(context, { id: 'bulletins', title: `${context.publisher}: seasonal coastal litter bulletins, ${model.site.region.name}`, selfHref: '/feed.xml', alternateHref: '/' }, all);
+  const xml = feedForBulletins(
+    context,
+    { id: 'bulletins', title: `${context.publisher}: seasonal coastal litter bulletins, ${model.site.region.name}`, selfHref: '/feed.xml', alternateHref: '/' },
+    all,
+  );
   return new Response(xml, { headers: { 'Content-Type': 'application/atom+xml; charset=utf-8' } });
 };

@@ -31,9 +31,7 @@ describe('shellfish cautions', () => {
   });
   test('public-health office stands in when no shellfish-sanitation office is named', () => {
     const only = shellfishCautions([{ role: 'public-health', name: 'Saltmere Health Board', email: 'health@example.org' }]);
-    expect(only[1]?.text).toBe(
-      'Only the shellfish office can say if you may harvest. Check with them first: Saltmere Health Board. Email health@example.org.',
-    );
+    expect(only[1]?.text).toBe('Only the shellfish office can say if you may harvest. Check with them first: Saltmere Health Board. Email health@example.org.');
   });
   test('read at grade 6 or lower (Flesch–Kincaid, Kincaid et al. 1975; US EPA aims at grade 4–6 for critical information)', () => {
     const grade = readability(cautions.map((c) => c.text)).grade;

@@ -11,7 +11,9 @@ describe('case 8, a notice that fits the data', () => {
   test('case 8: a real coast with made-up figures is not told its places are made up', () => {
     const notice = dataNoticeOf({ invented: true, dataNotice: 'test-data' });
     expect(notice?.title).toBe('Test figures on real places.');
-    expect(notice?.text).toBe('The places are real, but the figures are made up to test this site. They say nothing about plastic at these places; do not use them for any decision.');
+    expect(notice?.text).toBe(
+      'The places are real, but the figures are made up to test this site. They say nothing about plastic at these places; do not use them for any decision.',
+    );
     expect(notice?.text).not.toMatch(/Places, agencies/u);
   });
   test('case 8: provisional figures defer to the authorities; the demo keeps its notice; real final data has none', () => {

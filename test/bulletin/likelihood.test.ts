@@ -6,12 +6,7 @@ import { assertInDelta } from '../asserts.ts';
 // (R/wBTCode.R, wordLike): right-closed intervals.
 describe('likelihood words (Hirsch, Archfield & De Cicco 2015)', () => {
   test('EGRETci example: 0.01, 0.5, 0.55, 0.99', () => {
-    expect([0.01, 0.5, 0.55, 0.99].map(likelihoodWord)).toEqual([
-      'highly unlikely',
-      'about as likely as not',
-      'about as likely as not',
-      'highly likely',
-    ]);
+    expect([0.01, 0.5, 0.55, 0.99].map(likelihoodWord)).toEqual(['highly unlikely', 'about as likely as not', 'about as likely as not', 'highly likely']);
   });
   test('band edges are right-closed: 0.95 very likely, 0.9501 highly likely, 0.66 about as likely as not', () => {
     expect(likelihoodWord(0.95)).toBe('very likely');

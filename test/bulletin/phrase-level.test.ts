@@ -60,12 +60,10 @@ describe('level sentences', () => {
   });
   test('why this level: the rule that set it, or the default', () => {
     expect(whySentence(marked)).toBe('Why this level: the Clean Coast Index is 14, above 10: the beach is dirty.');
-    expect(
-      whySentence({ ...marked, hits: [{ ruleId: 'x', level: 'marked', text: 'Beach litter in the last four seasons has a median of 160 items per 100 m.' }] }),
-    ).toBe('Why this level: beach litter in the last four seasons has a median of 160 items per 100 m.');
-    expect(whySentence({ id: 'scant', rank: 1, label: 'Scant', hits: [] })).toBe(
-      'No rule for a higher level applies here, so the level is the lowest.',
+    expect(whySentence({ ...marked, hits: [{ ruleId: 'x', level: 'marked', text: 'Beach litter in the last four seasons has a median of 160 items per 100 m.' }] })).toBe(
+      'Why this level: beach litter in the last four seasons has a median of 160 items per 100 m.',
     );
+    expect(whySentence({ id: 'scant', rank: 1, label: 'Scant', hits: [] })).toBe('No rule for a higher level applies here, so the level is the lowest.');
   });
   test('level up', () => {
     expect(levelChangeSentence(marked, noticeable)).toBe('The level went up from Noticeable (level 2 of 4) to Marked (level 3 of 4).');
@@ -82,9 +80,7 @@ describe('level sentences', () => {
   });
   test('a level that moved against a trend says why the two can differ', () => {
     const rising = [{ subject: 'Beach litter', direction: 'rising' as const }];
-    expect(levelAndTrendSentence(noticeable, marked, rising)).toBe(
-      'The level looks at the last four seasons; the trend looks at all the years, so the two can differ.',
-    );
+    expect(levelAndTrendSentence(noticeable, marked, rising)).toBe('The level looks at the last four seasons; the trend looks at all the years, so the two can differ.');
     expect(levelAndTrendSentence(marked, noticeable, rising)).toBeNull();
     expect(levelAndTrendSentence(marked, marked, rising)).toBeNull();
   });
@@ -93,19 +89,13 @@ describe('level sentences', () => {
     expect(levelChangeSentence(marked, null)).toBeNull();
   });
   test('what changed since last season', () => {
-    expect(directionChangeSentence('Beach litter', 'rising', 'no-clear-direction')).toBe(
-      'Last season we could not tell if beach litter was going up or down; now it is going up.',
-    );
-    expect(directionChangeSentence('Beach litter', 'no-clear-direction', 'falling')).toBe(
-      'Last season beach litter was going down; now we cannot tell if it is going up or down.',
-    );
+    expect(directionChangeSentence('Beach litter', 'rising', 'no-clear-direction')).toBe('Last season we could not tell if beach litter was going up or down; now it is going up.');
+    expect(directionChangeSentence('Beach litter', 'no-clear-direction', 'falling')).toBe('Last season beach litter was going down; now we cannot tell if it is going up or down.');
     expect(directionChangeSentence('Plastic in shellfish', 'falling', 'too-little-data')).toBe(
       'Last season there was too little data to tell if plastic in shellfish was changing; now it is going down.',
     );
     expect(directionChangeSentence('Beach litter', 'rising', 'rising')).toBeNull();
-    expect(seasonValueSentence('Beach litter', 'items per 100 m of beach', '44', '30')).toBe(
-      'Beach litter this season: 44 items per 100 m of beach, against 30 last season.',
-    );
+    expect(seasonValueSentence('Beach litter', 'items per 100 m of beach', '44', '30')).toBe('Beach litter this season: 44 items per 100 m of beach, against 30 last season.');
   });
   test('counts of animals: whole numbers, singular and plural, and "no" for zero', () => {
     expect(seasonCountSentence('animals harmed by litter', 0, 0)).toBe('No animals harmed by litter were reported this season or last season.');
@@ -117,15 +107,14 @@ describe('level sentences', () => {
     expect(seasonCountSentence('animals harmed by litter', null, 2)).toBeNull();
   });
   test('main trend of the summary', () => {
-    expect(mainTrendSentence([{ subject: 'Beach litter', direction: 'rising' }, { subject: 'Plastic in shellfish', direction: 'falling' }])).toBe(
-      'Beach litter is going up, and plastic in shellfish is going down.',
-    );
-    expect(mainTrendSentence([{ subject: 'Beach litter', direction: 'no-clear-direction' }])).toBe(
-      'No measure here is clearly going up or down.',
-    );
-    expect(mainTrendSentence([{ subject: 'Beach litter', direction: 'too-little-data' }])).toBe(
-      'There are too few samples here yet to tell if any measure is going up or down.',
-    );
+    expect(
+      mainTrendSentence([
+        { subject: 'Beach litter', direction: 'rising' },
+        { subject: 'Plastic in shellfish', direction: 'falling' },
+      ]),
+    ).toBe('Beach litter is going up, and plastic in shellfish is going down.');
+    expect(mainTrendSentence([{ subject: 'Beach litter', direction: 'no-clear-direction' }])).toBe('No measure here is clearly going up or down.');
+    expect(mainTrendSentence([{ subject: 'Beach litter', direction: 'too-little-data' }])).toBe('There are too few samples here yet to tell if any measure is going up or down.');
   });
   test('the methods page explains the false-discovery check in two sentences', () => {
     const [first, second] = falseAlarmSentences(0.05);

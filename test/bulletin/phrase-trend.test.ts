@@ -162,9 +162,7 @@ describe('trend sentences, one per template path', () => {
   });
 
   test('no samples at all', () => {
-    expect(phraseTrend(input('too-little-data', null, { samples: null }))).toEqual([
-      'There are no samples of beach litter here yet, so we cannot say.',
-    ]);
+    expect(phraseTrend(input('too-little-data', null, { samples: null }))).toEqual(['There are no samples of beach litter here yet, so we cannot say.']);
   });
 
   test('censored values, with no rate when the slope cannot be estimated', () => {
@@ -227,20 +225,13 @@ describe('trend sentences, one per template path', () => {
   });
 
   test('a chance that rounds to 100 or 0 in 100 is not printed as certain', () => {
-    expect(phraseTrend(input('rising', trendOf(6.2, 2.3, 10.1, 0.0004), { probabilityUp: 0.999 }))[1]).toBe(
-      'A rise is highly likely: the chance is more than 99 in 100.',
-    );
-    expect(phraseTrend(input('falling', trendOf(-6.2, -10.1, -2.3, 0.0004), { probabilityUp: 0.001 }))[1]).toBe(
-      'A fall is highly likely: the chance is more than 99 in 100.',
-    );
+    expect(phraseTrend(input('rising', trendOf(6.2, 2.3, 10.1, 0.0004), { probabilityUp: 0.999 }))[1]).toBe('A rise is highly likely: the chance is more than 99 in 100.');
+    expect(phraseTrend(input('falling', trendOf(-6.2, -10.1, -2.3, 0.0004), { probabilityUp: 0.001 }))[1]).toBe('A fall is highly likely: the chance is more than 99 in 100.');
   });
 
   test('a claimed rise is never printed as a change of 0', () => {
     const sentences = phraseTrend(input('rising', trendOf(0.04, 0.01, 0.9, 0.001)));
-    expect(sentences.slice(2, 4)).toEqual([
-      'That is about 0.04 more items per 100 m of beach each year.',
-      'The 95% confidence interval runs from 0.01 to 0.9 more.',
-    ]);
+    expect(sentences.slice(2, 4)).toEqual(['That is about 0.04 more items per 100 m of beach each year.', 'The 95% confidence interval runs from 0.01 to 0.9 more.']);
   });
 });
 
@@ -262,7 +253,12 @@ describe('interval and unit words', () => {
   });
   test('the interval never uses a word of the Hirsch et al. (2015) likelihood scheme', () => {
     const words = /\b(likely|unlikely|probably|probable|chance)\b/;
-    for (const [slope, lower, upper] of [[6.2, 2.3, 10.1], [-0.83, -1.24, -0.41], [2.6, -1.8, 7.2], [0.2, -1.6, 2.1]] as const) {
+    for (const [slope, lower, upper] of [
+      [6.2, 2.3, 10.1],
+      [-0.83, -1.24, -0.41],
+      [2.6, -1.8, 7.2],
+      [0.2, -1.6, 2.1],
+    ] as const) {
       for (const direction of ['rising', 'falling', 'no-clear-direction'] as const) {
         for (const s of rateSentences(input(direction, trendOf(slope, lower, upper, 0.01)))) expect(s).not.toMatch(words);
       }

@@ -89,7 +89,10 @@ describe('demo datapackage.json', () => {
 });
 
 describe('demo drift files', () => {
-  const csv = gunzipSync(readFileSync(join(DEMO_DIR, 'drift/positions.csv.gz'))).toString('utf8').trim().split('\n');
+  const csv = gunzipSync(readFileSync(join(DEMO_DIR, 'drift/positions.csv.gz')))
+    .toString('utf8')
+    .trim()
+    .split('\n');
 
   test('positions: header, ISO times, drifting/ashore status, arrivals that differ by season', () => {
     expect(csv[0]).toBe('particle,time,lon,lat,status');

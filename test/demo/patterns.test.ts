@@ -166,7 +166,10 @@ describe('the project trend engine agrees where it is present', () => {
     if (typeof module.mannKendall !== 'function') throw new Error('generator/stats/mann-kendall.ts exports no mannKendall');
     for (const id of ['corrab-sands', 'ostry-beach', 'pellow-strand']) {
       const points = litter(id);
-      const engine = module.mannKendall(Float64Array.from(points, (_, i) => i), Float64Array.from(values(points)));
+      const engine = module.mannKendall(
+        Float64Array.from(points, (_, i) => i),
+        Float64Array.from(values(points)),
+      );
       const simple = mannKendallSimple(values(points));
       expect(engine.S, id).toBe(simple.S);
       expect(Math.abs((engine.p ?? NaN) - simple.p), id).toBeLessThan(1e-4);

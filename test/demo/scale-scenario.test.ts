@@ -26,7 +26,10 @@ describe('makeScaleScenario', () => {
     const summary = await makeScaleScenario(dir, { segments: 40, years: 3, positions: 12_345, seed: 5 });
     const segments = JSON.parse(await readFile(join(dir, 'segments.geojson'), 'utf8')) as { features: { properties: { id: string } }[] };
     expect(segments.features).toHaveLength(40);
-    const lines = gunzipSync(await readFile(join(dir, 'drift/positions.csv.gz'))).toString('utf8').trim().split('\n');
+    const lines = gunzipSync(await readFile(join(dir, 'drift/positions.csv.gz')))
+      .toString('utf8')
+      .trim()
+      .split('\n');
     expect(lines).toHaveLength(12_345 + 1);
     expect(summary.rows.positions).toBe(12_345);
     const beach = (await readFile(join(dir, 'tables/beach-litter.csv'), 'utf8')).trim().split('\n').slice(1);

@@ -6,22 +6,60 @@
 import type { Netcdf3Spec, Netcdf3Variable } from '../../generator/drift/netcdf3-writer.ts';
 import { writeNetcdf3 } from '../../generator/drift/netcdf3-writer.ts';
 
-export interface Observation { hours: number; lon: number; lat: number }
-export interface Trajectory { id: number; observations: Observation[] }
+export interface Observation {
+  hours: number;
+  lon: number;
+  lat: number;
+}
+export interface Trajectory {
+  id: number;
+  observations: Observation[];
+}
 
 export const timeUnits = 'hours since 2026-09-01 00:00:00';
 
 /** Three invented drifters with 2, 4 and 3 observations, west of the fixture coast. */
 export const sampleTrajectories: Trajectory[] = [
-  { id: 101, observations: [{ hours: 0, lon: -0.3, lat: 50.0 }, { hours: 24, lon: -0.2, lat: 50.01 }] },
-  { id: 102, observations: [{ hours: 0, lon: -0.5, lat: 49.5 }, { hours: 24, lon: -0.45, lat: 49.52 }, { hours: 48, lon: -0.4, lat: 49.55 }, { hours: 72, lon: -0.01, lat: 50.05 }] },
-  { id: 103, observations: [{ hours: 12, lon: 0.12, lat: 49.8 }, { hours: 36, lon: 0.125, lat: 49.88 }, { hours: 60, lon: 0.125, lat: 49.905 }] },
+  {
+    id: 101,
+    observations: [
+      { hours: 0, lon: -0.3, lat: 50.0 },
+      { hours: 24, lon: -0.2, lat: 50.01 },
+    ],
+  },
+  {
+    id: 102,
+    observations: [
+      { hours: 0, lon: -0.5, lat: 49.5 },
+      { hours: 24, lon: -0.45, lat: 49.52 },
+      { hours: 48, lon: -0.4, lat: 49.55 },
+      { hours: 72, lon: -0.01, lat: 50.05 },
+    ],
+  },
+  {
+    id: 103,
+    observations: [
+      { hours: 12, lon: 0.12, lat: 49.8 },
+      { hours: 36, lon: 0.125, lat: 49.88 },
+      { hours: 60, lon: 0.125, lat: 49.905 },
+    ],
+  },
 ];
 
 const coordinateAttributes = {
-  lon: [{ name: 'standard_name', value: 'longitude' }, { name: 'units', value: 'degrees_east' }],
-  lat: [{ name: 'standard_name', value: 'latitude' }, { name: 'units', value: 'degrees_north' }],
-  time: [{ name: 'standard_name', value: 'time' }, { name: 'units', value: timeUnits }, { name: 'calendar', value: 'standard' }],
+  lon: [
+    { name: 'standard_name', value: 'longitude' },
+    { name: 'units', value: 'degrees_east' },
+  ],
+  lat: [
+    { name: 'standard_name', value: 'latitude' },
+    { name: 'units', value: 'degrees_north' },
+  ],
+  time: [
+    { name: 'standard_name', value: 'time' },
+    { name: 'units', value: timeUnits },
+    { name: 'calendar', value: 'standard' },
+  ],
 };
 
 function idVariable(trajectories: Trajectory[]): Netcdf3Variable {
@@ -38,7 +76,10 @@ const global = (layout: string, spelling = 'featureType') => [
 export function contiguousSpec(trajectories: Trajectory[]): Netcdf3Spec {
   const all = trajectories.flatMap((t) => t.observations);
   return {
-    dimensions: [{ name: 'trajectory', size: trajectories.length }, { name: 'obs', size: all.length }],
+    dimensions: [
+      { name: 'trajectory', size: trajectories.length },
+      { name: 'obs', size: all.length },
+    ],
     attributes: global('contiguous ragged'),
     variables: [
       idVariable(trajectories),
@@ -54,7 +95,10 @@ export function contiguousSpec(trajectories: Trajectory[]): Netcdf3Spec {
 export function indexedSpec(trajectories: Trajectory[]): Netcdf3Spec {
   const all = trajectories.flatMap((t, k) => t.observations.map((o) => ({ ...o, k }))).sort((a, b) => a.hours - b.hours || a.k - b.k);
   return {
-    dimensions: [{ name: 'trajectory', size: trajectories.length }, { name: 'obs', size: 'unlimited' }],
+    dimensions: [
+      { name: 'trajectory', size: trajectories.length },
+      { name: 'obs', size: 'unlimited' },
+    ],
     attributes: global('indexed ragged'),
     variables: [
       idVariable(trajectories),
@@ -71,10 +115,14 @@ const fill = -999;
 /** Incomplete multidimensional array (H.4.2): (trajectory, obs) padded with _FillValue. */
 export function incompleteSpec(trajectories: Trajectory[], spelling = 'featureType'): Netcdf3Spec {
   const width = Math.max(...trajectories.map((t) => t.observations.length));
-  const grid = (pick: (o: Observation) => number) => trajectories.flatMap((t) => Array.from({ length: width }, (_, j) => (t.observations[j] ? pick(t.observations[j] as Observation) : fill)));
+  const grid = (pick: (o: Observation) => number) =>
+    trajectories.flatMap((t) => Array.from({ length: width }, (_, j) => (t.observations[j] ? pick(t.observations[j] as Observation) : fill)));
   const withFill = (attributes: { name: string; value: string }[], type: 'double' | 'float') => [...attributes, { name: '_FillValue', value: fill, type }];
   return {
-    dimensions: [{ name: 'trajectory', size: trajectories.length }, { name: 'obs', size: width }],
+    dimensions: [
+      { name: 'trajectory', size: trajectories.length },
+      { name: 'obs', size: width },
+    ],
     attributes: global('incomplete multidimensional', spelling),
     variables: [
       idVariable(trajectories),
@@ -91,13 +139,19 @@ export function incompleteSpec(trajectories: Trajectory[], spelling = 'featureTy
  */
 export function orthogonalSpec(trajectories: Trajectory[], withFeatureType = true): Netcdf3Spec {
   const times = [...new Set(trajectories.flatMap((t) => t.observations.map((o) => o.hours)))].sort((a, b) => a - b);
-  const grid = (pick: (o: Observation) => number) => trajectories.flatMap((t) => times.map((h) => {
-    const o = t.observations.find((x) => x.hours === h);
-    return o ? pick(o) : fill;
-  }));
+  const grid = (pick: (o: Observation) => number) =>
+    trajectories.flatMap((t) =>
+      times.map((h) => {
+        const o = t.observations.find((x) => x.hours === h);
+        return o ? pick(o) : fill;
+      }),
+    );
   const withFill = (attributes: { name: string; value: string }[]) => [...attributes, { name: '_FillValue', value: fill }];
   return {
-    dimensions: [{ name: 'trajectory', size: trajectories.length }, { name: 'time', size: times.length }],
+    dimensions: [
+      { name: 'trajectory', size: trajectories.length },
+      { name: 'time', size: times.length },
+    ],
     attributes: withFeatureType ? global('orthogonal multidimensional') : [{ name: 'Conventions', value: 'CF-1.8' }],
     variables: [
       idVariable(trajectories),
@@ -130,7 +184,16 @@ export async function writeNetcdf4(path: string, spec: Netcdf3Spec): Promise<voi
       });
       const dtype = v.type === 'double' ? '<d' : v.type === 'float' ? '<f' : v.type === 'int' ? '<i' : v.type === 'short' ? '<h' : '<b';
       const values = typeof v.data === 'string' ? [...v.data].map((c) => c.charCodeAt(0)) : Array.from(v.data);
-      const data = dtype === '<d' ? Float64Array.from(values) : dtype === '<f' ? Float32Array.from(values) : dtype === '<i' ? Int32Array.from(values) : dtype === '<h' ? Int16Array.from(values) : Int8Array.from(values);
+      const data =
+        dtype === '<d'
+          ? Float64Array.from(values)
+          : dtype === '<f'
+            ? Float32Array.from(values)
+            : dtype === '<i'
+              ? Int32Array.from(values)
+              : dtype === '<h'
+                ? Int16Array.from(values)
+                : Int8Array.from(values);
       const dataset = file.create_dataset({ name: v.name, data, shape, dtype });
       for (const a of v.attributes ?? []) {
         if (typeof a.value === 'string') dataset.create_attribute(a.name, a.value);

@@ -157,7 +157,9 @@ describe('truncated or corrupt NetCDF files become our validation errors', () =>
       .catch((e: unknown) => e);
     expect(error).toBeInstanceOf(InputValidationError);
     // HDF5's own error stack is cut to one reason, and is not printed (loadH5)
-    expect((error as InputValidationError).issue.message).toMatch(/^drift\/cut4\.nc row \(none\), column \(all\): not a readable NetCDF file \(HDF5: [^\n]+\); it may be truncated or corrupt$/);
+    expect((error as InputValidationError).issue.message).toMatch(
+      /^drift\/cut4\.nc row \(none\), column \(all\): not a readable NetCDF file \(HDF5: [^\n]+\); it may be truncated or corrupt$/,
+    );
   });
 
   test('through loadScenario: a truncated trajectory file is an error naming the file', async () => {
@@ -170,7 +172,7 @@ describe('truncated or corrupt NetCDF files become our validation errors', () =>
     const scenario = await loadScenario(dir);
     const issue = expectIssue(scenario.report.issues, { code: 'NetcdfUnreadable', file: 'drift/trajectories.nc', severity: 'error' });
     expect(issue.message).toMatch(/truncated or corrupt/);
-    expect(issue.message.split("\n")).toHaveLength(1);
+    expect(issue.message.split('\n')).toHaveLength(1);
     expect(scenario.report.ok).toBe(false);
   });
 });

@@ -56,7 +56,20 @@ describe('DBSCAN (Ester et al. 1996)', () => {
 
 describe('convex hull (Andrew 1979)', () => {
   test('a square with an inside point', () => {
-    expect(convexHull([[0, 0], [1, 0], [1, 1], [0, 1], [0.5, 0.5]])).toEqual([[0, 0], [1, 0], [1, 1], [0, 1]]);
+    expect(
+      convexHull([
+        [0, 0],
+        [1, 0],
+        [1, 1],
+        [0, 1],
+        [0.5, 0.5],
+      ]),
+    ).toEqual([
+      [0, 0],
+      [1, 0],
+      [1, 1],
+      [0, 1],
+    ]);
   });
 });
 
@@ -172,11 +185,13 @@ describe('positions outside every season', () => {
       { id: 'summer', label: 'Summer', months: [6, 7, 8] },
       { id: 'autumn', label: 'Autumn', months: [10, 11] },
     ];
-    const dir = scenarioCopy({ files: {
-      'scenario.json': JSON.stringify(settings),
-      'tables/beach-litter.csv': 'survey_id,segment_id,date,surveyed_length_m,items,plastic_items,area_m2\nBL-1,north-beach,2026-01-15,100,12,,\n',
-      'tables/water-microplastics.csv': 'sample_id,segment_id,date,particles_per_m3,mesh_um\nWM-1,harbour-mouth,2026-03-10,0.42,333\n',
-    } });
+    const dir = scenarioCopy({
+      files: {
+        'scenario.json': JSON.stringify(settings),
+        'tables/beach-litter.csv': 'survey_id,segment_id,date,surveyed_length_m,items,plastic_items,area_m2\nBL-1,north-beach,2026-01-15,100,12,,\n',
+        'tables/water-microplastics.csv': 'sample_id,segment_id,date,particles_per_m3,mesh_um\nWM-1,harbour-mouth,2026-03-10,0.42,333\n',
+      },
+    });
     const scenario = await loadScenario(dir);
     const issue = scenario.report.issues.find((i) => i.code === 'PositionsOutsideSeasons');
     expect(issue?.file).toBe('drift/positions.csv');
@@ -219,25 +234,33 @@ describe('segment index', () => {
       const lines = g.type === 'LineString' ? [g.coordinates] : g.type === 'MultiLineString' || g.type === 'Polygon' ? g.coordinates : [];
       return lines.flatMap((line) => line.slice(1).map((b, i) => ({ s, a: line[i] as number[], b })));
     });
-    fc.assert(fc.property(fc.double({ min: -0.1, max: 0.45, noNaN: true }), fc.double({ min: 49.85, max: 50.15, noNaN: true }), fc.double({ min: 0.2, max: 4, noNaN: true }), (lon, lat, km) => {
-      let best = Infinity;
-      let bestSegment = -1;
-      for (const e of edges) {
-        const d = pointToArcKm(lon, lat, e.a[0] ?? 0, e.a[1] ?? 0, e.b[0] ?? 0, e.b[1] ?? 0);
-        if (d < best) {
-          best = d;
-          bestSegment = e.s;
-        }
-      }
-      const found = new SegmentIndex(segments, km).nearestWithin(lon, lat, km);
-      if (best <= km) {
-        expect(found?.segment).toBe(bestSegment);
-        assertInDelta(found?.distanceKm, best, 1e-9);
-      } else {
-        expect(found).toBeNull();
-      }
-      assertInDelta(index.distanceToSegmentKm(lon, lat, bestSegment), best, 1e-9);
-    }), { numRuns: 300 });
+    fc.assert(
+      fc.property(
+        fc.double({ min: -0.1, max: 0.45, noNaN: true }),
+        fc.double({ min: 49.85, max: 50.15, noNaN: true }),
+        fc.double({ min: 0.2, max: 4, noNaN: true }),
+        (lon, lat, km) => {
+          let best = Infinity;
+          let bestSegment = -1;
+          for (const e of edges) {
+            const d = pointToArcKm(lon, lat, e.a[0] ?? 0, e.a[1] ?? 0, e.b[0] ?? 0, e.b[1] ?? 0);
+            if (d < best) {
+              best = d;
+              bestSegment = e.s;
+            }
+          }
+          const found = new SegmentIndex(segments, km).nearestWithin(lon, lat, km);
+          if (best <= km) {
+            expect(found?.segment).toBe(bestSegment);
+            assertInDelta(found?.distanceKm, best, 1e-9);
+          } else {
+            expect(found).toBeNull();
+          }
+          assertInDelta(index.distanceToSegmentKm(lon, lat, bestSegment), best, 1e-9);
+        },
+      ),
+      { numRuns: 300 },
+    );
   });
 });
 

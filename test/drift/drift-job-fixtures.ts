@@ -24,13 +24,55 @@ const toRadians = Math.PI / 180;
 
 /** Segments: [id, coordinates]; b/a and c/d share a vertex (b listed before a, c before d). */
 const segmentLines: [string, [number, number][]][] = [
-  ['fold-b', [[10.0, 40.1], [10.05, 40.15]]],
-  ['fold-a', [[10.0, 40.0], [10.0, 40.1]]],
-  ['bend-c', [[10.3, 40.0], [10.3, 40.1]]],
-  ['bend-d', [[10.3, 40.1], [10.35, 40.15]]],
-  ['twin-west', [[11.0, 40.0], [11.0, 40.1]]],
-  ['twin-east', [[11.02, 40.0], [11.02, 40.1]]],
-  ['edge-line', [[12.0, 40.0], [12.0, 40.1]]],
+  [
+    'fold-b',
+    [
+      [10.0, 40.1],
+      [10.05, 40.15],
+    ],
+  ],
+  [
+    'fold-a',
+    [
+      [10.0, 40.0],
+      [10.0, 40.1],
+    ],
+  ],
+  [
+    'bend-c',
+    [
+      [10.3, 40.0],
+      [10.3, 40.1],
+    ],
+  ],
+  [
+    'bend-d',
+    [
+      [10.3, 40.1],
+      [10.35, 40.15],
+    ],
+  ],
+  [
+    'twin-west',
+    [
+      [11.0, 40.0],
+      [11.0, 40.1],
+    ],
+  ],
+  [
+    'twin-east',
+    [
+      [11.02, 40.0],
+      [11.02, 40.1],
+    ],
+  ],
+  [
+    'edge-line',
+    [
+      [12.0, 40.0],
+      [12.0, 40.1],
+    ],
+  ],
 ];
 
 /** Longitude offset east of a meridian arc at which the great-circle distance is `km` (lat inside the arc). */
@@ -142,7 +184,13 @@ export function writeCsvScenario(dir: string): void {
 /** Trajectories around the coast across 2025-12-01 00:00 (hours since 2025-09-01: 2184). */
 function trajectories(seed: number): Trajectory[] {
   const random = createSeededRandom(seed);
-  const result: Trajectory[] = decisionPoints.map((p, k) => ({ id: 500 + k, observations: [{ hours: 2180, lon: p.lon, lat: p.lat }, { hours: 2190, lon: p.lon, lat: p.lat }] }));
+  const result: Trajectory[] = decisionPoints.map((p, k) => ({
+    id: 500 + k,
+    observations: [
+      { hours: 2180, lon: p.lon, lat: p.lat },
+      { hours: 2190, lon: p.lon, lat: p.lat },
+    ],
+  }));
   for (let t = 0; t < 12; t++) {
     let lon = 9.95 + random.uniform() * 2.1;
     let lat = 39.98 + random.uniform() * 0.2;
@@ -182,7 +230,10 @@ export async function writeNetcdfScenario(dir: string): Promise<void> {
   };
   for (const [name, spec] of Object.entries(specs)) writeFileSync(join(dir, 'drift', name), writeNetcdf3(moved(spec)));
   await writeNetcdf4(join(dir, 'drift', 'contiguous-4.nc'), moved(contiguousSpec(trajectories(5))));
-  writeScenario(dir, [...Object.keys(specs), 'contiguous-4.nc'].map((name) => ({ name: name.replace('.nc', ''), role: 'drift-trajectories', path: `drift/${name}` })));
+  writeScenario(
+    dir,
+    [...Object.keys(specs), 'contiguous-4.nc'].map((name) => ({ name: name.replace('.nc', ''), role: 'drift-trajectories', path: `drift/${name}` })),
+  );
 }
 
 /** Bad trajectory files: cut short, wrong time units, positions outside the valid range. */
@@ -197,5 +248,8 @@ export function writeBadScenario(dir: string): void {
   if (bad?.[2]) bad[2].lat = 95.5;
   if (bad?.[4]) bad[4].lon = 400;
   writeFileSync(join(dir, 'drift', 'outside.nc'), writeNetcdf3(moved(indexedSpec(outside))));
-  writeScenario(dir, ['cut-short.nc', 'wrong-units.nc', 'outside.nc'].map((name) => ({ name: name.replace('.nc', ''), role: 'drift-trajectories', path: `drift/${name}` })));
+  writeScenario(
+    dir,
+    ['cut-short.nc', 'wrong-units.nc', 'outside.nc'].map((name) => ({ name: name.replace('.nc', ''), role: 'drift-trajectories', path: `drift/${name}` })),
+  );
 }

@@ -27,7 +27,9 @@ const demo = join(root, 'content/demo');
 const modules = ['numpy', 'pandas', 'dask', 'distributed', 'netCDF4', 'shapely'];
 
 function missingModules(): string[] {
-  const probe = spawnSync(python, ['-c', `import importlib.util, sys\nprint(' '.join(m for m in ${JSON.stringify(modules)} if importlib.util.find_spec(m) is None))`], { encoding: 'utf8' });
+  const probe = spawnSync(python, ['-c', `import importlib.util, sys\nprint(' '.join(m for m in ${JSON.stringify(modules)} if importlib.util.find_spec(m) is None))`], {
+    encoding: 'utf8',
+  });
   if (probe.error || probe.status !== 0) return [python];
   return probe.stdout.trim().split(/\s+/).filter(Boolean);
 }
@@ -35,11 +37,22 @@ function missingModules(): string[] {
 const missing = missingModules();
 const underCi = Boolean(process.env['CI']) && process.env['CI'] !== 'false';
 if (missing.length > 0 && !underCi) {
-  console.warn(`drift job tests skipped: ${missing.join(', ')} missing for ${python} (apt-get install python3-distributed python3-dask python3-netcdf4 python3-shapely python3-pandas)`);
+  console.warn(
+    `drift job tests skipped: ${missing.join(', ')} missing for ${python} (apt-get install python3-distributed python3-dask python3-netcdf4 python3-shapely python3-pandas)`,
+  );
 }
 
-interface JobIssue { code: string; severity: string; file: string; row: number | null; message: string }
-interface JobRun { issues?: JobIssue[]; error?: string }
+interface JobIssue {
+  code: string;
+  severity: string;
+  file: string;
+  row: number | null;
+  message: string;
+}
+interface JobRun {
+  issues?: JobIssue[];
+  error?: string;
+}
 
 /** Runs the job on several scenarios through one LocalCluster of 2 worker processes. */
 function runJobs(pairs: [string, string][]): { workers: number; workerPids: number[]; clientPid: number; listening: string[]; runs: JobRun[] } {
@@ -73,7 +86,11 @@ print(json.dumps({"workers": len(workers), "workerPids": pids, "clientPid": os.g
 }
 
 function csvRows(path: string): string[][] {
-  return readFileSync(path, 'utf8').trim().split('\n').slice(1).map((line) => line.split(','));
+  return readFileSync(path, 'utf8')
+    .trim()
+    .split('\n')
+    .slice(1)
+    .map((line) => line.split(','));
 }
 
 function compareWithBuiltin(reference: BuiltinTally, out: string): void {
@@ -116,10 +133,20 @@ describe.skipIf(missing.length > 0 && !underCi)('drift job on a 2-worker LocalCl
     writeCsvScenario(csvScenario);
     await writeNetcdfScenario(netcdfScenario);
     writeBadScenario(badScenario);
-    for (const [name, dir] of [['demo', demo], ['csv', csvScenario], ['netcdf', netcdfScenario], ['bad', badScenario]] as const) {
+    for (const [name, dir] of [
+      ['demo', demo],
+      ['csv', csvScenario],
+      ['netcdf', netcdfScenario],
+      ['bad', badScenario],
+    ] as const) {
       reference[name] = await builtinTally(dir);
     }
-    result = runJobs([[demo, join(work, 'out-demo')], [csvScenario, join(work, 'out-csv')], [netcdfScenario, join(work, 'out-netcdf')], [badScenario, join(work, 'out-bad')]]);
+    result = runJobs([
+      [demo, join(work, 'out-demo')],
+      [csvScenario, join(work, 'out-csv')],
+      [netcdfScenario, join(work, 'out-netcdf')],
+      [badScenario, join(work, 'out-bad')],
+    ]);
   }, 900_000);
 
   afterAll(() => rmSync(work, { recursive: true, force: true }));
@@ -195,10 +222,14 @@ print(json.dumps({"arc": point_to_arc_km(*d.T).tolist(), "hav": haversine_km(d[:
     expect(cut?.severity).toBe('error');
     expect(cut?.message).toMatch(/^drift\/cut-short\.nc row \(none\), column \(all\): not a readable NetCDF file \(.+\); it may be truncated or corrupt$/);
     expect(builtin.some((m) => m.startsWith('drift/cut-short.nc row (none), column (all): not a readable NetCDF file ('))).toBe(true);
-    expect(job.find((i) => i.file === 'drift/wrong-units.nc')?.message).toBe('drift/wrong-units.nc row (none), column time: time unit "fortnights" is not seconds, minutes, hours or days');
+    expect(job.find((i) => i.file === 'drift/wrong-units.nc')?.message).toBe(
+      'drift/wrong-units.nc row (none), column time: time unit "fortnights" is not seconds, minutes, hours or days',
+    );
     const outside = job.filter((i) => i.file === 'drift/outside.nc').map((i) => i.message);
     expect(outside).toHaveLength(2);
-    expect(outside.some((m) => /^drift\/outside\.nc row \d+ \(trajectory 10, observation 2\), column lat: "95\.5" is not allowed; expected a latitude −90\.\.90$/.test(m))).toBe(true);
+    expect(outside.some((m) => /^drift\/outside\.nc row \d+ \(trajectory 10, observation 2\), column lat: "95\.5" is not allowed; expected a latitude −90\.\.90$/.test(m))).toBe(
+      true,
+    );
     for (const message of job.map((i) => i.message)) {
       if (!message.includes('cut-short')) expect(builtin).toContain(message);
     }
@@ -207,7 +238,11 @@ print(json.dumps({"arc": point_to_arc_km(*d.T).tolist(), "hav": haversine_km(d[:
   test('a build from the job output gives the same bulletins as the all-in-one build of the demo', () => {
     const sites = join(work, 'sites');
     const build = (scenario: string, out: string): void => {
-      const child = spawnSync(process.execPath, [join(root, 'bin/wrackline.mjs'), 'build', '--scenario', scenario, '--out', out, '--no-cache', '--quiet'], { encoding: 'utf8', cwd: root, maxBuffer: 1 << 24 });
+      const child = spawnSync(process.execPath, [join(root, 'bin/wrackline.mjs'), 'build', '--scenario', scenario, '--out', out, '--no-cache', '--quiet'], {
+        encoding: 'utf8',
+        cwd: root,
+        maxBuffer: 1 << 24,
+      });
       expect(child.status, child.stderr).toBe(0);
     };
     build(demo, join(sites, 'all-in-one'));

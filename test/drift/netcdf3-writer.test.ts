@@ -21,7 +21,13 @@ const spec = {
     { name: 'scale', value: [0.5, 1.5] },
   ],
   variables: [
-    { name: 'lon', type: 'double' as const, dimensions: ['trajectory', 'n'], data: Array.from({ length: 15 }, (_, i) => i + 0.5), attributes: [{ name: 'units', value: 'degrees_east' }] },
+    {
+      name: 'lon',
+      type: 'double' as const,
+      dimensions: ['trajectory', 'n'],
+      data: Array.from({ length: 15 }, (_, i) => i + 0.5),
+      attributes: [{ name: 'units', value: 'degrees_east' }],
+    },
     { name: 'label', type: 'char' as const, dimensions: ['n'], data: 'abc' },
     { name: 'flag', type: 'byte' as const, dimensions: ['n'], data: [1, -2, 3, 4, 5] },
     { name: 'count', type: 'short' as const, dimensions: ['n'], data: [1, -2, 3, 7, 9] },
@@ -52,7 +58,12 @@ describe('writeNetcdf3', () => {
     // netcdfjs returns the 4-byte padding of short variables too: only the first 5 are data.
     expect(reader.getDataVariable('count').slice(0, 5)).toEqual([1, -2, 3, 7, 9]);
     expect(reader.getDataVariable('time')).toEqual([1.5, 2.5, 3.5, 4.5]);
-    expect(reader.getDataVariable('step')).toEqual([[1, 2, 3], [4, 5, 6], [7, 8, 9], [10, 11, 12]]);
+    expect(reader.getDataVariable('step')).toEqual([
+      [1, 2, 3],
+      [4, 5, 6],
+      [7, 8, 9],
+      [10, 11, 12],
+    ]);
   });
 
   test.skipIf(!existsSync('/usr/bin/python3'))('is read identically by SciPy netcdf_file', () => {
@@ -75,12 +86,21 @@ describe('writeNetcdf3', () => {
     expect(out).toEqual({
       dims: { time: null, trajectory: 3, n: 5 },
       featureType: 'trajectory',
-      lon: [[0.5, 1.5, 2.5, 3.5, 4.5], [5.5, 6.5, 7.5, 8.5, 9.5], [10.5, 11.5, 12.5, 13.5, 14.5]],
+      lon: [
+        [0.5, 1.5, 2.5, 3.5, 4.5],
+        [5.5, 6.5, 7.5, 8.5, 9.5],
+        [10.5, 11.5, 12.5, 13.5, 14.5],
+      ],
       flag: [1, -2, 3, 4, 5],
       count: [1, -2, 3, 7, 9],
       label: 'abc',
       time: [1.5, 2.5, 3.5, 4.5],
-      step: [[1, 2, 3], [4, 5, 6], [7, 8, 9], [10, 11, 12]],
+      step: [
+        [1, 2, 3],
+        [4, 5, 6],
+        [7, 8, 9],
+        [10, 11, 12],
+      ],
     });
   });
 

@@ -63,10 +63,15 @@ describe('drift tables aggregated upstream', () => {
 describe('nearest segment when two are exactly as near', () => {
   // Two segments sharing the vertex (10, 40.1); the point (9.98, 40.105) is beyond the end of one
   // and before the start of the other, so both distances are the distance to the shared vertex.
-  const line = (id: string, coordinates: [number, number][]): Segment =>
-    ({ id, geometry: { type: 'LineString', coordinates } }) as unknown as Segment;
-  const north = line('north', [[10.0, 40.0], [10.0, 40.1]]);
-  const slant = line('slant', [[10.0, 40.1], [10.05, 40.15]]);
+  const line = (id: string, coordinates: [number, number][]): Segment => ({ id, geometry: { type: 'LineString', coordinates } }) as unknown as Segment;
+  const north = line('north', [
+    [10.0, 40.0],
+    [10.0, 40.1],
+  ]);
+  const slant = line('slant', [
+    [10.0, 40.1],
+    [10.05, 40.15],
+  ]);
 
   test('the segment listed first wins, in either order', () => {
     expect(new SegmentIndex([north, slant], 2).nearestWithin(9.98, 40.105, 2)?.segment).toBe(0);

@@ -38,15 +38,43 @@ export const secret = 'OUTSIDE-SECRET-7f3a9c';
 export type FuzzInput = { kind: 'bytes'; content: Uint8Array; gzip: boolean } | { kind: 'escape'; folder: boolean };
 
 const hostileText = fc.constantFrom(
-  '', '"', '""', '"unclosed', '\u0000', '\u202eevil', '\u2066x\u2069', '\ufffd', '\ufeff', '\r', '\r\n', ',', ';', '\t',
-  '<script>alert(1)</script>', '__proto__', 'constructor', '../../etc/passwd', 'NaN', '-Infinity', '1e309', '-0',
-  '1826-01-01T00:00:00Z', '2999-12-31T00:00:00Z', '2026-02-30', '2026-13-01', '3.14159', '-180.0001', '90.5', 'x'.repeat(300),
+  '',
+  '"',
+  '""',
+  '"unclosed',
+  '\u0000',
+  '\u202eevil',
+  '\u2066x\u2069',
+  '\ufffd',
+  '\ufeff',
+  '\r',
+  '\r\n',
+  ',',
+  ';',
+  '\t',
+  '<script>alert(1)</script>',
+  '__proto__',
+  'constructor',
+  '../../etc/passwd',
+  'NaN',
+  '-Infinity',
+  '1e309',
+  '-0',
+  '1826-01-01T00:00:00Z',
+  '2999-12-31T00:00:00Z',
+  '2026-02-30',
+  '2026-13-01',
+  '3.14159',
+  '-180.0001',
+  '90.5',
+  'x'.repeat(300),
 );
 const number = fc.oneof(fc.double().map(String), fc.integer().map(String), fc.constantFrom('0', '100', '2026-01-15', '<0.5', '12,5'));
 const cell = fc.oneof(hostileText, fc.string({ maxLength: 10 }), number, fc.constantFrom('north-beach', 'harbour-mouth', 'seal-island', 'BL-1', 'drifting', 'ashore'));
 function rowsOf(header: string): fc.Arbitrary<string> {
   const width = header.split(',').length;
-  return fc.tuple(fc.array(fc.array(cell, { minLength: Math.max(0, width - 2), maxLength: width + 2 }), { maxLength: 12 }), fc.constantFrom('\n', '\r\n'))
+  return fc
+    .tuple(fc.array(fc.array(cell, { minLength: Math.max(0, width - 2), maxLength: width + 2 }), { maxLength: 12 }), fc.constantFrom('\n', '\r\n'))
     .map(([rows, end]) => [header, ...rows.map((cells) => cells.join(','))].join(end));
 }
 
@@ -95,13 +123,24 @@ function jsonDocuments(original: string): fc.Arbitrary<Uint8Array> {
       const key = path[path.length - 1] as string;
       // A copy: fast-check hands out the same constant objects again, which would make cycles.
       const fresh: unknown = structuredClone(value);
-      if (asForbidden && !Array.isArray(parent)) Object.defineProperty(parent as object, fc.sample(fc.constantFrom('__proto__', 'constructor', 'prototype'), 1)[0] as string, { value: fresh, enumerable: true, configurable: true, writable: true });
+      if (asForbidden && !Array.isArray(parent))
+        Object.defineProperty(parent as object, fc.sample(fc.constantFrom('__proto__', 'constructor', 'prototype'), 1)[0] as string, {
+          value: fresh,
+          enumerable: true,
+          configurable: true,
+          writable: true,
+        });
       else (parent as { [key: string]: unknown })[key] = fresh;
     }
     return text(JSON.stringify(copy));
   });
   const deep = fc.integer({ min: 50, max: 5000 }).map((n) => text(`{"a":${'['.repeat(n)}${']'.repeat(n)}}`));
-  return fc.oneof({ weight: 5, arbitrary: edited }, { weight: 2, arbitrary: fc.jsonValue({ maxDepth: 4 }).map((v) => text(JSON.stringify(v) ?? 'null')) }, { weight: 1, arbitrary: deep }, { weight: 2, arbitrary: mutated(text(original)) });
+  return fc.oneof(
+    { weight: 5, arbitrary: edited },
+    { weight: 2, arbitrary: fc.jsonValue({ maxDepth: 4 }).map((v) => text(JSON.stringify(v) ?? 'null')) },
+    { weight: 1, arbitrary: deep },
+    { weight: 2, arbitrary: mutated(text(original)) },
+  );
 }
 
 export function inputsFor(kind: ReaderKind): fc.Arbitrary<FuzzInput> {
@@ -113,7 +152,12 @@ export function inputsFor(kind: ReaderKind): fc.Arbitrary<FuzzInput> {
       { weight: 4, arbitrary: rowsOf(header).map(text) },
       { weight: 3, arbitrary: mutated(text(original)) },
       { weight: 1, arbitrary: fc.uint8Array({ maxLength: 300 }) },
-      { weight: 1, arbitrary: fc.tuple(fc.constantFrom(header, `${header},${header.split(',')[1] ?? 'x'}`), fc.uint8Array({ maxLength: 120 })).map(([h, b]) => new Uint8Array(Buffer.concat([Buffer.from(`${h}\n`), Buffer.from(b)]))) },
+      {
+        weight: 1,
+        arbitrary: fc
+          .tuple(fc.constantFrom(header, `${header},${header.split(',')[1] ?? 'x'}`), fc.uint8Array({ maxLength: 120 }))
+          .map(([h, b]) => new Uint8Array(Buffer.concat([Buffer.from(`${h}\n`), Buffer.from(b)]))),
+      },
     );
   } else {
     body = jsonDocuments(original);

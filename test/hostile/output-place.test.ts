@@ -83,25 +83,36 @@ describe('--out never takes over or hangs', () => {
     expect(run.seconds).toBeLessThan(20);
   }, 60_000);
 
-  test.skipIf(!mountable)('--out on a read-only file system ends with a plain line (needs mount)', async () => {
-    const place = tmpfs('size=4m,ro');
-    expectPlainRefusal(await build(path.join(place, 'site')), /read-only file system \(EROFS\)/);
-  }, 60_000);
+  test.skipIf(!mountable)(
+    '--out on a read-only file system ends with a plain line (needs mount)',
+    async () => {
+      const place = tmpfs('size=4m,ro');
+      expectPlainRefusal(await build(path.join(place, 'site')), /read-only file system \(EROFS\)/);
+    },
+    60_000,
+  );
 
-  test.skipIf(!mountable)('--out on a full disk ends with a plain line and nothing left behind (needs mount)', async () => {
-    const place = tmpfs('size=4m');
-    try {
-      execFileSync('dd', ['if=/dev/zero', `of=${path.join(place, 'filler')}`, 'bs=1M', 'count=8'], { stdio: 'ignore' });
-    } catch {
-      // dd stops when the disk is full, which is the point
-    }
-    const run = await build(path.join(place, 'site'));
-    expectPlainRefusal(run, /KB free; a build needs at least/);
-    expect(existsSync(path.join(place, 'site.wrackline'))).toBe(false);
-  }, 60_000);
+  test.skipIf(!mountable)(
+    '--out on a full disk ends with a plain line and nothing left behind (needs mount)',
+    async () => {
+      const place = tmpfs('size=4m');
+      try {
+        execFileSync('dd', ['if=/dev/zero', `of=${path.join(place, 'filler')}`, 'bs=1M', 'count=8'], { stdio: 'ignore' });
+      } catch {
+        // dd stops when the disk is full, which is the point
+      }
+      const run = await build(path.join(place, 'site'));
+      expectPlainRefusal(run, /KB free; a build needs at least/);
+      expect(existsSync(path.join(place, 'site.wrackline'))).toBe(false);
+    },
+    60_000,
+  );
 
   test('a disk that fills up during the build is reported in plain words, Astro output included', () => {
-    const direct = Object.assign(new Error("ENOSPC: no space left on device, write '/srv/site.wrackline/work-1/x.json'"), { code: 'ENOSPC', path: '/srv/site.wrackline/work-1/x.json' });
+    const direct = Object.assign(new Error("ENOSPC: no space left on device, write '/srv/site.wrackline/work-1/x.json'"), {
+      code: 'ENOSPC',
+      path: '/srv/site.wrackline/work-1/x.json',
+    });
     const line = plainWriteFailure(direct, '/srv/site');
     expect(line).toContain('cannot write /srv/site.wrackline/work-1/x.json: the disk is full (ENOSPC)');
     expect(line?.split('\n')).toHaveLength(2);

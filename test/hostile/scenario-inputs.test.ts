@@ -63,7 +63,9 @@ describe('escapes: nothing is read outside the scenario folder', () => {
 
   test('settings with a __proto__ key are refused and nothing is polluted', async () => {
     const settings = JSON.parse(readFileSync(join(baseScenario, 'scenario.json'), 'utf8')) as { [key: string]: unknown };
-    const text = JSON.stringify(settings).replace('"invented":true', '"invented":true,"__proto__":{"polluted":"yes"},"drift":{"constructor":{"prototype":{"polluted":"yes"}}}').replace(/,"drift":\{"arrivalDistanceKm[^}]*\}/, '');
+    const text = JSON.stringify(settings)
+      .replace('"invented":true', '"invented":true,"__proto__":{"polluted":"yes"},"drift":{"constructor":{"prototype":{"polluted":"yes"}}}')
+      .replace(/,"drift":\{"arrivalDistanceKm[^}]*\}/, '');
     const dir = scenarioCopy({ files: { 'scenario.json': text } });
     const scenario = await loadScenario(dir);
     const issue = expectIssue(scenario.report.issues, { code: 'KeyForbidden', file: 'scenario.json', column: '$.__proto__', severity: 'error' });
@@ -78,8 +80,13 @@ describe('escapes: nothing is read outside the scenario folder', () => {
     const segments = readFileSync(join(baseScenario, 'segments.geojson'), 'utf8').replace('"place": "Invented Town"', '"place": "Invented Town", "__proto__": {"admin": true}');
     const scenario = await loadScenario(scenarioCopy({ files: { 'segments.geojson': segments } }));
     expectIssue(scenario.report.issues, { code: 'KeyForbidden', file: 'segments.geojson', severity: 'error' });
-    const descriptor = readFileSync(join(baseScenario, 'datapackage.json'), 'utf8').replace('"profile": "data-package",', '"profile": "data-package", "__proto__": {"resources": []},');
-    await expect(loadScenario(scenarioCopy({ files: { 'datapackage.json': descriptor } }))).rejects.toThrow(/datapackage\.json, at \$\.__proto__: the keys __proto__, constructor and prototype are not allowed/);
+    const descriptor = readFileSync(join(baseScenario, 'datapackage.json'), 'utf8').replace(
+      '"profile": "data-package",',
+      '"profile": "data-package", "__proto__": {"resources": []},',
+    );
+    await expect(loadScenario(scenarioCopy({ files: { 'datapackage.json': descriptor } }))).rejects.toThrow(
+      /datapackage\.json, at \$\.__proto__: the keys __proto__, constructor and prototype are not allowed/,
+    );
   });
 
   test('a right-to-left override in a segment name is flagged at check', async () => {
@@ -108,7 +115,11 @@ describe('escapes: nothing is read outside the scenario folder', () => {
 
 describe('losses: nothing disappears without a word', () => {
   test('invalid UTF-8 in a cell is named at its row and column', async () => {
-    const bytes = Buffer.concat([Buffer.from(`${beachHeader}\nBL-1,north-beach,2026-01-15,100,25,,\nBL-`), Buffer.from([0xff, 0xfe]), Buffer.from(',north-beach,2026-01-16,100,25,,\n')]);
+    const bytes = Buffer.concat([
+      Buffer.from(`${beachHeader}\nBL-1,north-beach,2026-01-15,100,25,,\nBL-`),
+      Buffer.from([0xff, 0xfe]),
+      Buffer.from(',north-beach,2026-01-16,100,25,,\n'),
+    ]);
     const scenario = await loadScenario(scenarioCopy({ files: { [beach]: bytes } }));
     const issue = expectIssue(scenario.report.issues, { code: 'InvalidUtf8', file: beach, row: 3, column: 'survey_id', excluded: true });
     expect(issue.severity).toBe('warning');
@@ -163,7 +174,11 @@ describe('crashes and hangs: bounded reading', () => {
   test('a gzip bomb stops at the expansion bound with a clear error', async () => {
     const body = Buffer.from(`${'A'.repeat(256 * 1024 - 1)}\n`.repeat(400));
     const bomb = gzipSync(Buffer.concat([Buffer.from(`${beachHeader}\n`), body]), { level: 9 });
-    const dir = scenarioCopy({ descriptor: (d) => { resourceNamed(d, 'beach-litter')['path'] = 'tables/beach-litter.csv.gz'; } });
+    const dir = scenarioCopy({
+      descriptor: (d) => {
+        resourceNamed(d, 'beach-litter')['path'] = 'tables/beach-litter.csv.gz';
+      },
+    });
     writeFileSync(join(dir, 'tables/beach-litter.csv.gz'), bomb);
     const before = process.memoryUsage().rss;
     const scenario = await loadScenario(dir);
@@ -211,7 +226,7 @@ describe('losses: drift output that cannot be this scenario is named, not kept',
     const original = readFileSync(join(baseScenario, positions), 'utf8').trim().split('\n').slice(1);
     const radians = original.map((line) => {
       const [particle, time, lon, lat, status] = line.split(',');
-      return [particle, time, (Number(lon) * Math.PI / 180).toFixed(6), (Number(lat) * Math.PI / 180).toFixed(6), status].join(',');
+      return [particle, time, ((Number(lon) * Math.PI) / 180).toFixed(6), ((Number(lat) * Math.PI) / 180).toFixed(6), status].join(',');
     });
     const scenario = await loadScenario(scenarioCopy({ files: { [positions]: `${[header, ...radians].join('\n')}\n` } }));
     const issue = expectIssue(scenario.report.issues, { code: 'DriftFarFromCoast', file: positions, severity: 'error' });
@@ -222,12 +237,18 @@ describe('losses: drift output that cannot be this scenario is named, not kept',
   test('a trajectory file with longitude units in radians is refused (CF units attribute)', async () => {
     const spec = contiguousSpec(sampleTrajectories);
     for (const variable of spec.variables) {
-      if (variable.name === 'lon') variable.attributes = [{ name: 'standard_name', value: 'longitude' }, { name: 'units', value: 'radians' }];
+      if (variable.name === 'lon')
+        variable.attributes = [
+          { name: 'standard_name', value: 'longitude' },
+          { name: 'units', value: 'radians' },
+        ];
     }
-    const dir = scenarioCopy({ descriptor: (d) => {
-      d.resources = d.resources.filter((r) => r['role'] !== 'drift-positions');
-      d.resources.push({ name: 'trajectories', role: 'drift-trajectories', path: 'drift/run.nc', format: 'netcdf' });
-    } });
+    const dir = scenarioCopy({
+      descriptor: (d) => {
+        d.resources = d.resources.filter((r) => r['role'] !== 'drift-positions');
+        d.resources.push({ name: 'trajectories', role: 'drift-trajectories', path: 'drift/run.nc', format: 'netcdf' });
+      },
+    });
     writeFileSync(join(dir, 'drift/run.nc'), writeNetcdf3(spec));
     const scenario = await loadScenario(dir);
     const issue = expectIssue(scenario.report.issues, { code: 'NetcdfNotTrajectory', file: 'drift/run.nc', severity: 'error' });
@@ -238,13 +259,19 @@ describe('losses: drift output that cannot be this scenario is named, not kept',
 describe('crashes and hangs: drift positions are bounded too', () => {
   const positions = 'drift/positions.csv';
   test('a drift positions line of 10 MB with no newline stops at the line bound', async () => {
-    const scenario = await loadScenario(scenarioCopy({ files: { [positions]: `particle,time,lon,lat,status\n1,2026-09-10T00:00:00Z,-0.2,50.05,drifting\n${'9'.repeat(10 * 1024 * 1024)}` } }));
+    const scenario = await loadScenario(
+      scenarioCopy({ files: { [positions]: `particle,time,lon,lat,status\n1,2026-09-10T00:00:00Z,-0.2,50.05,drifting\n${'9'.repeat(10 * 1024 * 1024)}` } }),
+    );
     expectIssue(scenario.report.issues, { code: 'LineTooLong', file: positions, row: 3, severity: 'error' });
   }, 60_000);
 
   test('a gzip bomb as drift positions stops at the expansion bound', async () => {
     const bomb = gzipSync(Buffer.from(`particle,time,lon,lat,status\n${`${'1'.repeat(256 * 1024 - 1)}\n`.repeat(400)}`), { level: 9 });
-    const dir = scenarioCopy({ descriptor: (d) => { resourceNamed(d, 'drift-positions')['path'] = 'drift/positions.csv.gz'; } });
+    const dir = scenarioCopy({
+      descriptor: (d) => {
+        resourceNamed(d, 'drift-positions')['path'] = 'drift/positions.csv.gz';
+      },
+    });
     writeFileSync(join(dir, 'drift/positions.csv.gz'), bomb);
     const issue = expectIssue((await loadScenario(dir)).report.issues, { code: 'InputTooLarge', file: 'drift/positions.csv.gz', severity: 'error' });
     expect(issue.message).toMatch(/expands more than 200 times/);

@@ -12,7 +12,11 @@ import { denseCoast, denseLand } from './dense-coast.ts';
 
 describe('dense test coast', () => {
   const segments = denseCoast();
-  const places = [{ name: 'Northport', lon: 8.62, lat: 64.2 }, { name: 'Skerry Sound', lon: 8.3, lat: 63.35 }, { name: 'Southvik', lon: 8.7, lat: 61.9 }];
+  const places = [
+    { name: 'Northport', lon: 8.62, lat: 64.2 },
+    { name: 'Skerry Sound', lon: 8.3, lat: 63.35 },
+    { name: 'Southvik', lon: 8.7, lat: 61.9 },
+  ];
 
   it('is what it says: 60 segments along about 300 km', () => {
     expect(segments).toHaveLength(60);
@@ -24,7 +28,15 @@ describe('dense test coast', () => {
 
   for (const width of [560, 340]) {
     it(`places every badge and place name without overlap at ${width} px`, async () => {
-      const { svg, layout } = renderMapWithLayout({ idPrefix: 'dense', title: 'Dense coast', description: 'test', segments: prepareSegments(segments), land: prepareLand(denseLand()), places, width });
+      const { svg, layout } = renderMapWithLayout({
+        idPrefix: 'dense',
+        title: 'Dense coast',
+        description: 'test',
+        segments: prepareSegments(segments),
+        land: prepareLand(denseLand()),
+        places,
+        width,
+      });
       const badges = layout.labels.filter((l) => l.id.startsWith('segment:'));
       expect(layout.left).toEqual([]);
       expect(badges).toHaveLength(60);
@@ -41,7 +53,11 @@ describe('dense test coast', () => {
     const { svg, layout } = renderMapWithLayout({ idPrefix: 'dense', title: 'Dense coast', description: 'test', segments: prepared, width: 560 });
     // the drawn lines, read back from the SVG paths of the segments (M/L commands of d3-geo)
     const lines = [...svg.matchAll(/<path d="(M[^"]+)" fill="none" stroke="#(?!fff)[0-9a-f]{6}" stroke-width="[4-7]"/g)].flatMap((m) =>
-      m[1]!.split('M').filter(Boolean).map((part) => part.split('L').map((xy) => xy.split(',').map(Number) as [number, number])));
+      m[1]!
+        .split('M')
+        .filter(Boolean)
+        .map((part) => part.split('L').map((xy) => xy.split(',').map(Number) as [number, number])),
+    );
     expect(lines.length).toBeGreaterThanOrEqual(60);
     const index = new LineIndex(lines);
     for (const label of layout.labels) expect(index.hits(label.box)).toBe(false);
@@ -51,11 +67,21 @@ describe('dense test coast', () => {
 describe('area badges', () => {
   it('each area badge links to its page, and its accessible name begins with the number shown (WCAG 2.1 SC 2.5.3)', () => {
     const segments = denseCoast();
-    const areas = [0, 1, 2].map((k) => ({ id: `area-${k + 1}`, number: k + 1, name: `Reach ${String.fromCharCode(65 + k)}`, level: 'marked' as const, levelLabel: 'Marked', segmentIds: segments.slice(k * 20, (k + 1) * 20).map((s) => s.id), href: `/areas/area-${k + 1}/` }));
+    const areas = [0, 1, 2].map((k) => ({
+      id: `area-${k + 1}`,
+      number: k + 1,
+      name: `Reach ${String.fromCharCode(65 + k)}`,
+      level: 'marked' as const,
+      levelLabel: 'Marked',
+      segmentIds: segments.slice(k * 20, (k + 1) * 20).map((s) => s.id),
+      href: `/areas/area-${k + 1}/`,
+    }));
     const { svg, layout } = renderMapWithLayout({ idPrefix: 'areas', title: 't', description: 'd', segments: prepareSegments(segments), areas, width: 560 });
     expect(layout.labels.filter((l) => l.id.startsWith('area:'))).toHaveLength(3);
     for (const area of areas) {
-      const link = new RegExp(`<a href="${area.href}" tabindex="-1" aria-label="${area.number}\\. ${area.name}: highest level Marked, 3 of 4"><g class="badge">.*?>${area.number}</text></g></a>`);
+      const link = new RegExp(
+        `<a href="${area.href}" tabindex="-1" aria-label="${area.number}\\. ${area.name}: highest level Marked, 3 of 4"><g class="badge">.*?>${area.number}</text></g></a>`,
+      );
       expect(svg).toMatch(link);
     }
   });

@@ -41,14 +41,29 @@ export function denseCoast(): MapSegment[] {
       const y = length / 2 - ((i + k / 24) * length) / mainland;
       coords.push(toLonLat(shoreX(y), y));
     }
-    segments.push({ id: `shore-${i + 1}`, name: `Shore ${i + 1}`, level: levelAt(i), levelLabel: levelLabels[levelAt(i)], geometry: { type: 'LineString', coordinates: coords } as Geometry });
+    segments.push({
+      id: `shore-${i + 1}`,
+      name: `Shore ${i + 1}`,
+      level: levelAt(i),
+      levelLabel: levelLabels[levelAt(i)],
+      geometry: { type: 'LineString', coordinates: coords } as Geometry,
+    });
   }
-  const islands = [{ cx: -14, cy: 40, r: 7 }, { cx: -12, cy: -60, r: 6 }];
+  const islands = [
+    { cx: -14, cy: 40, r: 7 },
+    { cx: -12, cy: -60, r: 6 },
+  ];
   let n = mainland;
   for (const [j, island] of islands.entries()) {
     for (let part = 0; part < 5; part++) {
       const level = levelAt(n);
-      segments.push({ id: `island-${j + 1}-${part + 1}`, name: `Island ${j + 1} shore ${part + 1}`, level, levelLabel: levelLabels[level], geometry: { type: 'LineString', coordinates: islandRing(island.cx, island.cy, island.r, part * 72, (part + 1) * 72) } as Geometry });
+      segments.push({
+        id: `island-${j + 1}-${part + 1}`,
+        name: `Island ${j + 1} shore ${part + 1}`,
+        level,
+        levelLabel: levelLabels[level],
+        geometry: { type: 'LineString', coordinates: islandRing(island.cx, island.cy, island.r, part * 72, (part + 1) * 72) } as Geometry,
+      });
       n++;
     }
   }

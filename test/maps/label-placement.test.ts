@@ -28,7 +28,11 @@ describe('placeLabels', () => {
             expect(p.box.y + p.box.h).toBeLessThanOrEqual(300);
             if (p.leader) {
               const [, end] = p.leader;
-              const onEdge = Math.abs(end[0] - p.box.x) < 1e-9 || Math.abs(end[0] - p.box.x - p.box.w) < 1e-9 || Math.abs(end[1] - p.box.y) < 1e-9 || Math.abs(end[1] - p.box.y - p.box.h) < 1e-9;
+              const onEdge =
+                Math.abs(end[0] - p.box.x) < 1e-9 ||
+                Math.abs(end[0] - p.box.x - p.box.w) < 1e-9 ||
+                Math.abs(end[1] - p.box.y) < 1e-9 ||
+                Math.abs(end[1] - p.box.y - p.box.h) < 1e-9;
               expect(onEdge).toBe(true);
             }
           }
@@ -39,20 +43,35 @@ describe('placeLabels', () => {
   });
 
   it('puts a lone label right beside its anchor, and the next one clear of it', () => {
-    const { placed } = placeLabels([{ id: 'a', anchor: [100, 100], w: 16, h: 16 }, { id: 'b', anchor: [100, 100], w: 16, h: 16 }], { width: 300, height: 200 });
+    const { placed } = placeLabels(
+      [
+        { id: 'a', anchor: [100, 100], w: 16, h: 16 },
+        { id: 'b', anchor: [100, 100], w: 16, h: 16 },
+      ],
+      { width: 300, height: 200 },
+    );
     expect(placed[0]!.box).toEqual({ x: 100 + 14, y: 92, w: 16, h: 16 });
     expect(boxesOverlap(placed[0]!.box, placed[1]!.box)).toBe(false);
   });
 
   it('a line through the first spot pushes the label to the next free one', () => {
-    const line: Point[] = [[120, 0], [120, 200]];
+    const line: Point[] = [
+      [120, 0],
+      [120, 200],
+    ];
     const { placed } = placeLabels([{ id: 'a', anchor: [100, 100], w: 16, h: 16 }], { width: 300, height: 200, lines: [line] });
     expect(new LineIndex([line]).hits(placed[0]!.box)).toBe(false);
     expect(placed[0]!.box.x + placed[0]!.box.w).toBeLessThan(120);
   });
 
   it('lists a label that finds no room instead of piling it on another', () => {
-    const { placed, left } = placeLabels([{ id: 'a', anchor: [10, 10], w: 16, h: 16 }, { id: 'b', anchor: [10, 10], w: 16, h: 16 }], { width: 40, height: 40, radii: [2] });
+    const { placed, left } = placeLabels(
+      [
+        { id: 'a', anchor: [10, 10], w: 16, h: 16 },
+        { id: 'b', anchor: [10, 10], w: 16, h: 16 },
+      ],
+      { width: 40, height: 40, radii: [2] },
+    );
     expect(placed.map((p) => p.id)).toEqual(['a']);
     expect(left).toEqual(['b']);
   });

@@ -34,7 +34,13 @@ let context: BrowserContext | null = null;
 
 function serve(dir: string): Promise<{ server: Server; origin: string }> {
   const base = resolve(dir);
-  const types: Record<string, string> = { '.html': 'text/html; charset=utf-8', '.css': 'text/css; charset=utf-8', '.js': 'text/javascript; charset=utf-8', '.svg': 'image/svg+xml', '.json': 'application/json' };
+  const types: Record<string, string> = {
+    '.html': 'text/html; charset=utf-8',
+    '.css': 'text/css; charset=utf-8',
+    '.js': 'text/javascript; charset=utf-8',
+    '.svg': 'image/svg+xml',
+    '.json': 'application/json',
+  };
   const srv = createServer((request, response) => {
     const path = decodeURIComponent(new URL(request.url ?? '/', 'http://127.0.0.1').pathname);
     let file = normalize(join(base, path));
@@ -43,10 +49,12 @@ function serve(dir: string): Promise<{ server: Server; origin: string }> {
     if (!existsSync(file)) return void response.writeHead(404).end('not found');
     response.writeHead(200, { 'Content-Type': types[extname(file)] ?? 'application/octet-stream' }).end(readFileSync(file));
   });
-  return new Promise((done) => srv.listen(0, '127.0.0.1', () => {
-    const address = srv.address();
-    done({ server: srv, origin: `http://127.0.0.1:${typeof address === 'object' && address ? address.port : 0}` });
-  }));
+  return new Promise((done) =>
+    srv.listen(0, '127.0.0.1', () => {
+      const address = srv.address();
+      done({ server: srv, origin: `http://127.0.0.1:${typeof address === 'object' && address ? address.port : 0}` });
+    }),
+  );
 }
 
 function htmlPages(dir: string, prefix = ''): string[] {
@@ -66,11 +74,12 @@ async function overlapsOn(page: Page): Promise<{ boxes: number; badges: number; 
     const nodes = [...document.querySelectorAll('svg.map .badge circle, svg.map .place-label, svg.map .zone-label')];
     const rects = nodes.map((n) => n.getBoundingClientRect());
     const overlaps: string[] = [];
-    for (let i = 0; i < rects.length; i++) for (let j = i + 1; j < rects.length; j++) {
-      const a = rects[i]!;
-      const b = rects[j]!;
-      if (a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom) overlaps.push(`${i}×${j}`);
-    }
+    for (let i = 0; i < rects.length; i++)
+      for (let j = i + 1; j < rects.length; j++) {
+        const a = rects[i]!;
+        const b = rects[j]!;
+        if (a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom) overlaps.push(`${i}×${j}`);
+      }
     return { boxes: rects.length, badges: document.querySelectorAll('svg.map .badge').length, overlaps };
   });
 }
@@ -80,7 +89,13 @@ async function axeViolations(page: Page): Promise<string[]> {
   return page.evaluate(async () => {
     const axe = (globalThis as unknown as { axe: { run: (ctx: unknown, opts: unknown) => Promise<{ violations: { id: string; nodes: { target: string[] }[] }[] }> } }).axe;
     const result = await axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] } });
-    return result.violations.map((v) => `${v.id}: ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
+    return result.violations.map(
+      (v) =>
+        `${v.id}: ${v.nodes
+          .slice(0, 3)
+          .map((n) => n.target.join(' '))
+          .join(' | ')}`,
+    );
   });
 }
 
@@ -92,7 +107,11 @@ describe.skipIf(!haveBrowser)('maps in a real browser', () => {
     const scenario = join(work, 'scenario');
     await makeScaleScenario(scenario, { segments: 400, years: 3, positions: 20_000 });
     const out = join(work, 'site');
-    execFileSync(process.execPath, [join(root, 'bin', 'wrackline.mjs'), 'build', '--scenario', scenario, '--out', out, '--quiet', '--no-cache'], { cwd: root, env: { ...process.env, TZ: 'UTC' }, stdio: 'pipe' });
+    execFileSync(process.execPath, [join(root, 'bin', 'wrackline.mjs'), 'build', '--scenario', scenario, '--out', out, '--quiet', '--no-cache'], {
+      cwd: root,
+      env: { ...process.env, TZ: 'UTC' },
+      stdio: 'pipe',
+    });
     siteDir = realpathSync(out);
     ({ server, origin } = await serve(siteDir));
     context = await chromium.launchPersistentContext(join(work, 'profile'), {
@@ -113,13 +132,24 @@ describe.skipIf(!haveBrowser)('maps in a real browser', () => {
 
   it('dense 60-segment coast: 60 badges and 3 place names, no two boxes overlapping, at 390 and 1280 px', async () => {
     const svg = renderMap({
-      idPrefix: 'dense', title: 'Dense test coast', description: 'Sixty invented segments', segments: prepareSegments(denseCoast()), land: prepareLand(denseLand()), width: 560,
-      places: [{ name: 'Northport', lon: 8.62, lat: 64.2 }, { name: 'Skerry Sound', lon: 8.3, lat: 63.35 }, { name: 'Southvik', lon: 8.7, lat: 61.9 }],
+      idPrefix: 'dense',
+      title: 'Dense test coast',
+      description: 'Sixty invented segments',
+      segments: prepareSegments(denseCoast()),
+      land: prepareLand(denseLand()),
+      width: 560,
+      places: [
+        { name: 'Northport', lon: 8.62, lat: 64.2 },
+        { name: 'Skerry Sound', lon: 8.3, lat: 63.35 },
+        { name: 'Southvik', lon: 8.7, lat: 61.9 },
+      ],
     });
     for (const width of [390, 1280]) {
       const page = await context!.newPage();
       await page.setViewportSize({ width, height: 900 });
-      await page.setContent(`<!doctype html><html lang="en"><head><title>Dense coast</title></head><body style="margin:0"><main><div style="max-width:640px">${svg.replace('<svg ', '<svg style="display:block;width:100%;height:auto" ')}</div></main></body></html>`);
+      await page.setContent(
+        `<!doctype html><html lang="en"><head><title>Dense coast</title></head><body style="margin:0"><main><div style="max-width:640px">${svg.replace('<svg ', '<svg style="display:block;width:100%;height:auto" ')}</div></main></body></html>`,
+      );
       const found = await overlapsOn(page);
       await page.screenshot({ path: join(shots, `dense-coast-${width}.png`) });
       expect(found.badges).toBe(60);
@@ -133,9 +163,18 @@ describe.skipIf(!haveBrowser)('maps in a real browser', () => {
     const overview = readFileSync(join(siteDir, 'index.html'), 'utf8');
     expect(overview).toContain('Areas of the coast');
     expect(areaUrl).not.toBe('');
-    const css = readdirSync(siteDir).filter((f) => f.endsWith('.css')).reduce((n, f) => n + statSync(join(siteDir, f)).size, 0)
-      + (existsSync(join(siteDir, '_astro')) ? readdirSync(join(siteDir, '_astro')).filter((f) => f.endsWith('.css')).reduce((n, f) => n + statSync(join(siteDir, '_astro', f)).size, 0) : 0);
-    const heavy = htmlPages(siteDir).map((f) => ({ f, bytes: statSync(join(siteDir, f)).size + css })).filter((p) => p.bytes >= pageLimit);
+    const css =
+      readdirSync(siteDir)
+        .filter((f) => f.endsWith('.css'))
+        .reduce((n, f) => n + statSync(join(siteDir, f)).size, 0) +
+      (existsSync(join(siteDir, '_astro'))
+        ? readdirSync(join(siteDir, '_astro'))
+            .filter((f) => f.endsWith('.css'))
+            .reduce((n, f) => n + statSync(join(siteDir, '_astro', f)).size, 0)
+        : 0);
+    const heavy = htmlPages(siteDir)
+      .map((f) => ({ f, bytes: statSync(join(siteDir, f)).size + css }))
+      .filter((p) => p.bytes >= pageLimit);
     expect(heavy).toEqual([]);
   });
 

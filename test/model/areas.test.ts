@@ -32,7 +32,11 @@ describe('areas', () => {
 
   it('bisection sizes stay balanced: 61 points make 2 groups of 30 and 31, not 60 and 1', () => {
     const points = Array.from({ length: 61 }, (_, i) => [0, -i] as [number, number]);
-    expect(bisect(points, 60).map((g) => g.length).sort()).toEqual([30, 31]);
+    expect(
+      bisect(points, 60)
+        .map((g) => g.length)
+        .sort(),
+    ).toEqual([30, 31]);
   });
 
   it('areas given in the segments file are kept, in order, and a large one is split in parts', () => {
@@ -55,8 +59,17 @@ describe('areas', () => {
     expect(usesAreas(151)).toBe(true);
   });
 
-  it('regional runs per area keep only the area\'s sites with data', () => {
-    const runs = areaRegionalSites([{ id: 'a', number: 1, name: 'A', segmentIds: ['s1', 's2'] }, { id: 'b', number: 2, name: 'B', segmentIds: ['s3'] }], [{ indicator: 'beach-litter', sites: ['s1', 's3'] }, { indicator: 'water-microplastics', sites: ['s2'] }]);
+  it("regional runs per area keep only the area's sites with data", () => {
+    const runs = areaRegionalSites(
+      [
+        { id: 'a', number: 1, name: 'A', segmentIds: ['s1', 's2'] },
+        { id: 'b', number: 2, name: 'B', segmentIds: ['s3'] },
+      ],
+      [
+        { indicator: 'beach-litter', sites: ['s1', 's3'] },
+        { indicator: 'water-microplastics', sites: ['s2'] },
+      ],
+    );
     expect(runs).toEqual([
       { area: 'a', indicator: 'beach-litter', sites: ['s1'] },
       { area: 'a', indicator: 'water-microplastics', sites: ['s2'] },
@@ -82,14 +95,23 @@ describe('composeArea', () => {
   it('orders places highest level first, then by name, and words the highest level and counts', async () => {
     const { composeArea } = await import('../../generator/model/compose-region.ts');
     const level = (id: 'scant' | 'marked', rank: 1 | 3, label: string) => ({ id, rank, label, hits: [] });
-    const area = composeArea({ id: 'area-x', number: 2, name: 'Ardle to Carrow', segmentIds: ['a', 'b', 'c'] }, [
-      { id: 'a', name: 'Carrow Sands', level: level('scant', 1, 'Scant') },
-      { id: 'b', name: 'Brisk Point', level: level('marked', 3, 'Marked') },
-      { id: 'c', name: 'Ardle Beach', level: level('scant', 1, 'Scant') },
-    ], []);
+    const area = composeArea(
+      { id: 'area-x', number: 2, name: 'Ardle to Carrow', segmentIds: ['a', 'b', 'c'] },
+      [
+        { id: 'a', name: 'Carrow Sands', level: level('scant', 1, 'Scant') },
+        { id: 'b', name: 'Brisk Point', level: level('marked', 3, 'Marked') },
+        { id: 'c', name: 'Ardle Beach', level: level('scant', 1, 'Scant') },
+      ],
+      [],
+    );
     expect(area.segmentIds).toEqual(['b', 'c', 'a']);
     expect(area.level).toEqual({ id: 'marked', rank: 3, label: 'Marked' });
-    expect(area.counts.map((c) => [c.level, c.n])).toEqual([['heavy', 0], ['marked', 1], ['noticeable', 0], ['scant', 2]]);
+    expect(area.counts.map((c) => [c.level, c.n])).toEqual([
+      ['heavy', 0],
+      ['marked', 1],
+      ['noticeable', 0],
+      ['scant', 2],
+    ]);
     expect(area.headline).toBe('Ardle to Carrow: the highest level is Marked (level 3 of 4), at 1 of 3 places.');
     expect(area.summary).toEqual(['Levels of the 3 places in this area: 1 Marked, 2 Scant.']);
   });

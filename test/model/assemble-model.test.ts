@@ -48,10 +48,7 @@ describe('assembleModel on a small invented scenario', () => {
     expect(north.sentences[0]).toBe('We cannot tell if beach litter is going up or down.');
     const west = bulletin('2026-autumn', 'west-cove').indicators.find((i) => i.indicator === 'beach-litter')!;
     expect(west.direction).toBe('too-little-data');
-    expect(west.sentences.slice(0, 2)).toEqual([
-      'Too little data to say if beach litter is changing.',
-      'Only 4 seasons have samples so far, and we need at least 8.',
-    ]);
+    expect(west.sentences.slice(0, 2)).toEqual(['Too little data to say if beach litter is changing.', 'Only 4 seasons have samples so far, and we need at least 8.']);
   });
 
   test('every claim of a rise or fall in any sentence has q below the rate', () => {

@@ -207,17 +207,18 @@ describe('directionIfClear and directionWithQ', () => {
     );
     fc.assert(
       fc.property(trend, fc.option(fc.double({ min: 0, max: 1, noNaN: true }), { nil: null }), fc.constantFrom(0.05, 0.1), (t, q, fdr) => {
-        const result: TrendResult | null = t === null
-          ? null
-          : ({
-              n: t.n,
-              nCensored: 0,
-              mannKendall: { S: t.S, varS: 1, z: 0, p: 0.5, tau: 0 },
-              sen: { slope: t.slope, lower: null, upper: null, intercept: null, confidence: 0.95 },
-              seasonalKendall: t.seasonal ? { S: t.S, varS: 1, z: 0, p: 0.5, slope: t.slope } : null,
-              probabilityUp: null,
-              insufficient: t.insufficient,
-            } as unknown as TrendResult);
+        const result: TrendResult | null =
+          t === null
+            ? null
+            : ({
+                n: t.n,
+                nCensored: 0,
+                mannKendall: { S: t.S, varS: 1, z: 0, p: 0.5, tau: 0 },
+                sen: { slope: t.slope, lower: null, upper: null, intercept: null, confidence: 0.95 },
+                seasonalKendall: t.seasonal ? { S: t.S, varS: 1, z: 0, p: 0.5, slope: t.slope } : null,
+                probabilityUp: null,
+                insufficient: t.insufficient,
+              } as unknown as TrendResult);
         expect(directionWithQ(directionIfClear(result), q, fdr)).toBe(written(result, q, fdr));
         expect(decideDirection(result, q, fdr)).toBe(written(result, q, fdr));
       }),

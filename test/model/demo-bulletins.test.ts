@@ -17,14 +17,7 @@ const scenario = await loadScenario('content/demo');
 const set = buildModel(scenario);
 
 function mainText(b: Bulletin): string[] {
-  return [
-    b.headline,
-    ...b.summary,
-    ...b.changes,
-    ...b.indicators.flatMap((i) => i.sentences),
-    ...(b.sections.growers?.sentences ?? []),
-    ...b.sections.visitors.sentences,
-  ];
+  return [b.headline, ...b.summary, ...b.changes, ...b.indicators.flatMap((i) => i.sentences), ...(b.sections.growers?.sentences ?? []), ...b.sections.visitors.sentences];
 }
 
 describe('demo bulletins', () => {
@@ -93,8 +86,17 @@ describe('demo bulletins', () => {
       for (const i of b.indicators) {
         if (i.direction === 'too-little-data') continue;
         const rate = printedRate({
-          subject: i.label, unit: i.unit, trend: i.trend, direction: i.direction, qValue: i.qValue, probabilityUp: i.probabilityUp,
-          falseDiscoveryRate: 0, confidence: scenario.settings.trend.confidence, segmentsTested: 0, seasonLabels: {}, samples: null,
+          subject: i.label,
+          unit: i.unit,
+          trend: i.trend,
+          direction: i.direction,
+          qValue: i.qValue,
+          probabilityUp: i.probabilityUp,
+          falseDiscoveryRate: 0,
+          confidence: scenario.settings.trend.confidence,
+          segmentsTested: 0,
+          seasonLabels: {},
+          samples: null,
         });
         if (!rate) continue;
         const claimed = i.direction === 'rising' || i.direction === 'falling';
@@ -135,7 +137,10 @@ describe('demo bulletins', () => {
         if (i.indicator === 'wildlife-reports') {
           expect(Number.isInteger(i.seasonValue)).toBe(true);
           const n = i.seasonValue;
-          const said = n === 0 ? 'No animals harmed by litter were reported this season' : `${n} ${n === 1 ? 'animal' : 'animals'} harmed by litter ${n === 1 ? 'was' : 'were'} reported this season`;
+          const said =
+            n === 0
+              ? 'No animals harmed by litter were reported this season'
+              : `${n} ${n === 1 ? 'animal' : 'animals'} harmed by litter ${n === 1 ? 'was' : 'were'} reported this season`;
           expect(b.changes.some((c) => c.startsWith(said))).toBe(true);
           continue;
         }

@@ -40,7 +40,13 @@ export function segment(id: string, name: string, kind: Segment['kind'], shellfi
     shellfish,
     place: 'Brinmouth',
     lengthKm: 2,
-    geometry: { type: 'LineString', coordinates: [[0, 50], [0.02, 50.01]] },
+    geometry: {
+      type: 'LineString',
+      coordinates: [
+        [0, 50],
+        [0.02, 50.01],
+      ],
+    },
     bbox: [0, 50, 0.02, 50.01],
   };
 }

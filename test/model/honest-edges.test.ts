@@ -31,9 +31,7 @@ describe('case 2, below detection printed as a measurement', () => {
   const tissue = b.indicators.find((i) => i.indicator === 'shellfish-tissue')!;
 
   test('case 2: the sentence says "below the lab\'s detection limit (0.05)", never "0.05 particles per gram"', () => {
-    expect(b.changes).toContain(
-      "Plastic in shellfish this season: below the lab's detection limit (0.05 particles per gram of shellfish, wet weight), against 0.62 last season.",
-    );
+    expect(b.changes).toContain("Plastic in shellfish this season: below the lab's detection limit (0.05 particles per gram of shellfish, wet weight), against 0.62 last season.");
     expect(b.sections.growers?.sentences[0]).toBe(
       "In shellfish samples this season, the plastic was below the lab's detection limit (0.05 particles per gram of shellfish, wet weight).",
     );
@@ -60,14 +58,21 @@ describe('case 2, below detection printed as a measurement', () => {
 describe('case 5, the overview headline hides the worst place', () => {
   const places = (n: number) => Array.from({ length: n }, (_, i) => ({ id: `p${i + 1}`, name: `Place ${i + 1}` }));
   test('case 5: the places at the highest level are named, up to five, then "and N more", each linked', () => {
-    const text = (n: number) => highestLevelHeadline('Brin Coast, autumn 2026', 'Heavy (level 4 of 4)', places(n), 30).map((p) => p.text).join('');
+    const text = (n: number) =>
+      highestLevelHeadline('Brin Coast, autumn 2026', 'Heavy (level 4 of 4)', places(n), 30)
+        .map((p) => p.text)
+        .join('');
     expect(text(1)).toBe('Brin Coast, autumn 2026: the highest level is Heavy (level 4 of 4), at 1 of 30 places: Place 1.');
     expect(text(3)).toBe('Brin Coast, autumn 2026: the highest level is Heavy (level 4 of 4), at 3 of 30 places: Place 1, Place 2 and Place 3.');
     expect(text(5)).toBe('Brin Coast, autumn 2026: the highest level is Heavy (level 4 of 4), at 5 of 30 places: Place 1, Place 2, Place 3, Place 4 and Place 5.');
     expect(text(8)).toBe('Brin Coast, autumn 2026: the highest level is Heavy (level 4 of 4), at 8 of 30 places: Place 1, Place 2, Place 3, Place 4, Place 5 and 3 more.');
     const parts = highestLevelHeadline('X', 'Heavy (level 4 of 4)', places(8), 30);
     expect(parts.filter((p) => p.segmentId).map((p) => [p.segmentId, p.text])).toEqual([
-      ['p1', 'Place 1'], ['p2', 'Place 2'], ['p3', 'Place 3'], ['p4', 'Place 4'], ['p5', 'Place 5'],
+      ['p1', 'Place 1'],
+      ['p2', 'Place 2'],
+      ['p3', 'Place 3'],
+      ['p4', 'Place 4'],
+      ['p5', 'Place 5'],
     ]);
   });
   test('case 5: the region model names the place at the highest level', () => {
@@ -141,13 +146,8 @@ describe('case 1, absence read as cleanliness', () => {
     expect(b.level.id).toBe('not-set');
     expect(b.level.rank).toBe(0);
     expect(b.headline).not.toMatch(/Scant/u);
-    expect(b.headline).toBe(
-      'Level not set at Old Point in autumn 2026: no survey here in the last four seasons; the last, in autumn 2022, found 50 items per 100 m of beach.',
-    );
-    expect(b.summary.slice(0, 2)).toEqual([
-      'No level is set this season, nor was one last season.',
-      'Why no level: a level needs a survey from the last four seasons.',
-    ]);
+    expect(b.headline).toBe('Level not set at Old Point in autumn 2026: no survey here in the last four seasons; the last, in autumn 2022, found 50 items per 100 m of beach.');
+    expect(b.summary.slice(0, 2)).toEqual(['No level is set this season, nor was one last season.', 'Why no level: a level needs a survey from the last four seasons.']);
     expect(b.level.note).toBe('No survey here in the last four seasons; the last, in autumn 2022, found 50 items per 100 m of beach.');
     expect(b.sections.reporters.keyNumbers[0]).toEqual({ label: 'Level', value: 'Level not set' });
   });
@@ -155,9 +155,7 @@ describe('case 1, absence read as cleanliness', () => {
   test('case 1: the region summary counts places with no level apart', () => {
     const row = region.segments.find((s) => s.id === 'old-point')!;
     expect(row.level.id).toBe('not-set');
-    expect(region.summary[0]).toBe(
-      'Levels of the 4 places this season: 1 Marked, 2 Scant. 1 place has no level set, because no survey was made there in the last four seasons.',
-    );
+    expect(region.summary[0]).toBe('Levels of the 4 places this season: 1 Marked, 2 Scant. 1 place has no level set, because no survey was made there in the last four seasons.');
   });
 
   test('case 1: where the drift model still sets a level, the bulletin says so and that no survey was made', () => {
@@ -165,7 +163,13 @@ describe('case 1, absence read as cleanliness', () => {
       id: 'noticeable' as const,
       rank: 2 as const,
       label: 'Noticeable',
-      hits: [{ ruleId: 'arrivals-top-quarter', level: 'noticeable' as const, text: 'In the drift model, more modelled particles per km reach this place than 80% of the places on this coast.' }],
+      hits: [
+        {
+          ruleId: 'arrivals-top-quarter',
+          level: 'noticeable' as const,
+          text: 'In the drift model, more modelled particles per km reach this place than 80% of the places on this coast.',
+        },
+      ],
     };
     const level = levelWithoutRecentSurvey(driftLevel, [], scenario.settings);
     expect(level.id).toBe('noticeable');

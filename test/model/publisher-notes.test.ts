@@ -49,10 +49,19 @@ describe('publisher notes', () => {
   });
 
   test('notes reach the bulletins and the season overview of the model', () => {
-    const set = assembleModel(withNotes([{ season: '2026-autumn', segment: null, text: 'A storm in *October*.' }, { season: '2026-autumn', segment: 'east-bay', text: 'Bay note' }]), testEngine);
+    const set = assembleModel(
+      withNotes([
+        { season: '2026-autumn', segment: null, text: 'A storm in *October*.' },
+        { season: '2026-autumn', segment: 'east-bay', text: 'Bay note' },
+      ]),
+      testEngine,
+    );
     const east = set.bulletins.find((b) => b.season.id === '2026-autumn' && b.segment.id === 'east-bay');
     const north = set.bulletins.find((b) => b.season.id === '2026-autumn' && b.segment.id === 'north-beach');
-    expect(east?.notes).toEqual([{ scope: 'season', text: 'A storm in *October*.' }, { scope: 'segment', text: 'Bay note' }]);
+    expect(east?.notes).toEqual([
+      { scope: 'season', text: 'A storm in *October*.' },
+      { scope: 'segment', text: 'Bay note' },
+    ]);
     expect(north?.notes).toEqual([{ scope: 'season', text: 'A storm in *October*.' }]);
     expect(set.bulletins.filter((b) => b.season.id === '2026-summer').every((b) => b.notes === undefined)).toBe(true);
     expect(set.regions.find((r) => r.season.id === '2026-autumn')?.notes).toEqual([{ scope: 'season', text: 'A storm in *October*.' }]);

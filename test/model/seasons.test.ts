@@ -13,7 +13,7 @@ describe('season arithmetic', () => {
     expect(seasonRef('2026-autumn', defaultSeasons)).toMatchObject({ start: '2026-09-01', end: '2026-11-30' });
     expect(seasonRef('2024-winter', defaultSeasons)?.end).toBe('2024-02-29');
   });
-  test('dates fall in the right season; December belongs to the next year\'s winter', () => {
+  test("dates fall in the right season; December belongs to the next year's winter", () => {
     expect(seasonOfDate('2025-12-15', defaultSeasons)).toBe('2026-winter');
     expect(seasonOfDate('2026-01-15', defaultSeasons)).toBe('2026-winter');
     expect(seasonOfDate('2026-10-01', defaultSeasons)).toBe('2026-autumn');
@@ -53,7 +53,11 @@ describe('season values', () => {
   });
   test('counts are summed per season; a season without reports in the monitored period counts 0', () => {
     const values = seasonValues(
-      [record('2026-01-10', '2026-winter', 2, false, 'wildlife-reports'), record('2026-02-10', '2026-winter', 1, false, 'wildlife-reports'), record('2026-07-10', '2026-summer', 4, false, 'wildlife-reports')],
+      [
+        record('2026-01-10', '2026-winter', 2, false, 'wildlife-reports'),
+        record('2026-02-10', '2026-winter', 1, false, 'wildlife-reports'),
+        record('2026-07-10', '2026-summer', 4, false, 'wildlife-reports'),
+      ],
       {
         aggregation: 'season-total',
         untilSeason: seasonRef('2026-autumn', defaultSeasons)!,
@@ -69,7 +73,19 @@ describe('season values', () => {
     ]);
   });
   test('a median whose middle value is below detection is marked censored', () => {
-    expect(censoredMedian([{ value: 0.05, censored: true }, { value: 0.05, censored: true }, { value: 0.4, censored: false }])).toEqual({ value: 0.05, censored: true });
-    expect(censoredMedian([{ value: 0.05, censored: true }, { value: 0.3, censored: false }, { value: 0.4, censored: false }])).toEqual({ value: 0.3, censored: false });
+    expect(
+      censoredMedian([
+        { value: 0.05, censored: true },
+        { value: 0.05, censored: true },
+        { value: 0.4, censored: false },
+      ]),
+    ).toEqual({ value: 0.05, censored: true });
+    expect(
+      censoredMedian([
+        { value: 0.05, censored: true },
+        { value: 0.3, censored: false },
+        { value: 0.4, censored: false },
+      ]),
+    ).toEqual({ value: 0.3, censored: false });
   });
 });

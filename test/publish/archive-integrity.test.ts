@@ -106,9 +106,7 @@ describe('ledger comparison', () => {
   });
 
   test('a changed past entry is reported with the changed fields', () => {
-    expect(compareLedgers(ledger('x', true), ledger('y', false), [])).toEqual([
-      { season: 's', segment: 'a', page: 'seasons/s/a/', problem: 'changed', fields: ['headline'] },
-    ]);
+    expect(compareLedgers(ledger('x', true), ledger('y', false), [])).toEqual([{ season: 's', segment: 'a', page: 'seasons/s/a/', problem: 'changed', fields: ['headline'] }]);
   });
 
   test('canonical JSON ignores key order and keeps array order', () => {

@@ -49,9 +49,7 @@ describe('atomic publishing', () => {
     expect((await lstat(out)).isSymbolicLink()).toBe(true);
     expect(await readlink(out)).toMatch(/^site\.wrackline\/releases\/r-[0-9a-f]{20}$/);
     const files = await snapshot(out);
-    expect(Object.keys(files)).toEqual(
-      expect.arrayContaining(['index.html', 'manifest.json', 'archive-ledger.json', 'seasons/2026-autumn/north-bay/index.html']),
-    );
+    expect(Object.keys(files)).toEqual(expect.arrayContaining(['index.html', 'manifest.json', 'archive-ledger.json', 'seasons/2026-autumn/north-bay/index.html']));
     const manifest = JSON.parse(await readFile(path.join(out, 'manifest.json'), 'utf8')) as { files: { file: string; sha256: string }[] };
     for (const entry of manifest.files) expect(files[entry.file]).toBe(entry.sha256);
     expect(await workFolders()).toEqual([]);

@@ -10,7 +10,9 @@ function oracle(value: unknown): string {
   if (Array.isArray(value)) return `[${value.map((item) => (item === undefined ? 'null' : oracle(item))).join(',')}]`;
   if (value !== null && typeof value === 'object') {
     const record = value as { [key: string]: unknown };
-    const keys = Object.keys(record).filter((key) => record[key] !== undefined).sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
+    const keys = Object.keys(record)
+      .filter((key) => record[key] !== undefined)
+      .sort((a, b) => (a < b ? -1 : a > b ? 1 : 0));
     return `{${keys.map((key) => `${JSON.stringify(key)}:${oracle(record[key])}`).join(',')}}`;
   }
   return JSON.stringify(value) ?? 'null';

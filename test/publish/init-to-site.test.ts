@@ -22,10 +22,21 @@ type Position = [number, number];
 
 /** Open water around 37.5° S, 127.5° W (no land): an invented coast. */
 function segments(): object {
-  const ring: Position[] = [[-127.50, -37.50], [-127.48, -37.49], [-127.46, -37.50], [-127.47, -37.52], [-127.50, -37.50]];
-  const crossing: Position[] = [[-127.40, -37.40], [-127.38, -37.38], [-127.38, -37.40], [-127.40, -37.38]];
+  const ring: Position[] = [
+    [-127.5, -37.5],
+    [-127.48, -37.49],
+    [-127.46, -37.5],
+    [-127.47, -37.52],
+    [-127.5, -37.5],
+  ];
+  const crossing: Position[] = [
+    [-127.4, -37.4],
+    [-127.38, -37.38],
+    [-127.38, -37.4],
+    [-127.4, -37.38],
+  ];
   const strand: Position[] = [];
-  for (let i = 0; i < 200_000; i++) strand.push([-127.30 + 0.0004 * Math.sin(i / 9), -37.60 + i * 0.0000005]);
+  for (let i = 0; i < 200_000; i++) strand.push([-127.3 + 0.0004 * Math.sin(i / 9), -37.6 + i * 0.0000005]);
   const feature = (id: string, name: string, kind: string, shellfish: string, geometry: object) => ({ type: 'Feature', properties: { id, name, kind, shellfish }, geometry });
   return {
     type: 'FeatureCollection',
@@ -33,8 +44,27 @@ function segments(): object {
       feature('tern-island', 'Tern Island', 'Island shore', 'no', { type: 'LineString', coordinates: ring }),
       feature('crooked-spit', 'Crooked Spit', 'beach', 'none', { type: 'LineString', coordinates: crossing }),
       feature('long-strand', 'Long Strand', 'beach', 'none', { type: 'LineString', coordinates: strand }),
-      feature('mill-bay', 'Mill Bay', 'bay', 'yes', { type: 'LineString', coordinates: [[-127.20, -37.45], [-127.18, -37.44], [-127.16, -37.45]] }),
-      feature('harbour-wall', 'Harbour Wall', 'harbour', 'farmed', { type: 'MultiLineString', coordinates: [[[-127.10, -37.40], [-127.09, -37.40]], [[-127.08, -37.41], [-127.07, -37.41]]] }),
+      feature('mill-bay', 'Mill Bay', 'bay', 'yes', {
+        type: 'LineString',
+        coordinates: [
+          [-127.2, -37.45],
+          [-127.18, -37.44],
+          [-127.16, -37.45],
+        ],
+      }),
+      feature('harbour-wall', 'Harbour Wall', 'harbour', 'farmed', {
+        type: 'MultiLineString',
+        coordinates: [
+          [
+            [-127.1, -37.4],
+            [-127.09, -37.4],
+          ],
+          [
+            [-127.08, -37.41],
+            [-127.07, -37.41],
+          ],
+        ],
+      }),
     ],
   };
 }
@@ -80,7 +110,10 @@ test('init → five segments and two tables → check and build pass, with no dr
   const settings = parseYaml(await readFile(path.join(scenario, 'scenario.yaml'), 'utf8')) as { [key: string]: unknown };
   settings['invented'] = true;
   settings['region'] = { id: 'new-coast', name: 'New Coast (invented)', description: 'An invented coast for a test.' };
-  settings['publications'] = [{ season: '2026-summer', date: '2026-09-01' }, { season: '2026-autumn', date: '2026-12-01' }];
+  settings['publications'] = [
+    { season: '2026-summer', date: '2026-09-01' },
+    { season: '2026-autumn', date: '2026-12-01' },
+  ];
   await writeFile(path.join(scenario, 'scenario.yaml'), stringifyYaml(settings));
   await writeFile(path.join(scenario, 'segments.geojson'), JSON.stringify(segments()));
   await writeFile(path.join(scenario, 'tables', 'beach-litter.csv'), beachTable());

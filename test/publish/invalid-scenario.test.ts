@@ -22,7 +22,10 @@ test('invalid data: exit 1, a readable summary, nothing written', async () => {
   // An essential column renamed: the table cannot be used (a bad single row would only be
   // excluded and listed as a warning, and the build would go on).
   const lines = (await readFile(table, 'utf8')).split('\n');
-  lines[0] = (lines[0] ?? '').split(',').map((name) => (name === 'items' ? 'item_count' : name)).join(',');
+  lines[0] = (lines[0] ?? '')
+    .split(',')
+    .map((name) => (name === 'items' ? 'item_count' : name))
+    .join(',');
   await writeFile(table, lines.join('\n'));
 
   const out = path.join(work, 'site');

@@ -30,11 +30,15 @@ async function holdAstroLock(): Promise<void> {
 function build(out: string, onStderr?: (text: string) => void): ChildProcess {
   const env: NodeJS.ProcessEnv = { ...process.env };
   delete env['CI']; // progress lines tell the test when the pages phase starts
-  const child = spawn(process.execPath, [path.join(packageRoot, 'bin', 'wrackline.mjs'), 'build', '--scenario', path.join(packageRoot, 'content', 'demo'), '--out', out, '--no-cache'], {
-    cwd: packageRoot,
-    env,
-    stdio: ['ignore', 'ignore', 'pipe'],
-  });
+  const child = spawn(
+    process.execPath,
+    [path.join(packageRoot, 'bin', 'wrackline.mjs'), 'build', '--scenario', path.join(packageRoot, 'content', 'demo'), '--out', out, '--no-cache'],
+    {
+      cwd: packageRoot,
+      env,
+      stdio: ['ignore', 'ignore', 'pipe'],
+    },
+  );
   child.stderr?.on('data', (chunk: Buffer) => onStderr?.(chunk.toString()));
   return child;
 }

@@ -32,7 +32,11 @@ test('entries are taken over exactly where the model file is the download on lin
   expect(hashes.size).toBeGreaterThan(2);
   for (const [id, sha] of hashes) {
     const [season, segment] = id.split('/') as [string, string];
-    expect(sha).toBe(createHash('sha256').update(readFileSync(path.join(modelDir, 'bulletins', season, `${segment}.json`))).digest('hex'));
+    expect(sha).toBe(
+      createHash('sha256')
+        .update(readFileSync(path.join(modelDir, 'bulletins', season, `${segment}.json`)))
+        .digest('hex'),
+    );
   }
   const downloads = new Map([...hashes].map(([id, sha]) => [`seasons/${id}/bulletin.json`, sha]));
 

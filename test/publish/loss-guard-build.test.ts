@@ -9,7 +9,10 @@ import { resourceNamed, scenarioCopy } from '../read/fixture-scenario.ts';
 import { runCli } from './helpers/cli-build.ts';
 
 test('decimal-comma loss of 98 % of a table: build exits 1, names the table, the count and the cause; nothing published', async () => {
-  const rows = Array.from({ length: 47 }, (_, i) => `WM-${i + 1},harbour-mouth,2025-${String((i % 11) + 1).padStart(2, '0')}-${String((i % 27) + 1).padStart(2, '0')},0.${i + 10},333`);
+  const rows = Array.from(
+    { length: 47 },
+    (_, i) => `WM-${i + 1},harbour-mouth,2025-${String((i % 11) + 1).padStart(2, '0')}-${String((i % 27) + 1).padStart(2, '0')},0.${i + 10},333`,
+  );
   const scenario = scenarioCopy({
     files: { 'tables/water-microplastics.csv': `sample_id,segment_id,date,particles_per_m3,mesh_um\n${rows.join('\n')}\nWM-48,harbour-mouth,2026-03-03,"0,5",333\n` },
     descriptor: (d) => {

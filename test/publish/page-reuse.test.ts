@@ -94,7 +94,10 @@ describe('render keys and the render plan', () => {
     await mkdir(path.join(root, 'site', 'lib'), { recursive: true });
     await mkdir(path.join(root, 'generator', 'model'), { recursive: true });
     await mkdir(path.join(root, 'generator', 'stats'), { recursive: true });
-    await writeFile(path.join(root, 'site', 'lib', 'model.ts'), "import { readModel } from '../../generator/model/read.ts';\nimport type { T } from '../../generator/model/types.ts';\n");
+    await writeFile(
+      path.join(root, 'site', 'lib', 'model.ts'),
+      "import { readModel } from '../../generator/model/read.ts';\nimport type { T } from '../../generator/model/types.ts';\n",
+    );
     await writeFile(path.join(root, 'generator', 'model', 'read.ts'), "export { words } from './words.ts';\n");
     await writeFile(path.join(root, 'generator', 'model', 'words.ts'), 'export const words = 1;\n');
     await writeFile(path.join(root, 'generator', 'model', 'types.ts'), 'export type T = 1;\n');
@@ -136,8 +139,14 @@ describe('render keys and the render plan', () => {
 });
 
 test('a published file that neither the render nor the reuse produced is reported (the build then renders all)', () => {
-  const listing = ['index.html', 'manifest.json', 'search-index/part-0/pagefind.js', 'charts/north-bay/index.html', 'embed/south-reef/beach-litter/index.html', 'segments/north-bay/index.html']
-    .map((file) => ({ file, sha256: '0', bytes: 0 }));
+  const listing = [
+    'index.html',
+    'manifest.json',
+    'search-index/part-0/pagefind.js',
+    'charts/north-bay/index.html',
+    'embed/south-reef/beach-litter/index.html',
+    'segments/north-bay/index.html',
+  ].map((file) => ({ file, sha256: '0', bytes: 0 }));
   const present = new Set(['index.html', 'segments/north-bay/index.html']);
   // south-reef was rendered again and lost its beach-litter chart: expected, not missing
   expect(missingAfterReuse(listing, present, new Set(['2026-autumn/south-reef']), '2026-autumn')).toEqual(['charts/north-bay/index.html']);

@@ -23,7 +23,10 @@ afterEach(async () => {
 });
 
 test('bulletins are dealt in turn; a second process only for enough bulletins and cores', () => {
-  expect(dealBulletins(['a/1', 'a/2', 'a/3', 'b/1', 'b/2'], 2)).toEqual([['a/1', 'a/3', 'b/2'], ['a/2', 'b/1']]);
+  expect(dealBulletins(['a/1', 'a/2', 'a/3', 'b/1', 'b/2'], 2)).toEqual([
+    ['a/1', 'a/3', 'b/2'],
+    ['a/2', 'b/1'],
+  ]);
   expect(renderProcesses(60, 2)).toBe(1);
   expect(renderProcesses(4000, 2)).toBe(2);
   expect(renderProcesses(4000, 1)).toBe(1);
@@ -41,7 +44,9 @@ test('downloads: bulletin.json is the model file byte for byte, the CSVs are the
   const files = await writeDownloads(modelDir, path.join(dir, 'site'), [id]);
   expect(files).toBe(3);
   const folder = path.join(dir, 'site', 'seasons', bulletin.season.id, bulletin.segment.id);
-  expect(await readFile(path.join(folder, 'bulletin.json'), 'utf8')).toBe(await readFile(path.join(modelDir, 'bulletins', bulletin.season.id, `${bulletin.segment.id}.json`), 'utf8'));
+  expect(await readFile(path.join(folder, 'bulletin.json'), 'utf8')).toBe(
+    await readFile(path.join(modelDir, 'bulletins', bulletin.season.id, `${bulletin.segment.id}.json`), 'utf8'),
+  );
   const parsed = JSON.parse(await readFile(path.join(folder, 'bulletin.json'), 'utf8')) as typeof bulletin;
   expect(await readFile(path.join(folder, 'observations.csv'), 'utf8')).toBe(observationsCsv(parsed));
   expect(await readFile(path.join(folder, 'results.csv'), 'utf8')).toBe(resultsCsv(parsed));

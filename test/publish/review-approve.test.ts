@@ -55,7 +55,11 @@ beforeAll(async () => {
   // one segment: script, event handlers, javascript: and data: links, raw HTML.
   const withNotes = JSON.parse(fullSettings) as { notes?: unknown[] };
   withNotes.notes = [
-    { season: '2026-autumn', segment: null, text: 'A storm in **October** moved a lot of litter onto these beaches.\n\n- surveys after it: see [the data checks](/validation/)\n- *figures are invented*' },
+    {
+      season: '2026-autumn',
+      segment: null,
+      text: 'A storm in **October** moved a lot of litter onto these beaches.\n\n- surveys after it: see [the data checks](/validation/)\n- *figures are invented*',
+    },
     { season: '2026-autumn', segment: 'corrab-sands', text: hostileNote },
   ];
   fullSettings = JSON.stringify(withNotes, null, 1);
@@ -87,7 +91,9 @@ describe('stage, review, approve (demo: autumn over summer)', () => {
     expect(text).toContain(`Levels that change (${moved.length})`);
     for (const b of moved) {
       const way = b.level.rank > b.previousLevel!.rank ? 'UP' : 'DOWN';
-      expect(text).toContain(`${b.segment.name}: ${way} from ${b.previousLevel!.label} (level ${b.previousLevel!.rank}, 2026-summer) to ${b.level.label} (level ${b.level.rank} of 4, 2026-autumn)`);
+      expect(text).toContain(
+        `${b.segment.name}: ${way} from ${b.previousLevel!.label} (level ${b.previousLevel!.rank}, 2026-summer) to ${b.level.label} (level ${b.level.rank} of 4, 2026-autumn)`,
+      );
     }
     // The demo's known level changes between summer and autumn 2026 (observed in its model).
     expect(moved.map((b) => b.segment.id).sort()).toEqual(['brenna-sands', 'tharra-island-east']);
@@ -108,7 +114,9 @@ describe('stage, review, approve (demo: autumn over summer)', () => {
 
     // Sentences, old beside new, with the numbers that moved.
     expect(text).toContain('      old: Beach litter and plastic in the sea water are going up at Brenna Sands, where plastic pollution is Marked (level 3 of 4) in summer 2026.');
-    expect(text).toContain('      new: Beach litter and plastic in the sea water are going up at Brenna Sands, where plastic pollution is Noticeable (level 2 of 4) in autumn 2026.');
+    expect(text).toContain(
+      '      new: Beach litter and plastic in the sea water are going up at Brenna Sands, where plastic pollution is Noticeable (level 2 of 4) in autumn 2026.',
+    );
     expect(text).toMatch(/numbers moved beyond their rounding: \d/);
     // Records dated after the summer publication date were left out then and are taken back in.
     expect(text).toMatch(/DateInFuture: 0 newly left out, \d+ taken back in/);

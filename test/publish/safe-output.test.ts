@@ -33,17 +33,12 @@ describe('page safety', () => {
   });
   test('event handlers and javascript: URLs are found; escaped text is not', () => {
     const bad = page('t', '<img src="x" onerror="alert(1)"><a href=" javascript:alert(1)">x</a>');
-    expect(pageProblems('p', bad).map((x) => x.problem)).toEqual([
-      '<img> has an event-handler attribute onerror',
-      '<a> has a javascript: URL in href',
-    ]);
+    expect(pageProblems('p', bad).map((x) => x.problem)).toEqual(['<img> has an event-handler attribute onerror', '<a> has a javascript: URL in href']);
     const escaped = page('t', '<p>&lt;script&gt;alert(1)&lt;/script&gt; &quot;&gt;&lt;img src=x onerror=alert(1)&gt; javascript:alert(1)</p>');
     expect(pageProblems('p', escaped)).toEqual([]);
   });
   test('a page without the policy, or with a weak one, is reported', () => {
-    expect(pageProblems('p', '<!doctype html><html><head></head><body></body></html>')[0]?.problem).toBe(
-      'has no Content-Security-Policy meta tag',
-    );
+    expect(pageProblems('p', '<!doctype html><html><head></head><body></body></html>')[0]?.problem).toBe('has no Content-Security-Policy meta tag');
     expect(policyProblems(policy)).toEqual([]);
     expect(policyProblems("default-src 'self'; script-src 'self' 'unsafe-inline'")).toEqual(["script-src allows 'unsafe-inline'"]);
     expect(policyProblems("default-src 'self' https://tiles.example")).toEqual(['default-src allows another origin (https://tiles.example)']);

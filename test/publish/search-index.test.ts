@@ -71,12 +71,26 @@ describe('planning the parts', () => {
   });
 
   test('a part is taken over only with the same pages, each with the same hash as on line', () => {
-    const planned = [{ name: 'part-0', pages: ['a/index.html', 'b/index.html'] }, { name: 'part-1', pages: ['c/index.html'] }];
-    const now = new Map([['a/index.html', 'h1'], ['b/index.html', 'h2'], ['c/index.html', 'h3']]);
-    const online = new Map([['a/index.html', 'h1'], ['b/index.html', 'h2'], ['c/index.html', 'old']]);
+    const planned = [
+      { name: 'part-0', pages: ['a/index.html', 'b/index.html'] },
+      { name: 'part-1', pages: ['c/index.html'] },
+    ];
+    const now = new Map([
+      ['a/index.html', 'h1'],
+      ['b/index.html', 'h2'],
+      ['c/index.html', 'h3'],
+    ]);
+    const online = new Map([
+      ['a/index.html', 'h1'],
+      ['b/index.html', 'h2'],
+      ['c/index.html', 'old'],
+    ]);
     expect(partsToTakeOver(planned, planned, now, online).map((p) => p.name)).toEqual(['part-0']);
     expect(partsToTakeOver(null, planned, now, online)).toEqual([]);
-    const otherPages = [{ name: 'part-0', pages: ['a/index.html'] }, { name: 'part-1', pages: ['c/index.html'] }];
+    const otherPages = [
+      { name: 'part-0', pages: ['a/index.html'] },
+      { name: 'part-1', pages: ['c/index.html'] },
+    ];
     expect(partsToTakeOver(otherPages, planned, now, now).map((p) => p.name)).toEqual(['part-1']);
   });
 
@@ -105,7 +119,13 @@ describe('planning the parts', () => {
 describe('with pagefind', () => {
   async function hashes(root: string): Promise<Map<string, string>> {
     const out = new Map<string, string>();
-    for (const file of await listFiles(root)) out.set(file, createHash('sha256').update(await readFile(path.join(root, file))).digest('hex'));
+    for (const file of await listFiles(root))
+      out.set(
+        file,
+        createHash('sha256')
+          .update(await readFile(path.join(root, file)))
+          .digest('hex'),
+      );
     return out;
   }
 

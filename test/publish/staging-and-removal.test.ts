@@ -41,7 +41,11 @@ test('staged files are placed: missing folders whole, single files where the fol
   // The render wrote the season page and south-reef's page itself (a route not in the plan).
   await put(site, 'seasons/2026-autumn/index.html', 'rendered season');
   await put(site, 'seasons/2026-autumn/south-reef/index.html', 'rendered south-reef');
-  const placed = placeStaged(stage, site, staged.map((file) => ({ file, sha256: '-', bytes: 0 })));
+  const placed = placeStaged(
+    stage,
+    site,
+    staged.map((file) => ({ file, sha256: '-', bytes: 0 })),
+  );
   expect(placed.map((entry) => entry.file)).toEqual(staged.filter((file) => file !== 'seasons/2026-autumn/south-reef/index.html'));
   expect(await readFile(path.join(site, 'seasons/2026-autumn/south-reef/index.html'), 'utf8')).toBe('rendered south-reef');
   for (const entry of placed) expect(await readFile(path.join(site, entry.file), 'utf8')).toBe(`staged ${entry.file}`);

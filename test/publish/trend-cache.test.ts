@@ -19,9 +19,7 @@ afterEach(async () => {
   await rm(dir, { recursive: true, force: true });
 });
 
-const series: SeriesPoint[] = Object.freeze(
-  [3, 5, 4, 7, 6, 9, 8, 11, 10, 12].map((value, index) => Object.freeze({ t: 2017 + index, value })),
-) as SeriesPoint[];
+const series: SeriesPoint[] = Object.freeze([3, 5, 4, 7, 6, 9, 8, 11, 10, 12].map((value, index) => Object.freeze({ t: 2017 + index, value }))) as SeriesPoint[];
 const options: TrendOptions = { confidence: 0.95, seasonal: false, bootstrap: { resamples: 50, seed: 3 } };
 
 function counting(inner: TrendEngine): { engine: TrendEngine; calls: () => number } {

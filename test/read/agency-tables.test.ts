@@ -64,13 +64,15 @@ describe('no quiet gutting', () => {
     expect((await check(['--scenario', dir])).code).toBe(0);
   });
 
-  test('every row of one segment\'s series left out is an error even when the table loses little', async () => {
+  test("every row of one segment's series left out is an error even when the table loses little", async () => {
     const good = Array.from({ length: 40 }, (_, i) => `BL-${i + 1},north-beach,${dateOf(i)},100,${i},,`);
     const table = `${beachHeader}\n${good.join('\n')}\nBL-99,seal-island,2025-06-01,100,-3,,\n`;
     const scenario = await loadScenario(scenarioCopy({ files: { [beachFile]: table } }));
     expect(scenario.report.issues.filter((i) => i.code === 'TableLoss')).toEqual([]);
     const loss = expectIssue(scenario.report.issues, { code: 'SeriesLoss', file: beachFile, severity: 'error' });
-    expect(loss.message).toBe(`${beachFile}: all 1 row(s) for segment "seal-island" left out (1 value below the allowed minimum); the segment would be shown as not measured, so nothing is published`);
+    expect(loss.message).toBe(
+      `${beachFile}: all 1 row(s) for segment "seal-island" left out (1 value below the allowed minimum); the segment would be shown as not measured, so nothing is published`,
+    );
   });
 
   test('--strict makes every warning an error', async () => {
@@ -161,7 +163,17 @@ describe('tables as agencies keep them', () => {
 
   test('unknown segment id orin-bay: did you mean "orrin-bay"?', async () => {
     const base = JSON.parse(readFileSync(join(baseScenario, 'segments.geojson'), 'utf8')) as { features: unknown[] };
-    base.features.push({ type: 'Feature', properties: { id: 'orrin-bay', name: 'Orrin Bay', kind: 'bay', shellfish: 'farmed' }, geometry: { type: 'LineString', coordinates: [[0.5, 50], [0.52, 50.01]] } });
+    base.features.push({
+      type: 'Feature',
+      properties: { id: 'orrin-bay', name: 'Orrin Bay', kind: 'bay', shellfish: 'farmed' },
+      geometry: {
+        type: 'LineString',
+        coordinates: [
+          [0.5, 50],
+          [0.52, 50.01],
+        ],
+      },
+    });
     const good = Array.from({ length: 25 }, (_, i) => `BL-${i + 1},north-beach,${dateOf(i)},100,${i},,`);
     const dir = scenarioCopy({ files: { 'segments.geojson': JSON.stringify(base), [beachFile]: `${beachHeader}\n${good.join('\n')}\nBL-99,orin-bay,2025-06-01,100,3,,\n` } });
     const scenario = await loadScenario(dir);

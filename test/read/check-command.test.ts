@@ -34,18 +34,22 @@ describe('wrackline check', () => {
     expect(out).toContain('tables/wildlife-reports.csv row 23, column animals: "-1" is too small');
   });
 
-  test.skipIf(!existsSync(join(demoDir, 'datapackage.json')))('a broken copy of the demo exits 1 and shows the report', async () => {
-    const dir = mkdtempSync(join(tmpdir(), 'wrackline-demo-broken-'));
-    cpSync(demoDir, dir, { recursive: true });
-    const table = join(dir, 'tables/beach-litter.csv');
-    const lines = readFileSync(table, 'utf8').split('\n');
-    lines[0] = (lines[0] ?? '').replace('surveyed_length_m', 'length');
-    writeFileSync(table, lines.join('\n'));
-    const { code, out } = await run(['--scenario', dir]);
-    expect(code).toBe(1);
-    expect(out).toContain('tables/beach-litter.csv row 1, column surveyed_length_m: the header has no column "surveyed_length_m"');
-    expect(out).toContain('Result: not usable');
-  }, 60_000);
+  test.skipIf(!existsSync(join(demoDir, 'datapackage.json')))(
+    'a broken copy of the demo exits 1 and shows the report',
+    async () => {
+      const dir = mkdtempSync(join(tmpdir(), 'wrackline-demo-broken-'));
+      cpSync(demoDir, dir, { recursive: true });
+      const table = join(dir, 'tables/beach-litter.csv');
+      const lines = readFileSync(table, 'utf8').split('\n');
+      lines[0] = (lines[0] ?? '').replace('surveyed_length_m', 'length');
+      writeFileSync(table, lines.join('\n'));
+      const { code, out } = await run(['--scenario', dir]);
+      expect(code).toBe(1);
+      expect(out).toContain('tables/beach-litter.csv row 1, column surveyed_length_m: the header has no column "surveyed_length_m"');
+      expect(out).toContain('Result: not usable');
+    },
+    60_000,
+  );
 
   test('--json prints the report as JSON', async () => {
     const { code, out } = await run(['--scenario', scenarioCopy(), '--json']);

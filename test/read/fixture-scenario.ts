@@ -46,8 +46,13 @@ export function resourceNamed(descriptor: { resources: { [key: string]: unknown 
  * Finds the one issue with the given catalogue code and checks that its message names the file,
  * the row and the column (when the issue has them), as every report entry must.
  */
-export function expectIssue(issues: readonly ValidationIssue[], want: { code: string; file: string; row?: number | null; column?: string | null; severity?: 'error' | 'warning'; excluded?: boolean }): ValidationIssue {
-  const matches = issues.filter((i) => i.code === want.code && i.file === want.file && (want.row === undefined || i.row === want.row) && (want.column === undefined || i.column === want.column));
+export function expectIssue(
+  issues: readonly ValidationIssue[],
+  want: { code: string; file: string; row?: number | null; column?: string | null; severity?: 'error' | 'warning'; excluded?: boolean },
+): ValidationIssue {
+  const matches = issues.filter(
+    (i) => i.code === want.code && i.file === want.file && (want.row === undefined || i.row === want.row) && (want.column === undefined || i.column === want.column),
+  );
   expect(matches, `no ${want.code} issue for ${want.file} among:\n${issues.map((i) => `${i.code}: ${i.message}`).join('\n')}`).toHaveLength(1);
   const found = matches[0] as ValidationIssue;
   expect(found.message).toContain(want.file);

@@ -82,13 +82,23 @@ describe('Frictionless missing values', () => {
     const schema = tableSchemaSchema.parse({ fields: [{ name: 'id' }, { name: 'note' }] });
     expect(schema.missingValues).toEqual(['']);
     await readCsvTable({
-      absolutePath: path, file: 't.csv', dialect: { delimiter: ',', header: true, quoteChar: '"', decimalChar: '.' }, compression: null,
-      rules: [{ ...rule, name: 'id' }, rule], missingValues: schema.missingValues, essentialColumns: [], primaryKey: ['id'], log,
+      absolutePath: path,
+      file: 't.csv',
+      dialect: { delimiter: ',', header: true, quoteChar: '"', decimalChar: '.' },
+      compression: null,
+      rules: [{ ...rule, name: 'id' }, rule],
+      missingValues: schema.missingValues,
+      essentialColumns: [],
+      primaryKey: ['id'],
+      log,
       onRow: (row) => {
         rows.push(row.values);
         return 'kept';
       },
     });
-    expect(rows).toEqual([{ id: 'a', note: 'NA' }, { id: 'b', note: null }]);
+    expect(rows).toEqual([
+      { id: 'a', note: 'NA' },
+      { id: 'b', note: null },
+    ]);
   });
 });

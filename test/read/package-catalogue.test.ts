@@ -34,19 +34,23 @@ describe('scenario folder and package descriptor', () => {
   });
 
   test('a resource path leaving the scenario folder is refused', async () => {
-    const dir = scenarioCopy({ descriptor: (d) => {
-      resourceNamed(d, 'wildlife-reports')['path'] = '../../etc/passwd';
-    } });
+    const dir = scenarioCopy({
+      descriptor: (d) => {
+        resourceNamed(d, 'wildlife-reports')['path'] = '../../etc/passwd';
+      },
+    });
     const scenario = await loadScenario(dir);
     const issue = expectIssue(scenario.report.issues, { code: 'ResourceInvalid', file: 'datapackage.json', column: 'resources[5].path', severity: 'error' });
     expect(issue.message).toContain('leaves the scenario folder');
   });
 
   test('an unknown indicator and a missing role are reported with their JSON path', async () => {
-    const dir = scenarioCopy({ descriptor: (d) => {
-      resourceNamed(d, 'wildlife-reports')['indicator'] = 'seabird-counts';
-      delete resourceNamed(d, 'shellfish-tissue')['role'];
-    } });
+    const dir = scenarioCopy({
+      descriptor: (d) => {
+        resourceNamed(d, 'wildlife-reports')['indicator'] = 'seabird-counts';
+        delete resourceNamed(d, 'shellfish-tissue')['role'];
+      },
+    });
     const scenario = await loadScenario(dir);
     expectIssue(scenario.report.issues, { code: 'ResourceInvalid', file: 'datapackage.json', column: 'resources[5].indicator' });
     expectIssue(scenario.report.issues, { code: 'ResourceInvalid', file: 'datapackage.json', column: 'resources[4].role' });
@@ -55,30 +59,36 @@ describe('scenario folder and package descriptor', () => {
 
 describe('table schema against the indicator', () => {
   test('a field the indicator needs is not declared', async () => {
-    const dir = scenarioCopy({ descriptor: (d) => {
-      const schema = resourceNamed(d, 'beach-litter')['schema'] as Fields;
-      schema.fields = schema.fields.filter((f) => f.name !== 'items');
-    } });
+    const dir = scenarioCopy({
+      descriptor: (d) => {
+        const schema = resourceNamed(d, 'beach-litter')['schema'] as Fields;
+        schema.fields = schema.fields.filter((f) => f.name !== 'items');
+      },
+    });
     const scenario = await loadScenario(dir);
     expectIssue(scenario.report.issues, { code: 'SchemaFieldMissing', file: 'tables/beach-litter.csv', row: 1, column: 'items', severity: 'error' });
   });
 
   test('a field declared with another type', async () => {
-    const dir = scenarioCopy({ descriptor: (d) => {
-      const schema = resourceNamed(d, 'beach-litter')['schema'] as Fields;
-      const date = schema.fields.find((f) => f.name === 'date');
-      if (date) date.type = 'string';
-    } });
+    const dir = scenarioCopy({
+      descriptor: (d) => {
+        const schema = resourceNamed(d, 'beach-litter')['schema'] as Fields;
+        const date = schema.fields.find((f) => f.name === 'date');
+        if (date) date.type = 'string';
+      },
+    });
     const scenario = await loadScenario(dir);
     expectIssue(scenario.report.issues, { code: 'SchemaFieldType', file: 'tables/beach-litter.csv', row: 1, column: 'date', severity: 'error' });
   });
 
   test('a value above a declared maximum', async () => {
-    const dir = scenarioCopy({ descriptor: (d) => {
-      const schema = resourceNamed(d, 'water-microplastics')['schema'] as Fields;
-      const mesh = schema.fields.find((f) => f.name === 'mesh_um');
-      if (mesh) mesh.constraints = { maximum: 300 };
-    } });
+    const dir = scenarioCopy({
+      descriptor: (d) => {
+        const schema = resourceNamed(d, 'water-microplastics')['schema'] as Fields;
+        const mesh = schema.fields.find((f) => f.name === 'mesh_um');
+        if (mesh) mesh.constraints = { maximum: 300 };
+      },
+    });
     const scenario = await loadScenario(dir);
     expectIssue(scenario.report.issues, { code: 'ValueAboveMaximum', file: 'tables/water-microplastics.csv', row: 2, column: 'mesh_um', excluded: true });
   });
@@ -91,10 +101,13 @@ describe('table schema against the indicator', () => {
       { id: 'summer', label: 'Summer', months: [6, 7, 8] },
       { id: 'autumn', label: 'Autumn', months: [9, 10, 11] },
     ];
-    const dir = scenarioCopy({ files: {
-      'scenario.json': JSON.stringify(settings),
-      'tables/shellfish-tissue.csv': 'sample_id,segment_id,date,species,particles_per_g_ww\nST-1,harbour-mouth,2026-05-02,blue mussel,0.36\nST-2,harbour-mouth,2026-10-02,blue mussel,0.3\n',
-    } });
+    const dir = scenarioCopy({
+      files: {
+        'scenario.json': JSON.stringify(settings),
+        'tables/shellfish-tissue.csv':
+          'sample_id,segment_id,date,species,particles_per_g_ww\nST-1,harbour-mouth,2026-05-02,blue mussel,0.36\nST-2,harbour-mouth,2026-10-02,blue mussel,0.3\n',
+      },
+    });
     const scenario = await loadScenario(dir);
     expectIssue(scenario.report.issues, { code: 'DateNotInSeason', file: 'tables/shellfish-tissue.csv', row: 2, column: 'date', excluded: true });
   });

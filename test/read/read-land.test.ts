@@ -21,7 +21,8 @@ const require = createRequire(import.meta.url);
 function iceland(): Polygon[] {
   const world = JSON.parse(readFileSync(require.resolve('world-atlas/land-10m.json'), 'utf8')) as Topology;
   const land = feature(world, world.objects['land']!) as unknown as FeatureCollection<MultiPolygon>;
-  return land.features.flatMap((f) => f.geometry.coordinates)
+  return land.features
+    .flatMap((f) => f.geometry.coordinates)
     .filter((p) => p[0]!.every(([lon, lat]) => lon! > -25 && lon! < -13 && lat! > 63 && lat! < 67))
     .map((coordinates) => ({ type: 'Polygon', coordinates }));
 }
@@ -39,10 +40,11 @@ describe('readLand', () => {
     expect(land!.verticesRead).toBeGreaterThan(300);
     expect(land!.verticesKept).toBeLessThanOrEqual(330); // the budget, plus each ring's closing position
     // area on the sphere (d3-geo geoArea, steradians; rings as d3 wants them: the smaller side)
-    const area = (coordinates: number[][][][]) => coordinates.reduce((sum, p) => {
-      const a = geoArea({ type: 'Polygon', coordinates: p });
-      return sum + Math.min(a, 4 * Math.PI - a);
-    }, 0);
+    const area = (coordinates: number[][][][]) =>
+      coordinates.reduce((sum, p) => {
+        const a = geoArea({ type: 'Polygon', coordinates: p });
+        return sum + Math.min(a, 4 * Math.PI - a);
+      }, 0);
     const before = area(polygons.map((p) => p.coordinates));
     const after = area(land!.geometry.coordinates);
     expect(Math.abs(after - before) / before).toBeLessThan(0.02);
@@ -51,13 +53,63 @@ describe('readLand', () => {
 
   it('lists a line, an open ring and a swapped position by row, and keeps the good polygon', async () => {
     const dir = mkdtempSync(join(tmpdir(), 'wrackline-land-'));
-    const square = [[0, 0], [1, 0], [1, 1], [0, 1], [0, 0]];
-    writeFileSync(join(dir, 'land.geojson'), JSON.stringify({ type: 'FeatureCollection', features: [
-      { type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [square] } },
-      { type: 'Feature', properties: {}, geometry: { type: 'LineString', coordinates: [[0, 0], [1, 1]] } },
-      { type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [[[0, 0], [1, 0], [1, 1], [0, 1]]] } },
-      { type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [[[10, 95], [11, 95], [11, 96], [10, 95]]] } },
-    ] }));
+    const square = [
+      [0, 0],
+      [1, 0],
+      [1, 1],
+      [0, 1],
+      [0, 0],
+    ];
+    writeFileSync(
+      join(dir, 'land.geojson'),
+      JSON.stringify({
+        type: 'FeatureCollection',
+        features: [
+          { type: 'Feature', properties: {}, geometry: { type: 'Polygon', coordinates: [square] } },
+          {
+            type: 'Feature',
+            properties: {},
+            geometry: {
+              type: 'LineString',
+              coordinates: [
+                [0, 0],
+                [1, 1],
+              ],
+            },
+          },
+          {
+            type: 'Feature',
+            properties: {},
+            geometry: {
+              type: 'Polygon',
+              coordinates: [
+                [
+                  [0, 0],
+                  [1, 0],
+                  [1, 1],
+                  [0, 1],
+                ],
+              ],
+            },
+          },
+          {
+            type: 'Feature',
+            properties: {},
+            geometry: {
+              type: 'Polygon',
+              coordinates: [
+                [
+                  [10, 95],
+                  [11, 95],
+                  [11, 96],
+                  [10, 95],
+                ],
+              ],
+            },
+          },
+        ],
+      }),
+    );
     const log = new IssueLog();
     const land = await readLand(join(dir, 'land.geojson'), 'land.geojson', log);
     expect(land!.geometry.coordinates).toHaveLength(1);

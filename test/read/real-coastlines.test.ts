@@ -59,7 +59,9 @@ describe('real coastlines', () => {
   test('closed LineString island shore is valid, not "the line crosses itself"', async () => {
     // Fiji's largest ring in Natural Earth 1:50m lies wholly east of 180°; its closed outline is the
     // whole shore of an island, which OGC Simple Features and RFC 7946 allow as a closed line.
-    const ring = naturalEarthRings('Fiji').filter((r) => r.every(([lon]) => lon > 0)).sort((a, b) => b.length - a.length)[0] as Position[];
+    const ring = naturalEarthRings('Fiji')
+      .filter((r) => r.every(([lon]) => lon > 0))
+      .sort((a, b) => b.length - a.length)[0] as Position[];
     expect(ring[0]).toEqual(ring[ring.length - 1]);
     const scenario = await loadSegments(feature('fiji-main-shore', { type: 'LineString', coordinates: ring }));
     expect(scenario.report.issues.filter((i) => i.file === segmentsFile)).toEqual([]);
@@ -71,7 +73,15 @@ describe('real coastlines', () => {
 
   test('self-crossing segment is a warning naming the segment and the point; the segment is kept', async () => {
     // A figure of eight: edges (0,50)–(0.1,50.1) and (0.1,50)–(0,50.1) cross at (0.05, 50.05).
-    const eight = { type: 'LineString', coordinates: [[0, 50], [0.1, 50.1], [0.1, 50], [0, 50.1]] };
+    const eight = {
+      type: 'LineString',
+      coordinates: [
+        [0, 50],
+        [0.1, 50.1],
+        [0.1, 50],
+        [0, 50.1],
+      ],
+    };
     const scenario = await loadSegments(feature('digitised-cove', eight));
     const issue = expectIssue(scenario.report.issues, { code: 'GeometrySelfIntersects', file: segmentsFile, row: 4, column: 'geometry', severity: 'warning', excluded: false });
     expect(issue.message).toContain('"digitised-cove"');
@@ -83,7 +93,16 @@ describe('real coastlines', () => {
 
   test('self-crossing closed ring points at the crossing, not at the closing point', async () => {
     // A closed bow tie: first = last = (0, 50); the only crossing is at (0.05, 50.05).
-    const bowTie = { type: 'LineString', coordinates: [[0, 50], [0.1, 50.1], [0.1, 50], [0, 50.1], [0, 50]] };
+    const bowTie = {
+      type: 'LineString',
+      coordinates: [
+        [0, 50],
+        [0.1, 50.1],
+        [0.1, 50],
+        [0, 50.1],
+        [0, 50],
+      ],
+    };
     const scenario = await loadSegments(feature('bow-tie-islet', bowTie));
     const issue = expectIssue(scenario.report.issues, { code: 'GeometrySelfIntersects', file: segmentsFile, row: 4 });
     expect(issue.value).toBe('[0.05, 50.05]');
@@ -108,21 +127,73 @@ describe('real coastlines', () => {
 
   test('longitude and latitude swapped: "did you swap longitude and latitude?"', async () => {
     // A line near 50.7° N, 120.5° E written [lat, lon].
-    const swapped = { type: 'LineString', coordinates: [[50.72, 120.5], [50.73, 120.52]] };
+    const swapped = {
+      type: 'LineString',
+      coordinates: [
+        [50.72, 120.5],
+        [50.73, 120.52],
+      ],
+    };
     const scenario = await loadSegments(feature('swapped-shore', swapped));
     const issue = expectIssue(scenario.report.issues, { code: 'CoordinateOutOfRange', file: segmentsFile, row: 4, severity: 'error' });
     expect(issue.hint).toContain('Did you swap longitude and latitude?');
   });
 
   test('island group as a MultiLineString and an island with a lagoon as a Polygon with a hole', async () => {
-    const group = { type: 'MultiLineString', coordinates: [[[1, 50], [1.02, 50], [1.02, 50.02], [1, 50.02], [1, 50]], [[1.05, 50], [1.06, 50.01], [1.05, 50]]] };
-    const holed = { type: 'Polygon', coordinates: [[[2, 50], [2.1, 50], [2.1, 50.1], [2, 50.1], [2, 50]], [[2.03, 50.03], [2.03, 50.06], [2.06, 50.06], [2.06, 50.03], [2.03, 50.03]]] };
+    const group = {
+      type: 'MultiLineString',
+      coordinates: [
+        [
+          [1, 50],
+          [1.02, 50],
+          [1.02, 50.02],
+          [1, 50.02],
+          [1, 50],
+        ],
+        [
+          [1.05, 50],
+          [1.06, 50.01],
+          [1.05, 50],
+        ],
+      ],
+    };
+    const holed = {
+      type: 'Polygon',
+      coordinates: [
+        [
+          [2, 50],
+          [2.1, 50],
+          [2.1, 50.1],
+          [2, 50.1],
+          [2, 50],
+        ],
+        [
+          [2.03, 50.03],
+          [2.03, 50.06],
+          [2.06, 50.06],
+          [2.06, 50.03],
+          [2.03, 50.03],
+        ],
+      ],
+    };
     const scenario = await loadSegments(feature('skerries', group), feature('lagoon-isle', holed));
     expect(scenario.report.issues.filter((i) => i.file === segmentsFile)).toEqual([]);
     const isle = scenario.segments.find((s) => s.id === 'lagoon-isle');
     // The perimeter counts the outer shore and the lagoon shore.
-    const outer: Position[] = [[2, 50], [2.1, 50], [2.1, 50.1], [2, 50.1], [2, 50]];
-    const inner: Position[] = [[2.03, 50.03], [2.03, 50.06], [2.06, 50.06], [2.06, 50.03], [2.03, 50.03]];
+    const outer: Position[] = [
+      [2, 50],
+      [2.1, 50],
+      [2.1, 50.1],
+      [2, 50.1],
+      [2, 50],
+    ];
+    const inner: Position[] = [
+      [2.03, 50.03],
+      [2.03, 50.06],
+      [2.06, 50.06],
+      [2.06, 50.03],
+      [2.03, 50.03],
+    ];
     assertInDelta(isle?.lengthKm ?? 0, haversineKm(outer) + haversineKm(inner), 1e-6);
     expect(scenario.segments.map((s) => s.id)).toEqual(expect.arrayContaining(['skerries', 'lagoon-isle']));
   });
@@ -168,11 +239,37 @@ describe('real coastlines', () => {
 
 describe('line crossings (planar, common practice)', () => {
   test('the unwrapped longitudes step the short way across 180°', () => {
-    expect(unwrapLongitudes([[179.9, 0], [-179.9, 0.1], [-179.8, 0.2]])).toEqual([[179.9, 0], [180.1, 0.1], [180.2, 0.2]]);
+    expect(
+      unwrapLongitudes([
+        [179.9, 0],
+        [-179.9, 0.1],
+        [-179.8, 0.2],
+      ]),
+    ).toEqual([
+      [179.9, 0],
+      [180.1, 0.1],
+      [180.2, 0.2],
+    ]);
   });
 
   test('a line touching itself at a vertex is found; a repeated position is not a crossing', () => {
-    expect(findSelfCrossing([[0, 0], [1, 0], [1, 0], [1, 1]])).toBeNull();
-    expect(findSelfCrossing([[0, 0], [2, 0], [2, 1], [1, 1], [1, 0], [1, -1]])?.at).toEqual([1, 0]);
+    expect(
+      findSelfCrossing([
+        [0, 0],
+        [1, 0],
+        [1, 0],
+        [1, 1],
+      ]),
+    ).toBeNull();
+    expect(
+      findSelfCrossing([
+        [0, 0],
+        [2, 0],
+        [2, 1],
+        [1, 1],
+        [1, 0],
+        [1, -1],
+      ])?.at,
+    ).toEqual([1, 0]);
   });
 });

@@ -25,7 +25,17 @@ async function loadSegments(text: string) {
 
 describe('coastline segments: bad input catalogue', () => {
   test('coordinate out of range (latitude 95)', async () => {
-    const scenario = await loadSegments(withFeatures(feature('bad-lat', { type: 'LineString', coordinates: [[0, 50], [0.1, 95]] })));
+    const scenario = await loadSegments(
+      withFeatures(
+        feature('bad-lat', {
+          type: 'LineString',
+          coordinates: [
+            [0, 50],
+            [0.1, 95],
+          ],
+        }),
+      ),
+    );
     const issue = expectIssue(scenario.report.issues, { code: 'CoordinateOutOfRange', file: segmentsFile, row: 4, column: 'geometry', severity: 'error', excluded: true });
     expect(issue.value).toBe('[0.1, 95]');
     expect(scenario.segments.map((s) => s.id)).toEqual(['north-beach', 'harbour-mouth', 'seal-island']);
@@ -44,7 +54,15 @@ describe('coastline segments: bad input catalogue', () => {
   });
 
   test('self-intersecting line (a figure of eight)', async () => {
-    const eight = { type: 'LineString', coordinates: [[0, 50], [0.1, 50.1], [0.1, 50], [0, 50.1]] };
+    const eight = {
+      type: 'LineString',
+      coordinates: [
+        [0, 50],
+        [0.1, 50.1],
+        [0.1, 50],
+        [0, 50.1],
+      ],
+    };
     const scenario = await loadSegments(withFeatures(feature('figure-eight', eight)));
     // A digitising flaw is a warning: the segment is kept (see real-files.test.ts).
     expectIssue(scenario.report.issues, { code: 'GeometrySelfIntersects', file: segmentsFile, row: 4, column: 'geometry', severity: 'warning', excluded: false });
@@ -52,20 +70,51 @@ describe('coastline segments: bad input catalogue', () => {
   });
 
   test('self-intersecting polygon ring (a bow tie)', async () => {
-    const bowTie = { type: 'Polygon', coordinates: [[[0, 50], [0.1, 50.1], [0.1, 50], [0, 50.1], [0, 50]]] };
+    const bowTie = {
+      type: 'Polygon',
+      coordinates: [
+        [
+          [0, 50],
+          [0.1, 50.1],
+          [0.1, 50],
+          [0, 50.1],
+          [0, 50],
+        ],
+      ],
+    };
     const scenario = await loadSegments(withFeatures(feature('bow-tie', bowTie)));
     expectIssue(scenario.report.issues, { code: 'GeometrySelfIntersects', file: segmentsFile, row: 4, column: 'geometry' });
   });
 
   test('unclosed polygon ring', async () => {
-    const open = { type: 'Polygon', coordinates: [[[0, 50], [0.1, 50], [0.1, 50.1], [0, 50.1]]] };
+    const open = {
+      type: 'Polygon',
+      coordinates: [
+        [
+          [0, 50],
+          [0.1, 50],
+          [0.1, 50.1],
+          [0, 50.1],
+        ],
+      ],
+    };
     const scenario = await loadSegments(withFeatures(feature('open-ring', open)));
     const issue = expectIssue(scenario.report.issues, { code: 'GeometryInvalid', file: segmentsFile, row: 4, column: 'geometry' });
     expect(issue.message).toContain('not closed');
   });
 
   test('a line of zero length', async () => {
-    const scenario = await loadSegments(withFeatures(feature('one-spot', { type: 'LineString', coordinates: [[1, 50], [1, 50]] })));
+    const scenario = await loadSegments(
+      withFeatures(
+        feature('one-spot', {
+          type: 'LineString',
+          coordinates: [
+            [1, 50],
+            [1, 50],
+          ],
+        }),
+      ),
+    );
     const issue = expectIssue(scenario.report.issues, { code: 'GeometryInvalid', file: segmentsFile, row: 4, column: 'geometry', severity: 'error' });
     expect(issue.message).toContain('zero length');
   });
@@ -79,13 +128,30 @@ describe('coastline segments: bad input catalogue', () => {
     const area = geoArea(island?.geometry as GeoJSON.Geometry);
     expect(area).toBeLessThan(1e-6);
     expect(area).toBeGreaterThan(0);
-    const clockwise = { type: 'Polygon', coordinates: [[[1, 50], [1, 50.02], [1.02, 50.02], [1.02, 50], [1, 50]]] };
+    const clockwise = {
+      type: 'Polygon',
+      coordinates: [
+        [
+          [1, 50],
+          [1, 50.02],
+          [1.02, 50.02],
+          [1.02, 50],
+          [1, 50],
+        ],
+      ],
+    };
     const both = await loadSegments(withFeatures(feature('clockwise-isle', clockwise)));
     expect(geoArea(both.segments.find((s) => s.id === 'clockwise-isle')?.geometry as GeoJSON.Geometry)).toBeLessThan(1e-6);
   });
 
   test('id that is not a URL-safe slug, and a duplicate id', async () => {
-    const line = { type: 'LineString', coordinates: [[1, 50], [1.1, 50]] };
+    const line = {
+      type: 'LineString',
+      coordinates: [
+        [1, 50],
+        [1.1, 50],
+      ],
+    };
     const scenario = await loadSegments(withFeatures(feature('Bad Id/..', line), feature('north-beach', line)));
     expectIssue(scenario.report.issues, { code: 'SegmentPropertyInvalid', file: segmentsFile, row: 4, column: 'id', severity: 'error' });
     const duplicate = expectIssue(scenario.report.issues, { code: 'SegmentIdDuplicate', file: segmentsFile, row: 5, column: 'id', severity: 'error' });
@@ -93,7 +159,13 @@ describe('coastline segments: bad input catalogue', () => {
   });
 
   test('unknown kind and shellfish words', async () => {
-    const line = { type: 'LineString', coordinates: [[1, 50], [1.1, 50]] };
+    const line = {
+      type: 'LineString',
+      coordinates: [
+        [1, 50],
+        [1.1, 50],
+      ],
+    };
     const scenario = await loadSegments(withFeatures(feature('odd-words', line, { kind: 'marina', shellfish: 'sometimes' })));
     expectIssue(scenario.report.issues, { code: 'SegmentPropertyInvalid', file: segmentsFile, row: 4, column: 'kind' });
     expectIssue(scenario.report.issues, { code: 'SegmentPropertyInvalid', file: segmentsFile, row: 4, column: 'shellfish' });
@@ -101,7 +173,13 @@ describe('coastline segments: bad input catalogue', () => {
 
   test('HTML or script text in a segment name is kept as text and pointed out', async () => {
     const name = 'Cove <img src=x onerror=alert(1)>';
-    const line = { type: 'LineString', coordinates: [[1, 50], [1.1, 50]] };
+    const line = {
+      type: 'LineString',
+      coordinates: [
+        [1, 50],
+        [1.1, 50],
+      ],
+    };
     const scenario = await loadSegments(withFeatures(feature('script-cove', line, { name })));
     expectIssue(scenario.report.issues, { code: 'MarkupInText', file: segmentsFile, row: 4, column: 'name', severity: 'warning', excluded: false });
     expect(scenario.segments.find((s) => s.id === 'script-cove')?.name).toBe(name);
@@ -125,7 +203,13 @@ describe('geodesic segment length', () => {
   test('one degree of latitude along a meridian is 111.195 km', async () => {
     // 2πR/360 with the mean Earth radius R = 6371.0088 km (IUGG, Moritz 1980) = 111.1951 km;
     // commonly quoted as "1° of latitude ≈ 111.2 km" (from memory; it varies 110.6–111.7 km on the ellipsoid).
-    const meridian = { type: 'LineString', coordinates: [[0, 10], [0, 11]] };
+    const meridian = {
+      type: 'LineString',
+      coordinates: [
+        [0, 10],
+        [0, 11],
+      ],
+    };
     const scenario = await loadSegments(withFeatures(feature('meridian', meridian)));
     assertInDelta(scenario.segments.find((s) => s.id === 'meridian')?.lengthKm, 111.1951, 1e-3);
   });
@@ -133,7 +217,13 @@ describe('geodesic segment length', () => {
   test('one minute of latitude is close to one nautical mile (1.852 km)', async () => {
     // The international nautical mile, 1852 m, was defined as about one minute of latitude
     // (International Hydrographic Conference 1929; from memory). On the sphere: 1.85325 km.
-    const minute = { type: 'LineString', coordinates: [[3, 45], [3, 45 + 1 / 60]] };
+    const minute = {
+      type: 'LineString',
+      coordinates: [
+        [3, 45],
+        [3, 45 + 1 / 60],
+      ],
+    };
     const scenario = await loadSegments(withFeatures(feature('one-minute', minute)));
     assertInDelta(scenario.segments.find((s) => s.id === 'one-minute')?.lengthKm, 1.852, 0.002);
   });

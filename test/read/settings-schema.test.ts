@@ -11,7 +11,9 @@ describe('schema/scenario.schema.json', () => {
   });
 
   test('lists the required settings and the drift defaults', () => {
-    const schema = JSON.parse(settingsJsonSchemaText()) as { definitions: { WracklineScenarioSettings: { required: string[]; properties: { drift: { properties: { arrivalDistanceKm: { default: number } } } } } } };
+    const schema = JSON.parse(settingsJsonSchemaText()) as {
+      definitions: { WracklineScenarioSettings: { required: string[]; properties: { drift: { properties: { arrivalDistanceKm: { default: number } } } } } };
+    };
     const root = schema.definitions.WracklineScenarioSettings;
     expect(root.required.sort()).toEqual(['authorities', 'publications', 'publisher', 'region']);
     expect(root.properties.drift.properties.arrivalDistanceKm.default).toBe(2);

@@ -51,11 +51,13 @@ describe('monitoring tables: bad input catalogue', () => {
   });
 
   test('unit not the one this indicator uses: surveyed length declared in km', async () => {
-    const dir = scenarioCopy({ descriptor: (d) => {
-      const fields = (resourceNamed(d, 'beach-litter')['schema'] as { fields: { name: string; unit?: string }[] }).fields;
-      const field = fields.find((f) => f.name === 'surveyed_length_m');
-      if (field) field.unit = 'km';
-    } });
+    const dir = scenarioCopy({
+      descriptor: (d) => {
+        const fields = (resourceNamed(d, 'beach-litter')['schema'] as { fields: { name: string; unit?: string }[] }).fields;
+        const field = fields.find((f) => f.name === 'surveyed_length_m');
+        if (field) field.unit = 'km';
+      },
+    });
     const scenario = await loadScenario(dir);
     const issue = expectIssue(scenario.report.issues, { code: 'UnitMismatch', file: beach, row: 1, column: 'surveyed_length_m', severity: 'error', excluded: true });
     expect(issue.value).toBe('km');
@@ -63,24 +65,28 @@ describe('monitoring tables: bad input catalogue', () => {
   });
 
   test('unit not declared: read in the expected unit with a warning', async () => {
-    const dir = scenarioCopy({ descriptor: (d) => {
-      const fields = (resourceNamed(d, 'beach-litter')['schema'] as { fields: { name: string; unit?: string }[] }).fields;
-      const field = fields.find((f) => f.name === 'surveyed_length_m');
-      if (field) delete field.unit;
-    } });
+    const dir = scenarioCopy({
+      descriptor: (d) => {
+        const fields = (resourceNamed(d, 'beach-litter')['schema'] as { fields: { name: string; unit?: string }[] }).fields;
+        const field = fields.find((f) => f.name === 'surveyed_length_m');
+        if (field) delete field.unit;
+      },
+    });
     const scenario = await loadScenario(dir);
     expectIssue(scenario.report.issues, { code: 'UnitMismatch', file: beach, row: 1, column: 'surveyed_length_m', severity: 'warning', excluded: false });
     expect(countsOf(scenario, beach)?.kept).toBe(5);
   });
 
   test('equivalent unit spellings are accepted (µm for um, m³ for m3)', async () => {
-    const dir = scenarioCopy({ descriptor: (d) => {
-      const fields = (resourceNamed(d, 'water-microplastics')['schema'] as { fields: { name: string; unit?: string }[] }).fields;
-      for (const f of fields) {
-        if (f.name === 'mesh_um') f.unit = 'µm';
-        if (f.name === 'particles_per_m3') f.unit = 'particles per m³';
-      }
-    } });
+    const dir = scenarioCopy({
+      descriptor: (d) => {
+        const fields = (resourceNamed(d, 'water-microplastics')['schema'] as { fields: { name: string; unit?: string }[] }).fields;
+        for (const f of fields) {
+          if (f.name === 'mesh_um') f.unit = 'µm';
+          if (f.name === 'particles_per_m3') f.unit = 'particles per m³';
+        }
+      },
+    });
     const scenario = await loadScenario(dir);
     expect(scenario.report.issues).toEqual([]);
   });
@@ -155,7 +161,9 @@ describe('monitoring tables: bad input catalogue', () => {
   });
 
   test('CR LF line ends: read as ordinary line ends', async () => {
-    const scenario = await loadScenario(scenarioCopy({ files: { [beach]: `${beachHeader}\r\nBL-1,north-beach,2026-01-15,100,12,,\r\nBL-2,north-beach,2026-01-16,50,12,3,40\r\n` } }));
+    const scenario = await loadScenario(
+      scenarioCopy({ files: { [beach]: `${beachHeader}\r\nBL-1,north-beach,2026-01-15,100,12,,\r\nBL-2,north-beach,2026-01-16,50,12,3,40\r\n` } }),
+    );
     expectIssue(scenario.report.issues, { code: 'WindowsLineEnds', file: beach, row: 1, severity: 'warning' });
     const records = scenario.records.filter((r) => r.indicator === 'beach-litter');
     expect(records.map((r) => r.value)).toEqual([12, 24]);
@@ -172,9 +180,12 @@ describe('monitoring tables: bad input catalogue', () => {
 
   test('semicolons and decimal commas declared in the dialect: read correctly', async () => {
     const text = `${beachHeader.replaceAll(',', ';')}\nBL-1;north-beach;2026-01-15;85,5;12;;\n`;
-    const dir = scenarioCopy({ files: { [beach]: text }, descriptor: (d) => {
-      resourceNamed(d, 'beach-litter')['dialect'] = { delimiter: ';', header: true, decimalChar: ',' };
-    } });
+    const dir = scenarioCopy({
+      files: { [beach]: text },
+      descriptor: (d) => {
+        resourceNamed(d, 'beach-litter')['dialect'] = { delimiter: ';', header: true, decimalChar: ',' };
+      },
+    });
     const scenario = await loadScenario(dir);
     expect(scenario.report.issues).toEqual([]);
     const record = scenario.records.find((r) => r.indicator === 'beach-litter');
@@ -183,9 +194,12 @@ describe('monitoring tables: bad input catalogue', () => {
 
   test('decimal comma in a semicolon file without decimalChar: reported on the cell', async () => {
     const text = `${beachHeader.replaceAll(',', ';')}\nBL-1;north-beach;2026-01-15;85,5;12;;\n`;
-    const dir = scenarioCopy({ files: { [beach]: text }, descriptor: (d) => {
-      resourceNamed(d, 'beach-litter')['dialect'] = { delimiter: ';', header: true };
-    } });
+    const dir = scenarioCopy({
+      files: { [beach]: text },
+      descriptor: (d) => {
+        resourceNamed(d, 'beach-litter')['dialect'] = { delimiter: ';', header: true };
+      },
+    });
     const scenario = await loadScenario(dir);
     expectIssue(scenario.report.issues, { code: 'DecimalCommaFound', file: beach, row: 2, column: 'surveyed_length_m', excluded: true });
   });
@@ -217,7 +231,10 @@ describe('monitoring tables: bad input catalogue', () => {
   test('below-detection values are kept as censored at the detection limit', async () => {
     const scenario = await loadScenario(scenarioCopy());
     const censored = scenario.records.filter((r) => r.censored).map((r) => [r.indicator, r.value]);
-    expect(censored).toEqual([['shellfish-tissue', 0.08], ['water-microplastics', 0.05]]);
+    expect(censored).toEqual([
+      ['shellfish-tissue', 0.08],
+      ['water-microplastics', 0.05],
+    ]);
   });
 
   test('a value outside an enum', async () => {

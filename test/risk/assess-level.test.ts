@@ -40,9 +40,7 @@ describe('levels from the default rule table', () => {
     const notClaimed = assessLevel(defaultRiskRules, { 'beach-litter': measures({ probabilityUp: 0.97, direction: 'no-clear-direction' }) });
     expect(notClaimed.id).toBe('scant');
     const claimed = assessLevel(defaultRiskRules, { 'beach-litter': measures({ probabilityUp: 0.97, direction: 'rising' }) });
-    expect(claimed.hits).toEqual([
-      { ruleId: 'litter-rise-likely', level: 'noticeable', text: 'Beach litter is going up, and the chance of a rise is 97 in 100.' },
-    ]);
+    expect(claimed.hits).toEqual([{ ruleId: 'litter-rise-likely', level: 'noticeable', text: 'Beach litter is going up, and the chance of a rise is 97 in 100.' }]);
   });
   test('the highest matching rule wins', () => {
     const level = assessLevel(defaultRiskRules, {

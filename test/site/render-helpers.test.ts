@@ -19,12 +19,42 @@ const hostile = '<script>alert(1)</script>"><img src=x onerror=alert(2)>';
 
 describe('renderMap', () => {
   const segments = [
-    { id: 'a', name: `North ${hostile}`, level: 'heavy' as const, levelLabel: 'Heavy', geometry: { type: 'LineString' as const, coordinates: [[-5.4, 51.0], [-5.3, 51.05]] } },
-    { id: 'b', name: 'South', level: 'scant' as const, levelLabel: 'Scant', geometry: { type: 'LineString' as const, coordinates: [[-5.3, 51.05], [-5.2, 51.1]] } },
+    {
+      id: 'a',
+      name: `North ${hostile}`,
+      level: 'heavy' as const,
+      levelLabel: 'Heavy',
+      geometry: {
+        type: 'LineString' as const,
+        coordinates: [
+          [-5.4, 51.0],
+          [-5.3, 51.05],
+        ],
+      },
+    },
+    {
+      id: 'b',
+      name: 'South',
+      level: 'scant' as const,
+      levelLabel: 'Scant',
+      geometry: {
+        type: 'LineString' as const,
+        coordinates: [
+          [-5.3, 51.05],
+          [-5.2, 51.1],
+        ],
+      },
+    },
   ];
   // RFC 7946 §3.1.6: exterior rings counter-clockwise (right-hand rule) — the opposite of
   // d3-geo's spherical convention, where such a ring is the rest of the globe.
-  const ccwHull: [number, number][] = [[-5.35, 50.95], [-5.25, 50.95], [-5.25, 51.0], [-5.35, 51.0], [-5.35, 50.95]];
+  const ccwHull: [number, number][] = [
+    [-5.35, 50.95],
+    [-5.25, 50.95],
+    [-5.25, 51.0],
+    [-5.35, 51.0],
+    [-5.35, 50.95],
+  ];
   const zone = { id: 'zone-1', lon: -5.3, lat: 50.97, particles: 100, radiusKm: 3, hull: ccwHull };
 
   it('escapes input names inside <title> and keeps the SVG well formed', () => {
@@ -60,7 +90,14 @@ describe('renderMap', () => {
   });
 
   it('links each segment and its badge to its bulletin when asked, outside the tab order', () => {
-    const svg = renderMap({ idPrefix: 'm', title: 't', description: 'd', segments: prepareSegments(segments), zones: [{ ...zone, radiusKm: 10.496393620584156, particles: 1234 }], linkOf: (id) => `/segments/${id}/?x=1&y=2` });
+    const svg = renderMap({
+      idPrefix: 'm',
+      title: 't',
+      description: 'd',
+      segments: prepareSegments(segments),
+      zones: [{ ...zone, radiusKm: 10.496393620584156, particles: 1234 }],
+      linkOf: (id) => `/segments/${id}/?x=1&y=2`,
+    });
     const { document } = parseHTML(`<!doctype html><html><body>${svg}</body></html>`);
     // links inside an image would be hidden from assistive technology: the map is a group then
     expect(document.querySelector('svg')?.getAttribute('role')).toBe('group');
@@ -129,7 +166,13 @@ describe('chart axes and trend marks', () => {
     threshold: null,
     direction: 'rising',
     seasonsDisagree: false,
-    observations: values.map((value, i) => ({ date: `${2017 + Math.floor(i / 4)}-0${1 + (i % 4) * 2}-15`, t: 2017 + i / 4 + 0.1, season: `${2017 + Math.floor(i / 4)}-spring`, value, censored: false })),
+    observations: values.map((value, i) => ({
+      date: `${2017 + Math.floor(i / 4)}-0${1 + (i % 4) * 2}-15`,
+      t: 2017 + i / 4 + 0.1,
+      season: `${2017 + Math.floor(i / 4)}-spring`,
+      value,
+      censored: false,
+    })),
   });
 
   it('gives counts whole-number ticks only (animals cannot be fractional)', () => {
@@ -193,7 +236,15 @@ describe('dateFromDecimalYear', () => {
 describe('CSV downloads', () => {
   // RFC 4180 §2: fields holding commas, quotes or line breaks are quoted, quotes doubled; CRLF ends records.
   it('quotes per RFC 4180 and defuses spreadsheet formulas in text cells (common practice)', () => {
-    expect(toCsv(['a', 'b'], [['x,y', 'say "hi"'], ['=SUM(A1)', -2]])).toBe('a,b\r\n"x,y","say ""hi"""\r\n\'=SUM(A1),-2\r\n');
+    expect(
+      toCsv(
+        ['a', 'b'],
+        [
+          ['x,y', 'say "hi"'],
+          ['=SUM(A1)', -2],
+        ],
+      ),
+    ).toBe('a,b\r\n"x,y","say ""hi"""\r\n\'=SUM(A1),-2\r\n');
   });
 
   it('writes one row per observation of every indicator', () => {

@@ -36,10 +36,19 @@ let profileDir = '';
 const consoleProblems: string[] = [];
 
 const types: Record<string, string> = {
-  '.html': 'text/html; charset=utf-8', '.css': 'text/css; charset=utf-8', '.js': 'text/javascript; charset=utf-8',
-  '.json': 'application/json; charset=utf-8', '.csv': 'text/csv; charset=utf-8', '.xml': 'application/atom+xml; charset=utf-8',
-  '.svg': 'image/svg+xml', '.png': 'image/png', '.wasm': 'application/wasm', '.pf_meta': 'application/octet-stream',
-  '.pf_index': 'application/octet-stream', '.pf_fragment': 'application/octet-stream', '.pagefind': 'application/octet-stream',
+  '.html': 'text/html; charset=utf-8',
+  '.css': 'text/css; charset=utf-8',
+  '.js': 'text/javascript; charset=utf-8',
+  '.json': 'application/json; charset=utf-8',
+  '.csv': 'text/csv; charset=utf-8',
+  '.xml': 'application/atom+xml; charset=utf-8',
+  '.svg': 'image/svg+xml',
+  '.png': 'image/png',
+  '.wasm': 'application/wasm',
+  '.pf_meta': 'application/octet-stream',
+  '.pf_index': 'application/octet-stream',
+  '.pf_fragment': 'application/octet-stream',
+  '.pagefind': 'application/octet-stream',
 };
 
 /** Serves `dir` read-only: folders answer with their index.html, unknown paths with 404.html. */
@@ -66,10 +75,12 @@ function serve(dir: string): Promise<{ server: Server; origin: string }> {
     }
     response.writeHead(200, { 'Content-Type': types[extname(file)] ?? 'application/octet-stream' }).end(readFileSync(file));
   });
-  return new Promise((done) => srv.listen(0, '127.0.0.1', () => {
-    const address = srv.address();
-    done({ server: srv, origin: `http://127.0.0.1:${typeof address === 'object' && address ? address.port : 0}` });
-  }));
+  return new Promise((done) =>
+    srv.listen(0, '127.0.0.1', () => {
+      const address = srv.address();
+      done({ server: srv, origin: `http://127.0.0.1:${typeof address === 'object' && address ? address.port : 0}` });
+    }),
+  );
 }
 
 async function buildSite(): Promise<string> {
@@ -196,7 +207,9 @@ describe.skipIf(!haveBrowser)('published site in a real browser', () => {
     const broken = pages.filter((p) => p.status !== 200).map((p) => `${p.url} → ${p.status}`);
     expect(broken).toEqual([]);
     const reached = new Set(pages.map((p) => p.url));
-    const built = htmlPages(siteDir).filter((f) => f !== '404.html').map((f) => `/${f.replace(/index\.html$/, '')}`);
+    const built = htmlPages(siteDir)
+      .filter((f) => f !== '404.html')
+      .map((f) => `/${f.replace(/index\.html$/, '')}`);
     expect(built.filter((u) => !reached.has(u))).toEqual([]);
     expect(firstBulletin).not.toBe('');
   });
@@ -207,7 +220,10 @@ describe.skipIf(!haveBrowser)('published site in a real browser', () => {
 
   it('passes axe-core WCAG 2.1 A and AA with zero violations on the key pages', async () => {
     const axeSource = readFileSync(require.resolve('axe-core/axe.min.js'), 'utf8');
-    const extra = pages.map((p) => p.url).filter((u) => /^\/seasons\/[^/]+\/$/.test(u) || u.startsWith('/embed/')).slice(0, 2);
+    const extra = pages
+      .map((p) => p.url)
+      .filter((u) => /^\/seasons\/[^/]+\/$/.test(u) || u.startsWith('/embed/'))
+      .slice(0, 2);
     const targets = ['/', firstBulletin, '/seasons/', '/methods/', '/validation/', '/search/', ...extra];
     const results: Record<string, string[]> = {};
     for (const url of targets) {
@@ -217,7 +233,13 @@ describe.skipIf(!haveBrowser)('published site in a real browser', () => {
       const violations = await page.evaluate(async () => {
         const axe = (globalThis as unknown as { axe: { run: (ctx: unknown, opts: unknown) => Promise<{ violations: { id: string; nodes: { target: string[] }[] }[] }> } }).axe;
         const result = await axe.run(document, { runOnly: { type: 'tag', values: ['wcag2a', 'wcag2aa', 'wcag21a', 'wcag21aa'] } });
-        return result.violations.map((v) => `${v.id}: ${v.nodes.slice(0, 3).map((n) => n.target.join(' ')).join(' | ')}`);
+        return result.violations.map(
+          (v) =>
+            `${v.id}: ${v.nodes
+              .slice(0, 3)
+              .map((n) => n.target.join(' '))
+              .join(' | ')}`,
+        );
       });
       results[url] = violations;
       await page.close();
@@ -232,12 +254,18 @@ describe.skipIf(!haveBrowser)('published site in a real browser', () => {
       const found = await page.evaluate(() => {
         const rects = [...document.querySelectorAll('svg.map .badge circle, svg.map .place-label, svg.map .zone-label')].map((n) => n.getBoundingClientRect());
         const overlaps: string[] = [];
-        for (let i = 0; i < rects.length; i++) for (let j = i + 1; j < rects.length; j++) {
-          const a = rects[i]!;
-          const b = rects[j]!;
-          if (a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom) overlaps.push(`${i}×${j}`);
-        }
-        return { badges: document.querySelectorAll('svg.map .badge').length, places: document.querySelectorAll('svg.map .place-label').length, land: document.querySelectorAll('svg.map path.land').length, overlaps };
+        for (let i = 0; i < rects.length; i++)
+          for (let j = i + 1; j < rects.length; j++) {
+            const a = rects[i]!;
+            const b = rects[j]!;
+            if (a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom) overlaps.push(`${i}×${j}`);
+          }
+        return {
+          badges: document.querySelectorAll('svg.map .badge').length,
+          places: document.querySelectorAll('svg.map .place-label').length,
+          land: document.querySelectorAll('svg.map path.land').length,
+          overlaps,
+        };
       });
       await page.close();
       if (!process.env['WRACKLINE_TEST_SITE'] && !process.env['WRACKLINE_TEST_MODEL']) {
@@ -253,12 +281,22 @@ describe.skipIf(!haveBrowser)('published site in a real browser', () => {
   it('has no horizontal overflow at 390×844 and 1280×800, and saves screenshots', async () => {
     const htmlUrls = pages.filter((p) => p.url.endsWith('/')).map((p) => p.url);
     const overflow: string[] = [];
-    const named: Record<string, string> = { '/': 'overview', [firstBulletin]: 'bulletin', '/seasons/': 'archive', '/methods/': 'methods', '/validation/': 'validation', '/search/': 'search' };
+    const named: Record<string, string> = {
+      '/': 'overview',
+      [firstBulletin]: 'bulletin',
+      '/seasons/': 'archive',
+      '/methods/': 'methods',
+      '/validation/': 'validation',
+      '/search/': 'search',
+    };
     const embed = htmlUrls.find((u) => u.startsWith('/embed/'));
     if (embed) named[embed] = 'embed';
     const archived = htmlUrls.find((u) => /^\/seasons\/[^/]+\/[^/]+\/$/.test(u) && !u.includes(pages.find((p) => p.url === firstBulletin)?.url ?? '§'));
     if (archived) named[archived] = 'bulletin-permalink';
-    for (const [width, height] of [[390, 844], [1280, 800]] as const) {
+    for (const [width, height] of [
+      [390, 844],
+      [1280, 800],
+    ] as const) {
       const page = await context!.newPage();
       await page.setViewportSize({ width, height });
       for (const url of htmlUrls.slice(0, 400)) {
@@ -297,7 +335,10 @@ describe.skipIf(!haveBrowser)('published site in a real browser', () => {
   });
 
   it('prints every current bulletin on at most two A4 pages', async () => {
-    const bulletins = pages.map((p) => p.url).filter((u) => /^\/segments\/[^/]+\/$/.test(u)).slice(0, 60);
+    const bulletins = pages
+      .map((p) => p.url)
+      .filter((u) => /^\/segments\/[^/]+\/$/.test(u))
+      .slice(0, 60);
     const page = await context!.newPage();
     const counts: Record<string, number> = {};
     for (const url of bulletins) {
@@ -362,7 +403,10 @@ describe.skipIf(!haveBrowser)('published site in a real browser', () => {
   it('opens a bulletin when a segment is tapped on the overview map (phone)', async () => {
     const { page } = await openPage('/');
     await page.setViewportSize({ width: 390, height: 844 });
-    const link = page.locator('svg.map a').filter({ has: page.locator('.badge') }).first();
+    const link = page
+      .locator('svg.map a')
+      .filter({ has: page.locator('.badge') })
+      .first();
     const href = await link.getAttribute('href');
     expect(href).toMatch(/^\/segments\/[^/]+\/$/);
     expect(await link.getAttribute('tabindex')).toBe('-1');

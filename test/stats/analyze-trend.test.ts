@@ -54,7 +54,10 @@ describe('analyzeTrend', () => {
   });
 
   test('all censored: slope not estimable, "most values are below the detection limit"', () => {
-    const r = analyzeTrend(series(Array(10).fill(0.5)).map((p) => ({ ...p, censored: true })), {});
+    const r = analyzeTrend(
+      series(Array(10).fill(0.5)).map((p) => ({ ...p, censored: true })),
+      {},
+    );
     expect(r.nCensored).toBe(10);
     expect(r.sen?.slope).toBeNull();
     expect(r.sen?.notEstimable).toBe('most values are below the detection limit');
@@ -88,7 +91,15 @@ describe('analyzeTrend', () => {
   });
 
   test('NaN or Infinity is rejected with a clear error', () => {
-    expect(() => analyzeTrend([{ t: 1, value: 1 }, { t: 2, value: Number.NaN }], {})).toThrow('analyzeTrend requires finite values; point 1 has value NaN');
+    expect(() =>
+      analyzeTrend(
+        [
+          { t: 1, value: 1 },
+          { t: 2, value: Number.NaN },
+        ],
+        {},
+      ),
+    ).toThrow('analyzeTrend requires finite values; point 1 has value NaN');
     expect(() => analyzeTrend([{ t: Infinity, value: 1 }], {})).toThrow('analyzeTrend requires finite times; point 0 has time Infinity');
   });
 

@@ -22,7 +22,7 @@ describe('benjaminiHochberg', () => {
   test('order of the input is kept', () => {
     const shuffled = [pValues[9], pValues[0], pValues[3]] as number[];
     const adjusted = benjaminiHochberg(shuffled);
-    expect(adjusted).toEqual([0.324 * 3 / 3, 0.0001 * 3, 0.0095 * 3 / 2]);
+    expect(adjusted).toEqual([(0.324 * 3) / 3, 0.0001 * 3, (0.0095 * 3) / 2]);
   });
   test('empty input and bad p-values', () => {
     expect(benjaminiHochberg([])).toEqual([]);

@@ -18,7 +18,7 @@ describe('mannKendall', () => {
     expect(r.S).toBe(45);
     expect(r.varS).toBe(125);
     assertInDelta(r.z, 3.93548, 5e-6); // 44/√125 = 3.935480
-    assertInDelta(r.p, 8.30e-5, 5e-8); // two-sided, continuity corrected
+    assertInDelta(r.p, 8.3e-5, 5e-8); // two-sided, continuity corrected
     expect(r.tau).toBe(1);
     // exact: only the identity order reaches S = 45 in each tail: 2/10!
     assertInDelta(r.pExact, 2 / 3628800, 1e-15);

@@ -19,7 +19,10 @@ const seriesArbitrary = fc
       fc.record({
         gap: fc.integer({ min: 0, max: 3 }), // 0 = same time as the previous point
         // measurement-like numbers with 6 decimals (slopes closer than ~1e-12 of the range are outside the selection's scope)
-        value: fc.oneof(fc.integer({ min: -3, max: 3 }), fc.double({ min: -100, max: 100, noNaN: true }).map((v) => Math.round(v * 1e6) / 1e6)),
+        value: fc.oneof(
+          fc.integer({ min: -3, max: 3 }),
+          fc.double({ min: -100, max: 100, noNaN: true }).map((v) => Math.round(v * 1e6) / 1e6),
+        ),
         missing: fc.boolean(),
         censored: fc.integer({ min: 0, max: 5 }),
       }),

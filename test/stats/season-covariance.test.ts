@@ -29,9 +29,12 @@ describe('totalSeasonCovariance (Hirsch & Slack 1984 eq. 7)', () => {
 
   test('one pair equals the oracle exactly', () => {
     fc.assert(
-      fc.property(table.filter((t) => t.length >= 2), (cells) => {
-        expect(seasonCovariance(cells[0] as CycleCell[], cells[1] as CycleCell[])).toBe(seasonCovarianceOracle(cells[0] as CycleCell[], cells[1] as CycleCell[]));
-      }),
+      fc.property(
+        table.filter((t) => t.length >= 2),
+        (cells) => {
+          expect(seasonCovariance(cells[0] as CycleCell[], cells[1] as CycleCell[])).toBe(seasonCovarianceOracle(cells[0] as CycleCell[], cells[1] as CycleCell[]));
+        },
+      ),
       { numRuns: 300 },
     );
   });

@@ -26,7 +26,7 @@ function tableGroups(name: 'nottem' | 'co2'): SeasonGroup[] {
 }
 
 describe('seasonalKendall', () => {
-  test("USEPA 2009 Example 14-10: S′ 35, Var 43, z 5.184951, p 2.160712e-07, tau 0.9722222, slope 0.06, CI 0.05786914–0.07213086, χ²het 0.1071882 df 11 (EnvStats kendallSeasonalTrendTest)", () => {
+  test('USEPA 2009 Example 14-10: S′ 35, Var 43, z 5.184951, p 2.160712e-07, tau 0.9722222, slope 0.06, CI 0.05786914–0.07213086, χ²het 0.1071882 df 11 (EnvStats kendallSeasonalTrendTest)', () => {
     const r = seasonalKendall(monthlyGroups());
     expect(r.S).toBe(35);
     assertInDelta(r.varS, 43, 1e-9);
@@ -81,7 +81,11 @@ describe('seasonalKendall against SciPy mstats.kendalltau_seasonal (SciPy 1.10.1
       assertInDelta(r.tau, ref['global tau (alt)'], 1e-12);
       // Convention: SciPy's "chi2 total" uses continuity-corrected seasonal z; recompute it from our S_g, Var(S_g)
       const corrected = r.seasons.map((s) => (Math.sign(s.S) * (Math.abs(s.S) - 1)) / Math.sqrt(s.varS));
-      assertInDelta(corrected.reduce((sum, z) => sum + z * z, 0), ref['chi2 total'], 1e-9 * ref['chi2 total']);
+      assertInDelta(
+        corrected.reduce((sum, z) => sum + z * z, 0),
+        ref['chi2 total'],
+        1e-9 * ref['chi2 total'],
+      );
     });
   }
 });

@@ -48,7 +48,7 @@ describe('sensSlope', () => {
   });
 });
 
-describe("sensSlope against SciPy theilslopes (SciPy 1.10.1, committed)", () => {
+describe('sensSlope against SciPy theilslopes (SciPy 1.10.1, committed)', () => {
   // SciPy: same median slope, Conover intercept ("separate"), interval from ROUNDED ranks.
   // Convention: we interpolate Gilbert's ranks; here we check our selection at SciPy's own ranks.
   for (const name of ['Nile', 'LakeHuron', 'nottem', 'co2', 'NileHundreds'] as const) {

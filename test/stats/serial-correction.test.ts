@@ -39,7 +39,13 @@ describe('case 6, a serial-correlation figure that is not stable', () => {
   test('case 6: the same 12 values give the same Hamed–Rao factor with whole years and with ISO dates', () => {
     // Exactly linear series: before, ranks of the detrended values were decided by rounding noise and
     // the factor was 1, 1.20 or 1.29 depending on the time format (seen on this code before the fix).
-    for (const [step, start] of [[0.1, 0.3], [0.7, 1.1], [1.3, 0.2], [0.01, 0.05], [2.2, 0.1]] as const) {
+    for (const [step, start] of [
+      [0.1, 0.3],
+      [0.7, 1.1],
+      [1.3, 0.2],
+      [0.01, 0.05],
+      [2.2, 0.1],
+    ] as const) {
       const values = Array.from({ length: 12 }, (_, i) => Number((start + step * i).toFixed(4)));
       const factors = new Set<number>();
       const ps = new Set<number | null>();
@@ -50,7 +56,10 @@ describe('case 6, a serial-correlation figure that is not stable', () => {
         (year) => decimalYear(`${year}-03-15`),
       ];
       for (const time of formats) {
-        const r = analyzeTrend(values.map((value, i) => ({ t: time(2015 + i), value })), {});
+        const r = analyzeTrend(
+          values.map((value, i) => ({ t: time(2015 + i), value })),
+          {},
+        );
         factors.add(r.serialCorrection?.factor ?? NaN);
         ps.add(r.serialCorrection?.p ?? null);
       }

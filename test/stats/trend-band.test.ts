@@ -21,7 +21,7 @@ describe('trendBand', () => {
     expect(a?.band.lower).not.toEqual(c?.band.lower);
   });
 
-  test('the band brackets the Theil–Sen fit, whose slope is Sen\'s slope', () => {
+  test("the band brackets the Theil–Sen fit, whose slope is Sen's slope", () => {
     const r = trendBand(t, y, { resamples: 300, seed: 5 });
     const sen = sensSlope(t, y);
     expect(r).not.toBeNull();

@@ -80,7 +80,7 @@ describe('wrackline trend', () => {
     expect(out).toContain("Sen's slope: 0.567 per unit of time (95% interval 0.323 to 0.87)");
   });
 
-  test('case 7: the readable output starts with a plain verdict in the bulletins\' words, per year for years', async () => {
+  test("case 7: the readable output starts with a plain verdict in the bulletins' words, per year for years", async () => {
     // D. Little, "A Mann-Kendall Example (By Hand)": S = 54, two-sided p = 0.00366, Sen 0.566667
     const file = csv('little-years.csv', `time,value\n${littleValues.map((v, i) => `${2013 + i},${v}`).join('\n')}\n`);
     const { code, out } = await run([file]);
@@ -100,7 +100,9 @@ describe('wrackline trend', () => {
     expect(named.out).not.toContain('Note:');
     const first = await run([csv('first-two.csv', `year,count\n${littleValues.map((v, i) => `${2013 + i},${v}`).join('\n')}\n`)]);
     expect(first.code).toBe(0);
-    expect(first.out).toContain('Note: no column is named time or value, so the first two columns are used: "year" as the time and "count" as the value (name them with --time and --value).');
+    expect(first.out).toContain(
+      'Note: no column is named time or value, so the first two columns are used: "year" as the time and "count" as the value (name them with --time and --value).',
+    );
     const missing = await run([csv('missing.csv', 'year,count\n1,2\n'), '--value', 'items']);
     expect(missing.code).toBe(2);
     expect(missing.err).toContain('it has no column "items" (--value)');

@@ -25,7 +25,13 @@ describe('analyzeInPool', () => {
     options: { confidence: 0.95, seasonal: i % 2 === 0, bootstrap: i % 5 === 4 ? false : { resamples: 200, seed: 1000 + i } },
   }));
   // a request the engine refuses (a value that is not a finite number)
-  requests.splice(17, 0, { points: [{ t: 2020, value: Number.NaN }, { t: 2021, value: 1 }], options: { confidence: 0.95 } });
+  requests.splice(17, 0, {
+    points: [
+      { t: 2020, value: Number.NaN },
+      { t: 2021, value: 1 },
+    ],
+    options: { confidence: 0.95 },
+  });
 
   test('gives byte-identical outcomes in request order, errors included', { timeout: 60_000 }, () => {
     const alone = analyzeInOrder(requests);

@@ -18,18 +18,12 @@ export interface CliRun {
 export function runCli(args: string[], env: NodeJS.ProcessEnv = {}, options: { lock?: boolean } = {}): Promise<CliRun> {
   const entry = path.join(packageRoot, 'bin', 'wrackline.mjs');
   const lock = '/tmp/astro.lock';
-  const [command, argv] = options.lock !== false && existsSync('/usr/bin/flock')
-    ? ['/usr/bin/flock', [lock, process.execPath, entry, ...args]]
-    : [process.execPath, [entry, ...args]];
+  const [command, argv] =
+    options.lock !== false && existsSync('/usr/bin/flock') ? ['/usr/bin/flock', [lock, process.execPath, entry, ...args]] : [process.execPath, [entry, ...args]];
   return new Promise((resolve) => {
-    execFile(
-      command,
-      argv,
-      { cwd: packageRoot, env: { ...process.env, CI: 'true', ...env }, maxBuffer: 64 * 1024 * 1024 },
-      (error, stdout, stderr) => {
-        const code = error ? (typeof error.code === 'number' ? error.code : 1) : 0;
-        resolve({ code, stdout, stderr });
-      },
-    );
+    execFile(command, argv, { cwd: packageRoot, env: { ...process.env, CI: 'true', ...env }, maxBuffer: 64 * 1024 * 1024 }, (error, stdout, stderr) => {
+      const code = error ? (typeof error.code === 'number' ? error.code : 1) : 0;
+      resolve({ code, stdout, stderr });
+    });
   });
 }

@@ -61,16 +61,12 @@ export function fakeModel(options: FakeOptions = {}): ModelSet {
     invented: true,
     seasons: seasons.map((id, index) => ({ id, label: id, start: '', end: '', published: '', current: index === seasons.length - 1 })),
   } as unknown as SiteModel;
-  const regions = seasons.map(
-    (id) => ({ schemaVersion: 1, season: { id }, segments: segments.map((segment) => ({ id: segment })) }) as unknown as RegionSummary,
-  );
+  const regions = seasons.map((id) => ({ schemaVersion: 1, season: { id }, segments: segments.map((segment) => ({ id: segment })) }) as unknown as RegionSummary);
   const bulletins: Bulletin[] = [];
   for (const season of seasons) {
     for (const segment of segments) {
       const key = `${season}/${segment}`;
-      const correction = options.corrected?.includes(key)
-        ? (options.corrections ?? []).find((item) => item.season === season) ?? null
-        : null;
+      const correction = options.corrected?.includes(key) ? ((options.corrections ?? []).find((item) => item.season === season) ?? null) : null;
       bulletins.push({
         schemaVersion: 1,
         season: { id: season, label: season },
@@ -122,9 +118,7 @@ export function fakeSteps(options: FakeStepOptions = {}): BuildSteps {
     render: async ({ outDir, onPage, modelDir }) => {
       const { readdir, readFile } = await import('node:fs/promises');
       const site = JSON.parse(await readFile(path.join(modelDir, 'site.json'), 'utf8')) as SiteModel;
-      const pages: { file: string; html: string }[] = [
-        { file: 'index.html', html: page('Overview', '<h1>Invented coast</h1>', options.extraHead) },
-      ];
+      const pages: { file: string; html: string }[] = [{ file: 'index.html', html: page('Overview', '<h1>Invented coast</h1>', options.extraHead) }];
       for (const season of site.seasons) {
         const folder = path.join(modelDir, 'bulletins', season.id);
         for (const name of (await readdir(folder)).sort()) {
