@@ -22,12 +22,16 @@ export const likelihoodMethodSentence =
 export const roundingMethodSentence =
   'A yearly rate of change and its 95% confidence interval are rounded to the place of the first digit of the interval width; other numbers are shown to two significant figures. An end of the interval is never rounded to zero or across zero: where the interval runs from a fall to a rise, or an end would round to zero, each end is shown to two significant figures.';
 
-/** When a place has no level (no survey in the last four seasons). */
-export const noLevelMethodSentences: readonly string[] = [
-  'A level needs a survey from the last four seasons. Where there is none, we set no level: missing surveys are never read as the lowest level.',
-  'Such a place is drawn on every map as a thin grey dashed line, with an open ring and a question mark in its badge, and the region summary counts it apart.',
-  'The bulletin says when the last survey was and what it found. Where the drift model alone still meets a rule, the place gets that level, and the bulletin says that only the drift model set it.',
-];
+/** When a place has no level (no survey in the last four seasons); the drift sentence only where a drift model was given. */
+export function noLevelMethodSentences(driftModel: boolean): string[] {
+  return [
+    'A level needs a survey from the last four seasons. Where there is none, we set no level: missing surveys are never read as the lowest level.',
+    'Such a place is drawn on every map as a thin grey dashed line, with an open ring and a question mark in its badge, and the region summary counts it apart.',
+    driftModel
+      ? 'The bulletin says when the last survey was and what it found. Where the drift model alone still meets a rule, the place gets that level, and the bulletin says that only the drift model set it.'
+      : 'The bulletin says when the last survey was and what it found.',
+  ];
+}
 
 /** How the region's sentence treats places whose trends go different ways. */
 export const regionalHomogeneitySentence =

@@ -37,9 +37,21 @@ export function driftMemoKey(resources: readonly ResourceEntry[], inputs: readon
     if (sha256 === undefined) return null;
     files.push({ resource, sha256 });
   }
-  return createHash('sha256')
-    .update(JSON.stringify({ files, segments, seasons: settings.seasons, drift: settings.drift }))
-    .digest('hex');
+  return (
+    createHash('sha256')
+      // The period decides which positions are used (drift-period.ts): monitoring start and publication dates.
+      .update(
+        JSON.stringify({
+          files,
+          segments,
+          seasons: settings.seasons,
+          drift: settings.drift,
+          monitoringStart: settings.monitoringStart ?? null,
+          publications: settings.publications,
+        }),
+      )
+      .digest('hex')
+  );
 }
 
 /** What the drift reading added to the log after `issuesBefore` issues had been recorded. */

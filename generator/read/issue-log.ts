@@ -97,7 +97,12 @@ export class IssueLog {
 
   /** `--strict`: every warning becomes an error, so a build stops on it. */
   makeWarningsErrors(): void {
-    for (const item of this.issues) if (item.severity === 'warning') item.severity = 'error';
+    for (const item of this.issues) {
+      if (item.severity !== 'warning') continue;
+      item.severity = 'error';
+      this.errors = true;
+    }
+    for (const over of this.omitted.values()) over.severity = 'error';
   }
 
   hasErrors(): boolean {

@@ -112,6 +112,22 @@ export const settingsDocs: { readonly [path: string]: SettingDoc } = {
     description: 'First day of the monitored period (YYYY-MM-DD); records dated earlier are left out. Optional: without it, every date counts.',
     example: '2018-01-01',
   },
+  dataNotice: {
+    description:
+      "Which notice every page carries: 'demo' (an invented coast with invented figures), 'test-data' (real places, made-up figures), 'provisional' (real figures not yet checked) or 'none'. Left out, invented: true gives 'demo' and invented: false gives 'none'.",
+    example: 'provisional',
+  },
+  notes: {
+    description:
+      "Notes from the publisher, each shown in its own labelled box: on one segment's bulletin of a season, or, with segment null, on every bulletin and the overview of that season. Written in a safe subset of Markdown (links, emphasis, lists); anything else is shown as plain text. A note on a past season is a change to a published bulletin and needs a correction.",
+    example: [{ season: '2026-winter', segment: null, text: 'A storm in January moved a lot of litter onto these beaches.' }],
+  },
+  'notes[].season': { description: 'The season the note belongs to, as in publications.', example: '2026-winter' },
+  'notes[].segment': { description: "The segment id whose bulletin shows the note, or null for every bulletin and the season's overview.", example: 'orrin-bay' },
+  'notes[].text': {
+    description: 'The note, at most 2,000 characters of safe Markdown (links, emphasis, lists).',
+    example: 'A storm in January moved a lot of litter onto *these* beaches.',
+  },
   leftOutAllowed: {
     description:
       "Losses of table rows accepted on purpose. By default a check or build stops when more than 5 % of a table's rows are left out, or every row of a segment in a table; an entry here names the table and the share of rows that may be left out (and so also accepts segments losing every row of it).",

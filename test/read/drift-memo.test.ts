@@ -89,3 +89,25 @@ test('a damaged memo file is ignored', async () => {
   expect(after.reused()).toBe(false);
   expect(loaded.drift).toEqual((await loadScenario(demo)).drift);
 });
+
+// Positions dated after the publication date are not used (drift-period.ts), so a scenario that
+// publishes one more season must read its drift again: staging the demo's autumn over its summer
+// once took the summer's drift figures, without any autumn position, from the cache.
+test('a new publication date reads the drift again instead of taking over the last figures', async () => {
+  const fingerprint = await readingFingerprint(packageRoot, 'test');
+  const scenario = path.join(dir, 'scenario');
+  await cp(demo, scenario, { recursive: true });
+  const full = await readFile(path.join(scenario, 'scenario.json'), 'utf8');
+  const settings = JSON.parse(full) as { publications: { season: string }[] };
+  settings.publications = settings.publications.filter((p) => p.season !== '2026-autumn');
+  await writeFile(path.join(scenario, 'scenario.json'), JSON.stringify(settings));
+  const summerCache = await openDriftCache(path.join(dir, 'cache'), fingerprint);
+  const summer = await loadScenario(scenario, { driftMemo: summerCache });
+  await summerCache.save();
+  await writeFile(path.join(scenario, 'scenario.json'), full);
+  const autumnCache = await openDriftCache(path.join(dir, 'cache'), fingerprint);
+  const autumn = await loadScenario(scenario, { driftMemo: autumnCache });
+  expect(autumnCache.reused()).toBe(false);
+  expect(autumn.drift).toEqual((await loadScenario(scenario)).drift);
+  expect(autumn.drift).not.toEqual(summer.drift);
+});

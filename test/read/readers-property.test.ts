@@ -45,12 +45,10 @@ const csvText = fc.tuple(fc.constantFrom(',', ';', '\t'), fc.constantFrom('\n', 
 const beachHeader = 'survey_id,segment_id,date,surveyed_length_m,items,plastic_items,area_m2';
 
 const schema = tableSchemaSchema.parse({
-  fields: beachHeader
-    .split(',')
-    .map((name) => ({
-      name,
-      type: ['surveyed_length_m', 'area_m2'].includes(name) ? 'number' : ['items', 'plastic_items'].includes(name) ? 'integer' : name === 'date' ? 'date' : 'string',
-    })),
+  fields: beachHeader.split(',').map((name) => ({
+    name,
+    type: ['surveyed_length_m', 'area_m2'].includes(name) ? 'number' : ['items', 'plastic_items'].includes(name) ? 'integer' : name === 'date' ? 'date' : 'string',
+  })),
 });
 
 async function ourErrorsOnly(run: () => Promise<unknown>, allowed: (error: unknown) => boolean = () => false): Promise<void> {
