@@ -10,7 +10,6 @@
  * most `maxVertices` remain. Islands whose area falls below the same weight are left out of the
  * drawing (filterWeight). Every feature that cannot be used is listed in the validation report.
  */
-import { readFile } from 'node:fs/promises';
 import type { Feature, FeatureCollection, MultiPolygon, Polygon, Position } from 'geojson';
 import { feature as topologyFeature } from 'topojson-client';
 import { topology } from 'topojson-server';
@@ -19,7 +18,7 @@ import type { Objects, Topology } from 'topojson-specification';
 import { LandShapeInvalid, LandUnreadable } from '../errors.ts';
 import type { IssueLog } from './issue-log.ts';
 import type { LandShapes } from '../scenario/types.ts';
-import { toFeatures } from './read-segments.ts';
+import { readFeatureFile } from './read-segments.ts';
 
 /** Land as read and simplified: one MultiPolygon, with vertex counts before and after; `coarse`
  * is a second, smaller simplification for the small whole-coast inset of locator maps. */
@@ -104,37 +103,10 @@ export function simplifyLand(polygons: readonly Position[][][], budget = landVer
 /** Reads and simplifies the land file; null when nothing in it can be used (all reported). */
 export async function readLand(absolutePath: string, file: string, log: IssueLog, budget = landVertexBudget): Promise<LandShapes | null> {
   const counts = log.countsFor(file);
-  let json: unknown;
-  try {
-    json = JSON.parse((await readFile(absolutePath, 'utf8')).replace(/^\ufeff/, ''));
-  } catch (error) {
-    const reason = error instanceof Error ? error.message : String(error);
-    log.add(LandUnreadable, LandUnreadable.message(file, reason), {
-      file,
-      row: 1,
-      column: null,
-      value: null,
-      expected: 'GeoJSON or TopoJSON land polygons',
-      severity: 'error',
-      excluded: true,
-    });
-    return null;
-  }
-  const features = toFeatures(json);
-  if ('reason' in features) {
-    log.add(LandUnreadable, LandUnreadable.message(file, features.reason), {
-      file,
-      row: 1,
-      column: null,
-      value: null,
-      expected: 'GeoJSON FeatureCollection or TopoJSON Topology',
-      severity: 'error',
-      excluded: true,
-    });
-    return null;
-  }
+  const features = await readFeatureFile(absolutePath, file, log, LandUnreadable, 'GeoJSON or TopoJSON land polygons');
+  if (features === null) return null;
   const polygons: Position[][][] = [];
-  features.features.forEach((raw, i) => {
+  features.forEach((raw, i) => {
     counts.read++;
     const found = landPolygons(raw);
     if ('reason' in found) {

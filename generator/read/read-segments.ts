@@ -30,6 +30,7 @@ import {
   SegmentPropertyInvalid,
   SegmentsUnreadable,
 } from '../errors.ts';
+import type { ErrorData } from '../errors.ts';
 import type { SegmentKind, ShellfishUse } from '../model/types.ts';
 import type { Segment } from '../scenario/types.ts';
 import { earthRadiusKm } from '../drift/geodesy.ts';
@@ -352,55 +353,57 @@ export function checkSegments(rawFeatures: readonly unknown[], file: string, log
   return segments;
 }
 
-/** `leftOut` receives the ids of segments left out, so that rows naming them are summed up, not listed. */
-export async function readSegments(absolutePath: string, file: string, log: IssueLog, leftOut: Set<string> = new Set()): Promise<Segment[]> {
+/**
+ * Reads a GeoJSON or TopoJSON file within the JSON bounds (json-input.ts): its features, or null
+ * with every problem in the log (unreadable, nested too deep, a forbidden key, not a feature
+ * collection). `unreadable` names the file's own error; `what` what the file should hold.
+ */
+export async function readFeatureFile(
+  absolutePath: string,
+  file: string,
+  log: IssueLog,
+  unreadable: ErrorData & { message: (file: string, reason: string) => string },
+  what: string,
+): Promise<unknown[] | null> {
   let outcome;
   try {
     outcome = parseBoundedJson(await readFile(absolutePath, 'utf8'));
   } catch (error) {
     outcome = { ok: false as const, kind: 'syntax' as const, reason: error instanceof Error ? error.message : String(error) };
   }
-  if (!outcome.ok || outcome.forbidden.length > 0) {
-    if (!outcome.ok && outcome.kind === 'syntax') {
-      log.add(SegmentsUnreadable, SegmentsUnreadable.message(file, outcome.reason), {
-        file,
-        row: 1,
-        column: null,
-        value: null,
-        expected: 'GeoJSON or TopoJSON',
-        severity: 'error',
-        excluded: true,
-      });
-    } else if (!outcome.ok) {
-      log.add(JsonTooDeep, JsonTooDeep.message(file, outcome.reason), {
+  if (!outcome.ok && outcome.kind === 'syntax') {
+    log.add(unreadable, unreadable.message(file, outcome.reason), { file, row: 1, column: null, value: null, expected: what, severity: 'error', excluded: true });
+    return null;
+  }
+  if (!outcome.ok) {
+    log.add(JsonTooDeep, JsonTooDeep.message(file, outcome.reason), {
+      file,
+      row: null,
+      column: null,
+      value: null,
+      expected: `${what} nested at most a few levels deep`,
+      severity: 'error',
+      excluded: true,
+    });
+    return null;
+  }
+  if (outcome.forbidden.length > 0) {
+    for (const path of outcome.forbidden) {
+      log.add(KeyForbidden, KeyForbidden.message(file, path), {
         file,
         row: null,
-        column: null,
-        value: null,
-        expected: 'GeoJSON or TopoJSON nested at most a few levels deep',
+        column: path,
+        value: path.split(/[.[]/).pop() ?? null,
+        expected: 'no key named __proto__, constructor or prototype',
         severity: 'error',
         excluded: true,
       });
-    } else {
-      for (const path of outcome.forbidden) {
-        log.add(KeyForbidden, KeyForbidden.message(file, path), {
-          file,
-          row: null,
-          column: path,
-          value: path.split(/[.[]/).pop() ?? null,
-          expected: 'no key named __proto__, constructor or prototype',
-          severity: 'error',
-          excluded: true,
-        });
-      }
     }
-    log.countsFor(file);
-    return [];
+    return null;
   }
-  const json = outcome.value;
-  const features = toFeatures(json);
+  const features = toFeatures(outcome.value);
   if ('reason' in features) {
-    log.add(SegmentsUnreadable, SegmentsUnreadable.message(file, features.reason), {
+    log.add(unreadable, unreadable.message(file, features.reason), {
       file,
       row: 1,
       column: null,
@@ -409,8 +412,17 @@ export async function readSegments(absolutePath: string, file: string, log: Issu
       severity: 'error',
       excluded: true,
     });
+    return null;
+  }
+  return features.features;
+}
+
+/** `leftOut` receives the ids of segments left out, so that rows naming them are summed up, not listed. */
+export async function readSegments(absolutePath: string, file: string, log: IssueLog, leftOut: Set<string> = new Set()): Promise<Segment[]> {
+  const features = await readFeatureFile(absolutePath, file, log, SegmentsUnreadable, 'GeoJSON or TopoJSON');
+  if (features === null) {
     log.countsFor(file);
     return [];
   }
-  return checkSegments(features.features, file, log, leftOut);
+  return checkSegments(features, file, log, leftOut);
 }

@@ -131,3 +131,28 @@ describe('readLand', () => {
     expect(log.issues[0]!.message).toMatch(/^land\.geojson row 1, column \(all\): not a GeoJSON or TopoJSON file of land polygons/);
   });
 });
+
+// The land file goes through the same JSON bounds as the segments file (json-input.ts): a key that
+// names JavaScript's prototype machinery or nesting past the cap is refused with a named error, not
+// parsed into an object or a stack overflow.
+describe('land file with hostile JSON', () => {
+  const write = (text: string): string => {
+    const file = join(mkdtempSync(join(tmpdir(), 'wrackline-land-')), 'land.geojson');
+    writeFileSync(file, text);
+    return file;
+  };
+  it('refuses a __proto__ key', async () => {
+    const log = new IssueLog();
+    const land = await readLand(write('{"type":"FeatureCollection","__proto__":{"polluted":true},"features":[]}'), 'land.geojson', log);
+    expect(land).toBeNull();
+    expect(log.report().issues.map((i) => [i.code, i.column, i.severity])).toEqual([['KeyForbidden', '$.__proto__', 'error']]);
+    expect(({} as { polluted?: boolean }).polluted).toBeUndefined();
+  });
+  it('refuses nesting deeper than the cap with a named error', async () => {
+    const log = new IssueLog();
+    const deep = `{"type":"FeatureCollection","features":[${'['.repeat(100_000)}${']'.repeat(100_000)}]}`;
+    const land = await readLand(write(deep), 'land.geojson', log);
+    expect(land).toBeNull();
+    expect(log.report().issues.map((i) => [i.code, i.file, i.severity])).toEqual([['JsonTooDeep', 'land.geojson', 'error']]);
+  });
+});
