@@ -8,6 +8,9 @@
  *   `prototype`) are refused wherever they appear; JSON.parse itself makes them own properties,
  *   but a later spread or merge could turn them into prototype changes.
  */
+import { KeyForbidden } from '../errors.ts';
+import type { IssueLog } from './issue-log.ts';
+
 export const maxJsonDepth = 64;
 export const maxJsonBytes = 512 * 1024 * 1024;
 export const forbiddenKeys: ReadonlySet<string> = new Set(['__proto__', 'constructor', 'prototype']);
@@ -82,4 +85,19 @@ export function parseBoundedJson(text: string): JsonOutcome {
 export function checkParsedValue(value: unknown): JsonOutcome {
   if (valueDepth(value) > maxJsonDepth) return { ok: false, kind: 'bounds', reason: `nested deeper than ${maxJsonDepth} levels` };
   return { ok: true, value, forbidden: forbiddenKeyPaths(value) };
+}
+
+/** Puts one error per forbidden key into the log, naming its JSON path (settings and segments files). */
+export function logForbiddenKeys(log: IssueLog, file: string, paths: readonly string[]): void {
+  for (const path of paths) {
+    log.add(KeyForbidden, KeyForbidden.message(file, path), {
+      file,
+      row: null,
+      column: path,
+      value: path.split(/[.[]/).pop() ?? null,
+      expected: 'no key named __proto__, constructor or prototype',
+      severity: 'error',
+      excluded: true,
+    });
+  }
 }

@@ -24,7 +24,6 @@ import {
   GeometryInvalid,
   GeometrySelfIntersects,
   JsonTooDeep,
-  KeyForbidden,
   MarkupInText,
   SegmentIdDuplicate,
   SegmentPropertyInvalid,
@@ -38,7 +37,7 @@ import type { IssueLog } from './issue-log.ts';
 import { boundingBox, findSelfCrossing, isClosedLine } from './line-crossings.ts';
 import type { Position } from './line-crossings.ts';
 import { containsMarkup } from './markup.ts';
-import { parseBoundedJson } from './json-input.ts';
+import { logForbiddenKeys, parseBoundedJson } from './json-input.ts';
 import { bidiControls, isolateBidi } from './bidi-controls.ts';
 import { didYouMean, matchCategory, segmentCategoryWords } from './category-words.ts';
 
@@ -388,17 +387,7 @@ export async function readFeatureFile(
     return null;
   }
   if (outcome.forbidden.length > 0) {
-    for (const path of outcome.forbidden) {
-      log.add(KeyForbidden, KeyForbidden.message(file, path), {
-        file,
-        row: null,
-        column: path,
-        value: path.split(/[.[]/).pop() ?? null,
-        expected: 'no key named __proto__, constructor or prototype',
-        severity: 'error',
-        excluded: true,
-      });
-    }
+    logForbiddenKeys(log, file, outcome.forbidden);
     return null;
   }
   const features = toFeatures(outcome.value);

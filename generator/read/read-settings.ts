@@ -6,11 +6,11 @@
 import { readFile } from 'node:fs/promises';
 import { parse as parseYaml } from 'yaml';
 import { z } from 'zod';
-import { BidiControlInText, JsonTooDeep, KeyForbidden, SettingUnknown, SettingsInvalid, SettingsUnreadable } from '../errors.ts';
+import { BidiControlInText, JsonTooDeep, SettingUnknown, SettingsInvalid, SettingsUnreadable } from '../errors.ts';
 import type { ScenarioSettings } from '../scenario/settings.ts';
 import { settingsSchema } from '../scenario/settings.ts';
 import type { IssueLog } from './issue-log.ts';
-import { checkParsedValue, parseBoundedJson } from './json-input.ts';
+import { checkParsedValue, logForbiddenKeys, parseBoundedJson } from './json-input.ts';
 import { bidiControls, isolateBidi } from './bidi-controls.ts';
 import { formatZodPath } from './zod-issues.ts';
 
@@ -131,17 +131,7 @@ export async function readSettings(absolutePath: string, file: string, log: Issu
     return null;
   }
   if (outcome.forbidden.length > 0) {
-    for (const path of outcome.forbidden) {
-      log.add(KeyForbidden, KeyForbidden.message(file, path), {
-        file,
-        row: null,
-        column: path,
-        value: path.split(/[.[]/).pop() ?? null,
-        expected: 'no key named __proto__, constructor or prototype',
-        severity: 'error',
-        excluded: true,
-      });
-    }
+    logForbiddenKeys(log, file, outcome.forbidden);
     return null;
   }
   return validateSettings(isolateSettingText(outcome.value, file, log, '$'), file, log);
