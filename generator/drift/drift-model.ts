@@ -175,8 +175,11 @@ export async function readDrift(input: DriftInput): Promise<DriftResult | null> 
     for (const [season, positions] of await readEndPositionsTable(resource, absolutePath, settings.seasons, log)) {
       const all = ends.get(season);
       if (all) {
-        all.lon.push(...positions.lon);
-        all.lat.push(...positions.lat);
+        // one at a time: spreading a long array into push overflows the call stack
+        for (let i = 0; i < positions.lon.length; i++) {
+          all.lon.push(positions.lon[i]!);
+          all.lat.push(positions.lat[i]!);
+        }
       } else ends.set(season, positions);
     }
   }

@@ -12,6 +12,7 @@ import { DriftFarFromCoast, PositionsOutsidePeriod } from '../errors.ts';
 import type { IssueLog } from '../read/issue-log.ts';
 import type { ScenarioSettings } from '../scenario/settings.ts';
 import type { Segment } from '../scenario/types.ts';
+import { max, min } from 'd3-array';
 
 const earliestPlausible = '1950-01-01';
 const marginDegrees = 10;
@@ -44,10 +45,10 @@ export class DriftPeriodGuard {
       segments.length === 0
         ? null
         : [
-            Math.min(...segments.map((s) => s.bbox[0])),
-            Math.min(...segments.map((s) => s.bbox[1])),
-            Math.max(...segments.map((s) => s.bbox[2])),
-            Math.max(...segments.map((s) => s.bbox[3])),
+            min(segments, (s) => s.bbox[0]) as number,
+            min(segments, (s) => s.bbox[1]) as number,
+            max(segments, (s) => s.bbox[2]) as number,
+            max(segments, (s) => s.bbox[3]) as number,
           ];
   }
 

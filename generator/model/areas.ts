@@ -13,6 +13,7 @@
  * - Above `areasAbove` segments the overview shows areas instead of every segment.
  */
 import type { Segment } from '../scenario/types.ts';
+import { extent } from 'd3-array';
 
 export const areaSize = 60;
 export const areasAbove = 150;
@@ -54,10 +55,10 @@ export function bisect(points: readonly [number, number][], size: number): numbe
       if (indices.length > 0) out.push(indices);
       return;
     }
-    const xs = indices.map((i) => points[i]![0]);
-    const ys = indices.map((i) => points[i]![1]);
-    const spanX = Math.max(...xs) - Math.min(...xs);
-    const spanY = Math.max(...ys) - Math.min(...ys);
+    const [x0, x1] = extent(indices, (i) => points[i]![0]) as [number, number];
+    const [y0, y1] = extent(indices, (i) => points[i]![1]) as [number, number];
+    const spanX = x1 - x0;
+    const spanY = y1 - y0;
     // north to south (y falling), or west to east
     const sorted = [...indices].sort(spanY >= spanX ? (a, b) => points[b]![1] - points[a]![1] || a - b : (a, b) => points[a]![0] - points[b]![0] || a - b);
     const parts = Math.ceil(indices.length / size);

@@ -30,6 +30,7 @@ import { getIndicator } from '../indicators/index.ts';
 import { levelWords } from '../risk/levels.ts';
 import type { LoadedScenario, Segment } from '../scenario/types.ts';
 import type { IndicatorEvaluation, SeasonEvaluation } from './evaluate-season.ts';
+import { mostSamplesDrawn, seasonSampleSummaries } from './sample-summary.ts';
 import { seasonRef } from './seasons.ts';
 import type { Bulletin, IndicatorBulletin, Observation } from './types.ts';
 
@@ -103,7 +104,8 @@ function chartDescription(evaluation: IndicatorEvaluation, scenario: LoadedScena
     },
     confidence,
   );
-  return `${definition.label} at ${segmentName}, ${definition.unitShort}: ${evaluation.sampleCount} values${span}. Direction: ${directionPhrases[evaluation.direction]}. ${drawn}`;
+  const summarised = evaluation.observations.length > mostSamplesDrawn && !seasonTotalsOf(evaluation, scenario) ? " Each dot is the median of one season's samples, with a line from the lowest to the highest." : '';
+  return `${definition.label} at ${segmentName}, ${definition.unitShort}: ${evaluation.sampleCount} values${span}. Direction: ${directionPhrases[evaluation.direction]}. ${drawn}${summarised}`;
 }
 
 /** A count of animals where every season so far counted 0. */
@@ -115,6 +117,7 @@ function indicatorBulletin(evaluation: IndicatorEvaluation, scenario: LoadedScen
   const definition = getIndicator(evaluation.indicator);
   const input = trendPhraseInput(evaluation, scenario);
   const totals = seasonTotalsOf(evaluation, scenario);
+  const summaries = totals ? null : seasonSampleSummaries(evaluation.observations);
   const claimed = evaluation.direction === 'falling' && evaluation.probabilityUp !== null ? 1 - evaluation.probabilityUp : evaluation.probabilityUp;
   return {
     indicator: evaluation.indicator,
@@ -146,6 +149,7 @@ function indicatorBulletin(evaluation: IndicatorEvaluation, scenario: LoadedScen
     chartDescription: chartDescription(evaluation, scenario, segment.name, scenario.settings.trend.confidence),
     seasonsDisagree: seasonsDisagree(evaluation.trend, scenario.settings.trend.confidence),
     ...(totals ? { seasonTotals: totals } : {}),
+    ...(summaries ? { sampleSummaries: summaries } : {}),
   };
 }
 

@@ -18,6 +18,7 @@ import type { LoadedScenario } from '../scenario/types.ts';
 import type { RegionalResult, SeasonEvaluation } from './evaluate-season.ts';
 import type { AreaSummary, Direction, HeadlinePart, IndicatorId, LevelResult, RegionalTrend, RegionSummary } from './types.ts';
 import { scenarioAreas, type AreaPlan } from './areas.ts';
+import { max } from 'd3-array';
 
 /**
  * The region's sentence for one indicator.
@@ -156,7 +157,7 @@ export function composeRegion(scenario: LoadedScenario, now: RegionInputs, previ
   for (const trend of regionalTrends) summary.push(trend.sentence);
   const seasonNotes = notesFor(settings.notes, now.season.id, null);
   const plans = scenarioAreas(scenario.segments);
-  const highest = Math.max(0, ...rows.map((r) => r.level.rank));
+  const highest = max(rows, (r) => r.level.rank) ?? 0;
   const highestLabel = levelScale.find((l) => l.rank === highest)?.label ?? 'Scant';
   const headlineParts: HeadlinePart[] =
     highest === 0

@@ -16,6 +16,7 @@ import { derivedSeed } from './seed.ts';
 import { parseSeasonId, previousSeasonId, seasonMidYear, seasonOfDate, seasonRef } from './seasons.ts';
 import { censoredMedian, median, seasonValues, toSeriesPoints, type SeasonValue } from './series.ts';
 import type { IndicatorId, SeasonRef } from './types.ts';
+import { max, min } from 'd3-array';
 
 /** The last four seasons ending with `season`, oldest first (the assessment period). */
 export function assessmentSeasons(season: string, settings: ScenarioSettings): string[] {
@@ -295,7 +296,7 @@ export function seriesEvaluation(context: SeasonContext, indicator: IndicatorId,
     regionPercentile: null,
     segmentsTested: 0,
     sampleCount: definition.aggregation === 'season-total' || records.length === 0 ? values.length : records.length,
-    yearSpan: years.length > 0 ? { first: Math.min(...years), last: Math.max(...years) } : null,
+    yearSpan: years.length > 0 ? { first: min(years) as number, last: max(years) as number } : null,
   };
 }
 

@@ -61,6 +61,19 @@ export interface Observation {
   note?: string; // e.g. species, mesh size
 }
 
+/** Samples of one season in one line (generator/model/sample-summary.ts). */
+export interface SeasonSampleSummary {
+  season: SeasonId;
+  /** Decimal year where the summary is drawn: the median time of the season's samples. */
+  t: number;
+  samples: number;
+  median: number;
+  lowest: number;
+  highest: number;
+  /** Samples reported below the lab's detection limit (counted at the limit). */
+  belowDetection: number;
+}
+
 export type Direction = 'rising' | 'falling' | 'no-clear-direction' | 'too-little-data';
 
 export interface IndicatorBulletin {
@@ -101,6 +114,12 @@ export interface IndicatorBulletin {
    * Absent where the trend uses the samples themselves.
    */
   seasonTotals?: Observation[];
+  /**
+   * Where the samples are too many to draw or list one by one (more than 400), one summary per
+   * season (count, median, lowest, highest), which the chart and the data table show instead.
+   * Absent otherwise, and for season totals.
+   */
+  sampleSummaries?: SeasonSampleSummary[];
 }
 
 export interface RuleHit {

@@ -221,6 +221,15 @@ export async function readIndicatorTable(input: IndicatorTableInput): Promise<Sc
   }
   const names = columnNamesOf(resource);
   const rules = buildRules(schema, definition, names);
+  // Segment ids, dates and seasons repeat across rows: one string each instead of one per row
+  // (a national table of millions of rows holds a few thousand distinct values).
+  const shared = new Map<string, string>();
+  const intern = (text: string): string => {
+    const found = shared.get(text);
+    if (found !== undefined) return found;
+    shared.set(text, text);
+    return text;
+  };
   const hasKeyColumn = schema.fields.some((f) => f.name === names.inFile(definition.keyColumn));
   const primaryKey = schema.primaryKey ?? (hasKeyColumn ? [names.inFile(definition.keyColumn)] : []);
   const segmentColumns = new Set<string>([names.inFile('segment_id')]);
@@ -356,11 +365,11 @@ export async function readIndicatorTable(input: IndicatorTableInput): Promise<Sc
     const normalised = definition.normalise(ours);
     records.push({
       indicator: definition.id,
-      segmentId: String(ours.values['segment_id']),
-      date,
+      segmentId: intern(String(ours.values['segment_id'])),
+      date: intern(date),
       t: decimalYear(date),
-      season: season.id,
-      seasonName: season.name,
+      season: intern(season.id),
+      seasonName: intern(season.name),
       value: normalised.value,
       censored: normalised.censored,
       extra: normalised.note === undefined ? normalised.extra : { ...normalised.extra, note: normalised.note },

@@ -123,7 +123,7 @@ export async function readLand(absolutePath: string, file: string, log: IssueLog
       return;
     }
     counts.kept++;
-    polygons.push(...found);
+    for (const polygon of found) polygons.push(polygon);
   });
   if (polygons.length === 0) return null;
   const geometry = simplifyLand(polygons, budget);

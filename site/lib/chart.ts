@@ -8,7 +8,7 @@
  */
 import * as Plot from '@observablehq/plot';
 import { parseHTML } from 'linkedom';
-import { ticks as niceTicks } from 'd3-array';
+import { max, min, ticks as niceTicks } from 'd3-array';
 import { chartTrendMark, type ChartPlanInput } from '../../generator/bulletin/chart-words.ts';
 import type { IndicatorBulletin } from '../../generator/model/types.ts';
 
@@ -81,8 +81,9 @@ export function yScale(
   bandUpper: readonly (number | null)[],
 ): Record<string, unknown> {
   const finite = (list: readonly (number | null)[]) => list.filter((v): v is number => v !== null && Number.isFinite(v));
-  const top = Math.max(0, ...values, ...finite(bandUpper), indicator.threshold?.value ?? 0);
-  const bottom = Math.min(0, ...values, ...finite(bandLower));
+  // d3's max/min walk the arrays: spreading thousands of values into Math.max overflows the stack
+  const top = Math.max(0, max(values) ?? 0, max(finite(bandUpper)) ?? 0, indicator.threshold?.value ?? 0);
+  const bottom = Math.min(0, min(values) ?? 0, min(finite(bandLower)) ?? 0);
   const base = { label: indicator.unitShort, grid: false, zero: true };
   if (isCountIndicator(indicator)) {
     const floor = Math.floor(bottom);
@@ -107,21 +108,31 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
   if (hit !== undefined) return hit;
   const width = options.width ?? 420;
   const totals = indicator.seasonTotals ?? null;
+  const summaries = indicator.sampleSummaries ?? null;
   const source = totals ?? indicator.observations;
-  const obs = source
-    .filter((o) => o.value !== null)
-    .map((o) => ({
-      // Season totals sit at the middle of their season, where the trend band is computed.
-      date: totals ? dateFromDecimalYear(o.t) : dateFromIso(o.date),
-      value: o.value as number,
-      censored: o.censored,
-      season: seasonOfYear(o.season),
-      title: totals
-        ? `${o.season}: ${o.value} ${indicator.unitShort}`
-        : o.censored
-          ? `${o.date}: below the lab's detection limit (${o.value} ${indicator.unitShort})`
-          : `${o.date}: ${o.value} ${indicator.unitShort}`,
-    }));
+  // Too many samples to draw one by one: each season's median, with its range (sample-summary.ts).
+  const obs = summaries
+    ? summaries.map((s) => ({
+        date: dateFromDecimalYear(s.t),
+        value: s.median,
+        censored: false,
+        season: seasonOfYear(s.season),
+        title: `${s.season}: median ${s.median} ${indicator.unitShort} of ${s.samples} samples (lowest ${s.lowest}, highest ${s.highest})`,
+      }))
+    : source
+        .filter((o) => o.value !== null)
+        .map((o) => ({
+          // Season totals sit at the middle of their season, where the trend band is computed.
+          date: totals ? dateFromDecimalYear(o.t) : dateFromIso(o.date),
+          value: o.value as number,
+          censored: o.censored,
+          season: seasonOfYear(o.season),
+          title: totals
+            ? `${o.season}: ${o.value} ${indicator.unitShort}`
+            : o.censored
+              ? `${o.date}: below the lab's detection limit (${o.value} ${indicator.unitShort})`
+              : `${o.date}: ${o.value} ${indicator.unitShort}`,
+        }));
   const seasonal = indicator.seasonsDisagree;
   const band = indicator.trend?.band ?? null;
   const sen = indicator.trend?.sen ?? null;
@@ -177,6 +188,14 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
       ),
     );
   }
+  if (summaries) {
+    marks.push(
+      Plot.ruleX(
+        summaries.map((s) => ({ date: dateFromDecimalYear(s.t), lowest: s.lowest, highest: s.highest, season: seasonOfYear(s.season) })),
+        { x: 'date', y1: 'lowest', y2: 'highest', stroke: ink, strokeOpacity: 0.55, strokeWidth: 1.2, ...facet },
+      ),
+    );
+  }
   marks.push(
     Plot.dot(
       obs.filter((o) => !o.censored),
@@ -204,7 +223,7 @@ export function renderIndicatorChart(indicator: IndicatorBulletin, options: Char
     x: seasonal ? { type: 'utc', label: null, ticks: 3, inset: 6 } : { type: 'utc', label: null, ticks: 5, inset: 8 },
     y: yScale(
       indicator,
-      obs.map((o) => o.value),
+      summaries ? summaries.flatMap((s) => [s.lowest, s.highest]) : obs.map((o) => o.value),
       mark === 'band' && band ? band.lower : [],
       mark === 'band' && band ? band.upper : [],
     ),

@@ -1,9 +1,10 @@
 // Snapshot of every kind of chart the site draws (site/lib/chart.ts), one named scenario each:
 // test/output/<scenario>.svg. See test/snapshot.ts for the normalisation and the review workflow.
-import { describe } from 'vitest';
-import { renderIndicatorChart } from '../../site/lib/chart.ts';
+import { describe, expect, it } from 'vitest';
+import { renderIndicatorChart, yScale } from '../../site/lib/chart.ts';
 import { svgSnapshot } from '../snapshot.ts';
-import { countSeries, indicatorOf } from './fixture-pictures.ts';
+import { seasonSampleSummaries } from '../../generator/model/sample-summary.ts';
+import { countSeries, indicatorOf, manySamples } from './fixture-pictures.ts';
 
 describe('chart pictures', () => {
   svgSnapshot(function trendBandAndThreshold() {
@@ -41,7 +42,30 @@ describe('chart pictures', () => {
     return renderIndicatorChart({ ...indicatorOf('beach-litter'), direction: 'too-little-data' }, {});
   });
 
+  svgSnapshot(function seasonMediansOfManySamples() {
+    // 2,000 copies of each sample: the 1,000,000-row table that once overflowed the stack in yScale
+    const many = manySamples(2000);
+    const summaries = seasonSampleSummaries(many.observations);
+    if (!summaries) throw new Error('the many-samples series was not summarised');
+    const svg = renderIndicatorChart({ ...many, sampleSummaries: summaries }, {});
+    // one dot per season, not one per sample
+    if ((svg.match(/<circle/g) ?? []).length !== summaries.length) throw new Error('the chart does not draw one dot per season');
+    return svg;
+  });
+
   svgSnapshot(function narrowPhoneWidth() {
     return renderIndicatorChart(indicatorOf('beach-litter'), { width: 340 });
+  });
+});
+
+describe('chart scales on large series', () => {
+  it('finds the y range of a million values without overflowing the call stack', () => {
+    // a 1,000,000-row beach-litter table crashed the build here: Math.max(...values) takes one argument per value
+    const values = Array.from({ length: 1_000_000 }, (_, i) => (i * 7919) % 1000);
+    expect(() => yScale(indicatorOf('beach-litter'), values, [], [])).not.toThrow();
+    // a count axis states its domain: from 0 to at least the highest value, 999
+    const domain = yScale(countSeries([0]), values, [], [])['domain'] as [number, number];
+    expect(domain[0]).toBe(0);
+    expect(domain[1]).toBeGreaterThanOrEqual(999);
   });
 });

@@ -40,3 +40,22 @@ export function countSeries(values: readonly number[]): IndicatorBulletin {
 
 /** The region's segments as the maps take them (as site/lib/bulletin-view.ts prepares them). */
 export const regionSegments: MapSegment[] = region.segments.map((s) => ({ id: s.id, name: s.name, level: s.level.id, levelLabel: s.level.label, geometry: s.geometry }));
+
+/**
+ * The fixture's beach-litter series with each sample repeated `copies` times, spread over its
+ * season by a tenth of a day per copy and scaled by a seeded factor between 0.5 and 1.5: a table
+ * with far more surveys than a chart can draw one by one.
+ */
+export function manySamples(copies: number): IndicatorBulletin {
+  const beach = indicatorOf('beach-litter');
+  let state = 20_261_205;
+  const next = () => {
+    // a small linear congruential generator (Numerical Recipes constants): fixed and seedable
+    state = (Math.imul(state, 1_664_525) + 1_013_904_223) >>> 0;
+    return state / 2 ** 32;
+  };
+  const observations = beach.observations.flatMap((o) =>
+    Array.from({ length: copies }, (_, k) => ({ ...o, t: o.t + k / 3652.5, value: o.value === null ? null : Math.round(o.value * (0.5 + next()) * 10) / 10 })),
+  );
+  return { ...beach, observations };
+}
