@@ -566,6 +566,14 @@ export const InvalidUtf8 = {
   hint: 'Save the file as UTF-8; a spreadsheet export in another encoding changes letters such as é or ø',
 } satisfies ErrorData;
 
+export const FileNotUtf8 = {
+  name: 'FileNotUtf8',
+  title: 'File that is not UTF-8',
+  message: (file: string, line: number, sample: string) =>
+    `${file} row ${line}: ${quoteValue(sample)} holds bytes that are not valid UTF-8 (shown as \u{fffd}); the file was not read`,
+  hint: 'Save the file as UTF-8 (in most editors: "Save with encoding", UTF-8); a file saved in another encoding changes letters such as é or ø',
+} satisfies ErrorData;
+
 export const NulInText = {
   name: 'NulInText',
   title: 'NUL byte in a text value',

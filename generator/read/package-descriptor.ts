@@ -8,10 +8,10 @@
  * An unreadable descriptor throws ScenarioError; a single bad resource becomes a report issue and
  * is skipped.
  */
-import { readFile } from 'node:fs/promises';
+import { readUtf8File, type Utf8Outcome } from './utf8-text.ts';
 import { isAbsolute, normalize } from 'node:path';
 import { z } from 'zod';
-import { KeyForbidden, PackageDescriptorUnreadable, ResourceInvalid, ScenarioError } from '../errors.ts';
+import { FileNotUtf8, KeyForbidden, PackageDescriptorUnreadable, ResourceInvalid, ScenarioError } from '../errors.ts';
 import { isIndicatorId } from '../indicators/index.ts';
 import type { IndicatorId } from '../model/types.ts';
 import type { IssueLog } from './issue-log.ts';
@@ -129,13 +129,15 @@ export function safeRelativePath(path: string): string | null {
 }
 
 export async function readPackageDescriptor(descriptorPath: string, displayName: string, log: IssueLog): Promise<PackageDescriptor> {
-  let text: string;
+  let read: Utf8Outcome;
   try {
-    text = await readFile(descriptorPath, 'utf8');
+    read = await readUtf8File(descriptorPath);
   } catch (error) {
     const reason = error instanceof Error ? error.message : String(error);
     throw new ScenarioError(PackageDescriptorUnreadable, PackageDescriptorUnreadable.message(displayName, reason));
   }
+  if (!read.ok) throw new ScenarioError(FileNotUtf8, FileNotUtf8.message(displayName, read.line, read.sample));
+  const text = read.text;
   const outcome = parseBoundedJson(text);
   if (!outcome.ok) throw new ScenarioError(PackageDescriptorUnreadable, PackageDescriptorUnreadable.message(displayName, outcome.reason));
   if (outcome.forbidden.length > 0) {

@@ -126,6 +126,29 @@ describe('losses: nothing disappears without a word', () => {
     expect(countsOf(scenario, beach)).toEqual({ file: beach, read: 2, kept: 1, excluded: 1 });
   });
 
+  test('invalid UTF-8 in the segments file is refused naming its line', async () => {
+    // Node's readFile(…, 'utf8') turned these bytes into U+FFFD and published the garbled name.
+    // 0xE9 alone is "é" in ISO 8859-1 and never valid in UTF-8 (RFC 3629 §3).
+    const segments = readFileSync(join(baseScenario, 'segments.geojson'), 'utf8');
+    const at = segments.indexOf('"name"');
+    const line = segments.slice(0, at).split('\n').length;
+    const bytes = Buffer.concat([Buffer.from(segments.slice(0, at)), Buffer.from('"name": "Caf'), Buffer.from([0xe9]), Buffer.from('", "old'), Buffer.from(segments.slice(at))]);
+    const scenario = await loadScenario(scenarioCopy({ files: { 'segments.geojson': bytes } }));
+    const issue = expectIssue(scenario.report.issues, { code: 'FileNotUtf8', file: 'segments.geojson', row: line, severity: 'error' });
+    expect(issue.row).toBe(line);
+    expect(issue.message).toContain(`row ${line}`);
+    expect(scenario.report.ok).toBe(false);
+  });
+
+  test('invalid UTF-8 in the settings file is refused naming its line', async () => {
+    const settings = readFileSync(join(baseScenario, 'scenario.json'), 'utf8');
+    const bytes = Buffer.concat([Buffer.from(settings.replace(/\n\s*}\s*$/, ',\n  "title": "Caf')), Buffer.from([0xe9]), Buffer.from('"\n}\n')]);
+    const scenario = await loadScenario(scenarioCopy({ files: { 'scenario.json': bytes } })).catch((error: unknown) => error);
+    const text = JSON.stringify(scenario instanceof Error ? scenario.message : (scenario as Awaited<ReturnType<typeof loadScenario>>).report.issues);
+    expect(text).toContain('not valid UTF-8');
+    expect(text).toContain(`row ${settings.replace(/\n\s*}\s*$/, '').split('\n').length + 1}`);
+  });
+
   test('a NUL byte in a text cell is named at its row and column', async () => {
     const scenario = await loadScenario(scenarioCopy({ files: { [beach]: `${beachHeader}\nBL-1,north-beach,2026-01-15,100,25,,\nBL-\u00002,north-beach,2026-01-16,100,25,,\n` } }));
     expectIssue(scenario.report.issues, { code: 'NulInText', file: beach, row: 3, column: 'survey_id', excluded: true });
