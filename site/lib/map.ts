@@ -152,6 +152,21 @@ export function simplifiedForScale<F extends Feature<Geometry, P>, P = F['proper
   return back.features.map((f, i) => ({ ...features[i]!, geometry: isArea(f.geometry) ? rewindGeometry(f.geometry) : f.geometry }) as F);
 }
 
+/** Above this many vertices on one map, lines are simplified to the map's scale (simplifiedForScale). */
+export const mostVerticesDrawnAsGiven = 20_000;
+
+/** All positions of the features' lines and rings. */
+export function vertexCount(features: readonly Feature<Geometry, unknown>[]): number {
+  let count = 0;
+  for (const { geometry } of features) {
+    if (geometry.type === 'LineString' || geometry.type === 'MultiPoint') count += geometry.coordinates.length;
+    else if (geometry.type === 'MultiLineString' || geometry.type === 'Polygon') for (const part of geometry.coordinates) count += part.length;
+    else if (geometry.type === 'MultiPolygon') for (const polygon of geometry.coordinates) for (const ring of polygon) count += ring.length;
+    else if (geometry.type === 'Point') count += 1;
+  }
+  return count;
+}
+
 /** A line's or ring's vertices in pixels (for placement); NaN-free points only. */
 function projectedLines(geometry: Geometry, project: (p: [number, number]) => [number, number] | null): Point[][] {
   const line = (coords: GeoJSON.Position[]): Point[] =>
@@ -232,7 +247,9 @@ function renderInset(all: Feature<Geometry, Props>[], land: PreparedLand | null,
       [x0 + size, y0 + size],
     ]);
   const path = geoPath(projection).digits(0);
-  const coast = all.map((f) => path(f) ?? '').join('');
+  const bar = scaleBar(projection, [x0 + size / 2 - 20, y0 + size / 2]);
+  const drawn = vertexCount(all) > mostVerticesDrawnAsGiven && bar ? simplifiedForScale(all, bar.km / bar.px) : all;
+  const coast = drawn.map((f) => path(f) ?? '').join('');
   const landPath = land ? land.features.map((f) => path(f) ?? '').join('') : '';
   const [[bx0, by0], [bx1, by1]] = path.bounds(windowFrame);
   const target = all.find((f) => f.properties.id === highlight);
@@ -377,7 +394,10 @@ export function renderMapWithLayout(options: MapOptions): { svg: string; layout:
       parts.push(`<path d="${ds.join('')}" fill="none" stroke="${style.stroke}" stroke-width="${Math.max(style.width - 1, 3)}" stroke-linecap="round" stroke-linejoin="round"/>`);
     }
   } else {
-    for (const f of ordered) {
+    // Lines digitised at 1:10 000 (10⁵ vertices a segment) are thinned to what the map's pixels
+    // can show; ordinary coasts are drawn as given, so their pictures do not move.
+    const detailed = vertexCount(ordered) > mostVerticesDrawnAsGiven ? simplifiedForScale(ordered, kmPerPx) : ordered;
+    for (const f of detailed) {
       const d = path(f);
       if (!d) continue;
       const style = levelStyles[f.properties.level];
