@@ -5,11 +5,10 @@
 // Reference images: test/fixtures/images/, written by Pillow 9.4 (test/reference/make-logo-images.py);
 // the format and size of each below is what Pillow read back from the file (the script prints it),
 // and agrees with file(1) (libmagic) for the PNG, JPEG and lossy WebP files.
-import { readFileSync, symlinkSync } from 'node:fs';
-import { mkdtempSync, writeFileSync } from 'node:fs';
+import { mkdtempSync, readFileSync, rmSync, symlinkSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { describe, expect, test } from 'vitest';
+import { afterAll, describe, expect, test } from 'vitest';
 import { readImageHeader } from '../../generator/read/image-header.ts';
 import { loadScenario } from '../../generator/read/load-scenario.ts';
 import { logoMaxBytes } from '../../generator/read/publisher-logo.ts';
@@ -18,11 +17,17 @@ import { baseScenario, expectIssue, scenarioCopy } from './fixture-scenario.ts';
 
 const images = path.join(import.meta.dirname, '..', 'fixtures', 'images');
 const image = (name: string): Buffer => readFileSync(path.join(images, name));
+const made: string[] = [];
+afterAll(() => {
+  for (const dir of made) rmSync(dir, { recursive: true, force: true });
+});
 
 /** The base test coast with publisherLogo set and the given files added. */
 function withLogo(logoPath: string, files: { [path: string]: string | Uint8Array } = {}): string {
   const settings = JSON.parse(readFileSync(path.join(baseScenario, 'scenario.json'), 'utf8')) as { [key: string]: unknown };
-  return scenarioCopy({ files: { ...files, 'scenario.json': JSON.stringify({ ...settings, publisherLogo: logoPath }, null, 2) } });
+  const dir = scenarioCopy({ files: { ...files, 'scenario.json': JSON.stringify({ ...settings, publisherLogo: logoPath }, null, 2) } });
+  made.push(dir);
+  return dir;
 }
 
 async function refusal(dir: string) {
@@ -102,6 +107,7 @@ describe('publisherLogo at check', () => {
 
   test('a symbolic link to a file outside the scenario folder is refused', async () => {
     const outside = mkdtempSync(path.join(tmpdir(), 'wrackline-outside-'));
+    made.push(outside);
     writeFileSync(path.join(outside, 'logo.png'), image('logo-120x48.png'));
     const dir = withLogo('logo.png');
     symlinkSync(path.join(outside, 'logo.png'), path.join(dir, 'logo.png'));
