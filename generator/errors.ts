@@ -103,7 +103,7 @@ export const NoteTargetUnknown = {
   name: 'NoteTargetUnknown',
   title: 'Publisher note names an unknown season or segment',
   message: (file: string, jsonPath: string, value: string, expected: string) => `${file}, at ${jsonPath}: ${value} is not known; expected ${expected}`,
-  hint: 'A note belongs to a season listed in "publications" and, unless segment is null, to a segment id of the segments file; the note was not shown',
+  hint: 'A note belongs to a season listed in "publications" and, unless segment is null, to a segment id of the segments file; a note naming anything else would be shown nowhere',
 } satisfies ErrorData;
 
 // ---------------------------------------------------------------------------------------------
