@@ -91,6 +91,21 @@ export const SettingUnknown = {
   hint: 'Check the spelling (names are case-sensitive); an editor using schema/scenario.schema.json completes them',
 } satisfies ErrorData;
 
+export const PublisherLogoRefused = {
+  name: 'PublisherLogoRefused',
+  title: "Publisher's logo cannot be used",
+  message: (file: string, jsonPath: string, logo: string, found: string, expected: string) =>
+    `${file}, at ${jsonPath}: the logo file ${quoteValue(logo)} is ${found}; expected ${expected}`,
+  hint: 'Give a PNG, JPEG or WebP image inside the scenario folder, at most 256 KB and 2,000 pixels a side (a PNG about 400 pixels wide is plenty for the page header)',
+} satisfies ErrorData;
+
+export const NoteTargetUnknown = {
+  name: 'NoteTargetUnknown',
+  title: 'Publisher note names an unknown season or segment',
+  message: (file: string, jsonPath: string, value: string, expected: string) => `${file}, at ${jsonPath}: ${value} is not known; expected ${expected}`,
+  hint: 'A note belongs to a season listed in "publications" and, unless segment is null, to a segment id of the segments file; a note naming anything else would be shown nowhere',
+} satisfies ErrorData;
+
 // ---------------------------------------------------------------------------------------------
 // Table structure
 // ---------------------------------------------------------------------------------------------

@@ -126,7 +126,7 @@ export async function realSteps(siteRoot: string | undefined, strict = false): P
         `reused from earlier builds: ${formatCount(bulletinsReused)} of ${formatCount(bulletinsReused + bulletinsComposed)} bulletins, ` +
           `${formatCount(seriesReused)} of ${formatCount(seriesReused + seriesEvaluated)} series; trend cache: ${formatCount(hits)} series reused, ${formatCount(misses)} computed`,
       );
-      return { site: made.site, regions: made.regions, bulletins: [], written: made.bulletins };
+      return { site: made.site, regions: made.regions, bulletins: [], written: made.bulletins, ...(made.publisherLogo ? { publisherLogo: made.publisherLogo } : {}) };
     },
     write: (dir, set) => writeModel(dir, set),
     render: ({ modelDir, outDir, onPage, only }) =>

@@ -14,6 +14,7 @@ import type { LoadedScenario } from '../scenario/types.ts';
 import { composeBulletin } from './compose-bulletin.ts';
 import { composeRegion } from './compose-region.ts';
 import { siteMap } from './site-map.ts';
+import { publisherLogoAsset, publisherLogoRef } from './publisher-logo.ts';
 import { evaluateSeason, type SeasonEvaluation, type TrendEngine } from './evaluate-season.ts';
 import { previousSeasonId, seasonRef } from './seasons.ts';
 import type { Bulletin, RegionSummary, SiteModel } from './types.ts';
@@ -22,6 +23,8 @@ export interface BulletinModelSet {
   site: SiteModel;
   regions: RegionSummary[];
   bulletins: Bulletin[];
+  /** the publisher's logo file for the site (publisher-logo.ts); absent when none */
+  publisherLogo?: { file: string; bytes: Uint8Array };
 }
 
 export interface AssembleModelOptions {
@@ -89,7 +92,7 @@ export function assembleModel(scenario: LoadedScenario, engine: TrendEngine, opt
     for (const segment of segments) bulletins.push(composeBulletin(scenario, segment, now, before, publication.date, { rules, publishedSeasons }));
   }
 
-  return { site: siteModel(scenario, rules, publications), regions, bulletins };
+  return { site: siteModel(scenario, rules, publications), regions, bulletins, ...publisherLogoAsset(scenario) };
 }
 
 /** site.json: the region, the published seasons (the last one current), the inputs and the validation report. */
@@ -110,6 +113,7 @@ export function siteModel(scenario: LoadedScenario, rules: readonly RiskRule[], 
     validation: scenario.report,
     driftModel: scenario.drift !== null,
     map: siteMap(scenario),
+    ...(scenario.publisherLogo ? { publisherLogo: publisherLogoRef(scenario.publisherLogo, settings.publisher.name) } : {}),
     settingsDigest: {
       riskRules: rules.map((r) => ({ id: r.id, level: r.level, text: r.text })),
       riskRulesNote:

@@ -16,6 +16,7 @@ import { createHash } from 'node:crypto';
 import { indicatorIds } from '../indicators/index.ts';
 import type { LoadedScenario, Record as ScenarioRecord } from '../scenario/types.ts';
 import { modelScope, siteModel, type AssembleModelOptions } from './assemble-model.ts';
+import { publisherLogoAsset } from './publisher-logo.ts';
 import { composeBulletin } from './compose-bulletin.ts';
 import { areaRegionalSites, scenarioAreas } from './areas.ts';
 import { composeRegion, type RegionInputs } from './compose-region.ts';
@@ -51,6 +52,8 @@ export interface MemoModelSet {
   site: SiteModel;
   regions: RegionSummary[];
   bulletins: WrittenBulletin[];
+  /** the publisher's logo file for the site (publisher-logo.ts); absent when none */
+  publisherLogo?: { file: string; bytes: Uint8Array };
   counts: { seriesEvaluated: number; seriesReused: number; bulletinsComposed: number; bulletinsReused: number };
 }
 
@@ -220,5 +223,5 @@ export function assembleModelWithMemo(scenario: LoadedScenario, engine: TrendEng
       bulletins.push({ seasonId: now.context.seasonId, segmentId: segment.id, text, sha256: createHash('sha256').update(text).digest('hex'), listing, reused: false });
     }
   }
-  return { site: siteModel(scenario, rules, publications), regions, bulletins, counts };
+  return { site: siteModel(scenario, rules, publications), regions, bulletins, counts, ...publisherLogoAsset(scenario) };
 }

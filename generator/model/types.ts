@@ -340,4 +340,18 @@ export interface SiteModel {
   /** Whether the scenario has drift-model input; without it no page speaks of the drift model. */
   driftModel: boolean;
   map?: SiteMapModel;
+  /** The publisher's logo in every page header (model/publisher-logo.ts); absent when none. */
+  publisherLogo?: PublisherLogoRef;
+}
+
+/** Where the built site serves the publisher's logo (a name made from its SHA-256), its kind, size and alt text. */
+export interface PublisherLogoRef {
+  /** file name under /publisher-logo/, e.g. "3f2a…9c.png" */
+  file: string;
+  href: string;
+  sha256: string;
+  mediaType: string;
+  width: number;
+  height: number;
+  alt: string;
 }

@@ -4,6 +4,7 @@
  *   <dir>/regions/<seasonId>.json
  *   <dir>/bulletins/<seasonId>/<segmentId>.json
  *   <dir>/listing/<seasonId>.json   what pages listing many bulletins read (listing.ts), by segment id
+ *   <dir>/publisher-logo/<sha256>.<ext>  the publisher's logo, when the settings give one (publisher-logo.ts)
  * Files are written to a temporary name and renamed, so a reader never sees half a file.
  */
 import { mkdirSync, renameSync, writeFileSync } from 'node:fs';
@@ -12,9 +13,15 @@ import type { BulletinModelSet } from './assemble-model.ts';
 import { listingOf, type BulletinListing } from './listing.ts';
 import { giveTurn } from '../event-loop.ts';
 import { stableJson } from './stable-json.ts';
+import { publisherLogoFolder } from './publisher-logo.ts';
 import type { WrittenBulletin } from './written-bulletin.ts';
 
 const safeName = /^[a-z0-9][a-z0-9-]*$/;
+
+function checkedLogoName(name: string): string {
+  if (!/^[0-9a-f]{32}\.(png|jpg|webp)$/.test(name)) throw new Error(`writeModel: publisher logo "${name}" is not a content-addressed file name`);
+  return name;
+}
 
 function checkedName(kind: string, name: string): string {
   if (!safeName.test(name)) throw new Error(`writeModel: ${kind} "${name}" is not a safe file name`);
@@ -44,6 +51,7 @@ export async function writeModel(dir: string, set: BulletinModelSet & { written?
   madeDirs.clear();
   mkdirSync(dir, { recursive: true });
   writeJson(join(dir, 'site.json'), set.site);
+  if (set.publisherLogo) writeText(join(dir, publisherLogoFolder, checkedLogoName(set.publisherLogo.file)), Buffer.from(set.publisherLogo.bytes));
   for (const region of set.regions) {
     writeJson(join(dir, 'regions', `${checkedName('season', region.season.id)}.json`), region);
   }

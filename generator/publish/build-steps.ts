@@ -14,6 +14,7 @@ export interface ModelSet {
   bulletins: Bulletin[];
   /** Bulletins already written as model files (stable JSON), e.g. taken from the model memo. */
   written?: WrittenBulletin[];
+  publisherLogo?: { file: string; bytes: Uint8Array };
 }
 
 export interface BuildSteps {

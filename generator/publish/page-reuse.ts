@@ -9,7 +9,7 @@
  * - the site fingerprint: the text of every file under site/ and public/, of astro.config.mjs,
  *   package.json, package-lock.json and tsconfig.json, and of every project file these import,
  *   directly or not (e.g. generator/model/read-model.ts); any change there → every key changes;
- * - the seasons of site.json (which one is current, labels) and the sorted list of every
+ * - the seasons of site.json (which one is current, labels), its map and logo, and the sorted list of every
  *   bulletin id (which seasons a segment has a bulletin in: the page links to them);
  * - the parts of its season's region summary a bulletin page reads: each segment's name, kind,
  *   level and geometry (locator map), the accumulation zones, the publisher, the region's name,
@@ -187,9 +187,9 @@ export async function computeRenderKeys(modelDir: string, fingerprint: string, h
     seasons.map((s) => s.id),
   );
   const fileHashes = hashes ?? (await modelFileHashes(modelDir));
-  // land drawn under every locator map (site.json "map"): other land, every bulletin page again
-  const siteMap = (JSON.parse(readFileSync(path.join(modelDir, 'site.json'), 'utf8')) as { map?: unknown }).map ?? null;
-  const shared = sha256(keyScheme, fingerprint, JSON.stringify(seasons), current, files.map((f) => f.id).join('\n'), sha256(JSON.stringify(siteMap)));
+  // land under every locator map, the logo in every header (site.json "map", "publisherLogo"): other ones, every bulletin page again
+  const { map: siteMap = null, publisherLogo = null } = JSON.parse(readFileSync(path.join(modelDir, 'site.json'), 'utf8')) as { map?: unknown; publisherLogo?: unknown };
+  const shared = sha256(keyScheme, fingerprint, JSON.stringify(seasons), current, files.map((f) => f.id).join('\n'), sha256(JSON.stringify([siteMap, publisherLogo])));
   const regionKeys = new Map<string, string>();
   for (const season of new Set(files.map((f) => f.season))) {
     const text = await readFile(path.join(modelDir, 'regions', `${season}.json`), 'utf8').catch(() => null);

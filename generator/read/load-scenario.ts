@@ -38,6 +38,8 @@ import { readSettings } from './read-settings.ts';
 import { readSegments } from './read-segments.ts';
 import { placeInFolder } from './inside-folder.ts';
 import { readLand } from './read-land.ts';
+import { readPublisherLogo } from './publisher-logo.ts';
+import { checkNoteTargets } from './note-targets.ts';
 import { seasonRange } from './season-calendar.ts';
 
 export interface LoadOptions {
@@ -326,8 +328,16 @@ export async function loadScenario(dir: string, options: LoadOptions = {}): Prom
       excluded: false,
     });
   });
+  // Publisher notes must name a published season and, unless season-wide, a segment of the file.
+  if (readSettingsResult) checkNoteTargets(settings, segments, leftOutSegments, settingsFile, log);
+  // The publisher's logo: read through the same resolver as the resources, checked by its bytes.
+  const publisherLogo =
+    readSettingsResult && readSettingsResult.publisherLogo !== undefined ? await readPublisherLogo(realRoot, readSettingsResult.publisherLogo, settingsFile, log) : null;
+  if (publisherLogo && !inputs.some((input) => input.file === publisherLogo.file)) {
+    inputs.push({ file: publisherLogo.file, sha256: publisherLogo.sha256, bytes: publisherLogo.bytes.length });
+  }
   if (options.strict) log.makeWarningsErrors();
   progress('done', 1, 1);
 
-  return { dir: root, settings, segments, land, records, drift, inputs, report: log.report() };
+  return { dir: root, settings, segments, land, records, drift, inputs, ...(publisherLogo ? { publisherLogo } : {}), report: log.report() };
 }

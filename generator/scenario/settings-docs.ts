@@ -37,6 +37,11 @@ export const settingsDocs: { readonly [path: string]: SettingDoc } = {
   },
   publisher: { description: 'Who publishes the bulletins; shown on every page.', example: { role: 'publisher', name: 'Coastal Monitoring Office' } },
   ...contact('publisher', { role: 'publisher', name: 'Coastal Monitoring Office' }),
+  publisherLogo: {
+    description:
+      "The publisher's logo, shown beside the publisher's name in every page header (optional). A file inside the scenario folder, path relative to it: a PNG, JPEG or WebP image (told by its first bytes, not its name), at most 256 KB and 2,000 pixels a side. SVG is refused, as an SVG drawing can carry script: give a PNG instead. The built site serves it under a name made from its SHA-256.",
+    example: 'brand/logo.png',
+  },
   authorities: {
     description:
       'The authorities a reader is sent to (at least one). A bulletin never opens or closes a shellfish harvest area: it defers to the shellfish-sanitation and public-health authorities listed here.',

@@ -55,6 +55,11 @@ export const settingsSchema = z.object({
   dataNotice: z.enum(['demo', 'test-data', 'provisional', 'none']).optional(),
   region: z.object({ id: slug, name: z.string().min(1), description: z.string().default('') }),
   publisher: contactSchema,
+  /**
+   * The publisher's logo: a PNG, JPEG or WebP file inside the scenario folder (path relative to
+   * it), shown beside the publisher's name in every page header. Optional.
+   */
+  publisherLogo: z.string().min(1).max(300).optional(),
   authorities: z.array(contactSchema).min(1),
   seasons: z.array(seasonDefinitionSchema).default(defaultSeasons),
   /** Published seasons, oldest first; the last one is the season being published now. */

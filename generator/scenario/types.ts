@@ -60,7 +60,20 @@ export interface LoadedScenario {
   land?: LandShapes | null;
   drift: { arrivals: DriftArrivals[]; zones: { season: string; zones: AccumulationZone[] }[] } | null;
   inputs: InputFile[];
+  /** the publisher's logo (setting `publisherLogo`), checked by read/publisher-logo.ts; absent when none */
+  publisherLogo?: PublisherLogo | null;
   report: ValidationReport;
+}
+
+/** The publisher's logo as read: its bytes, their SHA-256, and the kind and size told by its header. */
+export interface PublisherLogo {
+  file: string; // as named in the settings, relative to the scenario folder
+  sha256: string;
+  bytes: Uint8Array;
+  type: 'png' | 'jpeg' | 'webp';
+  mediaType: string;
+  width: number;
+  height: number;
 }
 
 /** Land polygons for the maps (the optional `land` resource, read by read/read-land.ts). */

@@ -26,13 +26,14 @@ async function writeJson(file: string, value: unknown): Promise<void> {
 }
 
 /** A small model folder in the layout writeModel writes. */
-async function smallModel(dir: string, change: { value?: number; level?: string; headline?: string } = {}): Promise<void> {
+async function smallModel(dir: string, change: { value?: number; level?: string; headline?: string; logo?: string } = {}): Promise<void> {
   await writeJson(path.join(dir, 'site.json'), {
     seasons: [
       { id: '2026-summer', current: false },
       { id: '2026-autumn', current: true },
     ],
     manifest: [{ file: 'tables/a.csv', sha256: String(change.value ?? 1) }],
+    ...(change.logo ? { publisherLogo: { file: `${change.logo}.png`, href: `/publisher-logo/${change.logo}.png` } } : {}),
   });
   for (const season of ['2026-summer', '2026-autumn']) {
     await writeJson(path.join(dir, 'regions', `${season}.json`), {
@@ -77,6 +78,17 @@ describe('render keys and the render plan', () => {
       render: ['2026-autumn/north-bay', '2026-autumn/south-reef'],
       reuse: ['2026-summer/north-bay', '2026-summer/south-reef'],
     });
+  });
+
+  test("a publisher logo added or changed (every page's header shows it): render everything", async () => {
+    await smallModel(path.join(work, 'logo-a'), { logo: 'a'.repeat(32) });
+    await smallModel(path.join(work, 'logo-b'), { logo: 'b'.repeat(32) });
+    const none = await computeRenderKeys(path.join(work, 'm1'), 'site-a');
+    const a = await computeRenderKeys(path.join(work, 'logo-a'), 'site-a');
+    const b = await computeRenderKeys(path.join(work, 'logo-b'), 'site-a');
+    expect(planRender(none, a).kind).toBe('all');
+    expect(planRender(a, b).kind).toBe('all');
+    expect(planRender(a, await computeRenderKeys(path.join(work, 'logo-a'), 'site-a')).kind).toBe('some');
   });
 
   test('another site fingerprint, no keys on line or another key scheme: render everything', async () => {

@@ -13,6 +13,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import type { Bulletin } from '../../generator/model/types.ts';
+import { checkAtomFeed } from './helpers/atom-feed.ts';
 import { packageRoot, runCli } from './helpers/cli-build.ts';
 
 let work: string;
@@ -231,63 +232,34 @@ describe.skipIf(!existsSync('/usr/bin/chromium'))('a hostile publisher note in a
 });
 
 // Per-segment Atom feeds of the approved demo release (both seasons), checked against RFC 4287
-// (Nottingham & Sayre 2005), section by section; dates against the scenario's publication dates.
+// (Nottingham & Sayre 2005), section by section (helpers/atom-feed.ts); dates against the
+// scenario's publication dates. The per-area feeds get the same checks in national-coast-site.test.ts.
 describe('per-segment Atom feeds', () => {
   test('every segment has a valid feed with an entry per season, dated from the scenario', async () => {
-    const { parseDocument, DomUtils } = await import('htmlparser2');
     const settings = JSON.parse(fullSettings) as { publications: { season: string; date: string }[] };
     const published = new Map(settings.publications.map((p) => [p.season, `${p.date}T00:00:00Z`]));
-    const rfc3339 = /^\d{4}-\d{2}-\d{2}T\d{2}:\d{2}:\d{2}(\.\d+)?(Z|[+-]\d{2}:\d{2})$/; // RFC 4287 §3.3 (RFC 3339 date-time, upper-case T and Z)
     const segments = readdirSync(path.join(out, 'segments'));
     expect(segments.length).toBe(30);
     const allEntryIds = new Map<string, string>();
     for (const segment of segments) {
-      const xml = await readFile(path.join(out, 'feeds', `${segment}.xml`), 'utf8');
-      const doc = parseDocument(xml, { xmlMode: true });
-      const feeds = DomUtils.getElementsByTagName('feed', doc, true);
-      expect(feeds.length).toBe(1);
-      const feed = feeds[0]!;
-      expect(feed.attribs['xmlns']).toBe('http://www.w3.org/2005/Atom'); // §2: the Atom namespace
-      const child = (parent: typeof feed, name: string) => DomUtils.getChildren(parent).filter((n): n is typeof feed => DomUtils.isTag(n) && n.name === name);
-      // §4.1.1: exactly one id, title, updated; an author (no entry has its own); a self link (SHOULD)
-      for (const name of ['id', 'title', 'updated']) expect(child(feed, name).length, `${segment} feed ${name}`).toBe(1);
-      expect(child(feed, 'author').length).toBe(1);
-      expect(DomUtils.textContent(child(child(feed, 'author')[0]!, 'name')[0]!)).toBe('Tessavar Coastal Observatory'); // §3.2: name required
-      const links = child(feed, 'link');
-      expect(links.filter((l) => l.attribs['rel'] === 'self').map((l) => l.attribs['href'])).toEqual([`/feeds/${segment}.xml`]);
-      expect(links.filter((l) => l.attribs['rel'] === 'alternate').length).toBe(1); // §4.1.1: at most one alternate per type/hreflang
-      expect(DomUtils.textContent(child(feed, 'title')[0]!)).toContain('Tessavar Coastal Observatory: ');
-      const feedId = DomUtils.textContent(child(feed, 'id')[0]!);
-      expect(feedId).toMatch(/^tag:[^,]+,\d{4}:/); // §4.2.6: an IRI; here a tag URI (RFC 4151 §2.1)
-      const entries = child(feed, 'entry');
-      expect(entries.length).toBeGreaterThan(0);
-      const ids = new Set<string>();
-      let latest = '';
-      for (const entry of entries) {
-        // §4.1.2: exactly one id, title, updated; no content, so an alternate link (MUST)
-        for (const name of ['id', 'title', 'updated']) expect(child(entry, name).length).toBe(1);
-        const alternate = child(entry, 'link').filter((l) => l.attribs['rel'] === 'alternate');
-        expect(alternate.length).toBe(1);
-        const href = alternate[0]!.attribs['href']!;
-        expect(existsSync(path.join(out, href, 'index.html')), href).toBe(true);
-        const season = /^\/seasons\/([^/]+)\//.exec(href)?.[1] ?? '';
-        const id = DomUtils.textContent(child(entry, 'id')[0]!);
-        expect(ids.has(id)).toBe(false); // §4.2.6: ids unique within the feed
-        ids.add(id);
+      const feed = await checkAtomFeed(await readFile(path.join(out, 'feeds', `${segment}.xml`), 'utf8'), `feeds/${segment}.xml`);
+      expect(feed.author).toBe('Tessavar Coastal Observatory'); // §3.2: name required
+      expect(feed.self).toEqual([`/feeds/${segment}.xml`]);
+      expect(feed.alternate).not.toBeNull();
+      expect(feed.title).toContain('Tessavar Coastal Observatory: ');
+      expect(feed.entries.length).toBeGreaterThan(0);
+      for (const entry of feed.entries) {
+        expect(existsSync(path.join(out, entry.alternate, 'index.html')), entry.alternate).toBe(true);
+        const season = /^\/seasons\/([^/]+)\//.exec(entry.alternate)?.[1] ?? '';
         // the same entry has the same id in every feed it is in (§4.2.6: an id identifies an entry)
-        if (allEntryIds.has(id)) expect(allEntryIds.get(id)).toBe(href);
-        allEntryIds.set(id, href);
-        const updated = DomUtils.textContent(child(entry, 'updated')[0]!);
-        expect(updated).toMatch(rfc3339);
-        expect(updated).toBe(published.get(season)); // from the scenario, not the clock
-        expect(DomUtils.textContent(child(entry, 'published')[0]!)).toBe(published.get(season));
+        if (allEntryIds.has(entry.id)) expect(allEntryIds.get(entry.id)).toBe(entry.alternate);
+        allEntryIds.set(entry.id, entry.alternate);
+        expect(entry.updated).toBe(published.get(season)); // from the scenario, not the clock
+        expect(entry.published).toBe(published.get(season));
         // a place with no survey in the last four seasons has no level (never the lowest one)
-        expect(DomUtils.textContent(child(entry, 'title')[0]!)).toMatch(/\(level [1-4] of 4\)$|: Level not set$/);
-        expect(DomUtils.textContent(child(entry, 'summary')[0]!).length).toBeGreaterThan(20);
-        if (updated > latest) latest = updated;
+        expect(entry.title).toMatch(/\(level [1-4] of 4\)$|: Level not set$/);
+        expect(entry.summary.length).toBeGreaterThan(20);
       }
-      // §4.2.15: the feed's updated is the latest significant change, its entries'
-      expect(DomUtils.textContent(child(feed, 'updated')[0]!)).toBe(latest);
       // the bulletin links to its feed, visibly and in its head
       const page = await readFile(path.join(out, 'segments', segment, 'index.html'), 'utf8');
       expect(page).toContain(`<link rel="alternate" type="application/atom+xml"`);
