@@ -113,7 +113,7 @@ export function siteModel(scenario: LoadedScenario, rules: readonly RiskRule[], 
     validation: scenario.report,
     driftModel: scenario.drift !== null,
     map: siteMap(scenario),
-    ...(scenario.publisherLogo ? { publisherLogo: publisherLogoRef(scenario.publisherLogo, settings.publisher.name) } : {}),
+    ...(scenario.publisherLogo ? { publisherLogo: publisherLogoRef(scenario.publisherLogo) } : {}),
     settingsDigest: {
       riskRules: rules.map((r) => ({ id: r.id, level: r.level, text: r.text })),
       riskRulesNote:

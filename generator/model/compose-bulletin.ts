@@ -104,7 +104,10 @@ function chartDescription(evaluation: IndicatorEvaluation, scenario: LoadedScena
     },
     confidence,
   );
-  const summarised = evaluation.observations.length > mostSamplesDrawn && !seasonTotalsOf(evaluation, scenario) ? " Each dot is the median of one season's samples, with a line from the lowest to the highest." : '';
+  const summarised =
+    evaluation.observations.length > mostSamplesDrawn && !seasonTotalsOf(evaluation, scenario)
+      ? " Each dot is the median of one season's samples, with a line from the lowest to the highest."
+      : '';
   return `${definition.label} at ${segmentName}, ${definition.unitShort}: ${evaluation.sampleCount} values${span}. Direction: ${directionPhrases[evaluation.direction]}. ${drawn}${summarised}`;
 }
 

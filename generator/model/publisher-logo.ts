@@ -1,6 +1,6 @@
 /**
  * The publisher's logo in the model: the reference site.json carries (content-addressed file
- * name, kind, size, alt text) and the file the model folder holds for the site to copy. The
+ * name, kind, size) and the file the model folder holds for the site to copy. The
  * name is the first 32 hex digits of the file's SHA-256, so the same logo always gets the same
  * address (reproducible builds) and a changed logo a new one (no stale copy in any cache).
  */
@@ -17,10 +17,10 @@ export function publisherLogoFileName(logo: Pick<PublisherLogo, 'sha256' | 'type
   return `${logo.sha256.slice(0, 32)}.${extensionOf[logo.type]}`;
 }
 
-/** The logo's entry of site.json; the alt text is the publisher's name. */
-export function publisherLogoRef(logo: PublisherLogo, publisherName: string): PublisherLogoRef {
+/** The logo's entry of site.json. */
+export function publisherLogoRef(logo: PublisherLogo): PublisherLogoRef {
   const file = publisherLogoFileName(logo);
-  return { file, href: `/${publisherLogoFolder}/${file}`, sha256: logo.sha256, mediaType: logo.mediaType, width: logo.width, height: logo.height, alt: publisherName };
+  return { file, href: `/${publisherLogoFolder}/${file}`, sha256: logo.sha256, mediaType: logo.mediaType, width: logo.width, height: logo.height };
 }
 
 /** The file the model folder holds for the site (written by write-model.ts), or nothing. */

@@ -344,7 +344,7 @@ export interface SiteModel {
   publisherLogo?: PublisherLogoRef;
 }
 
-/** Where the built site serves the publisher's logo (a name made from its SHA-256), its kind, size and alt text. */
+/** Where the built site serves the publisher's logo (a name made from its SHA-256), its kind and size (no alt text: the name is written beside it). */
 export interface PublisherLogoRef {
   /** file name under /publisher-logo/, e.g. "3f2a…9c.png" */
   file: string;
@@ -353,5 +353,4 @@ export interface PublisherLogoRef {
   mediaType: string;
   width: number;
   height: number;
-  alt: string;
 }

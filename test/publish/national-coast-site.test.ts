@@ -1,7 +1,7 @@
 // A built national coast (the scale scenario of bench/, 160 segments: above the 150 where the
 // overview shows areas; three years so it builds in a test) with a publisher logo:
 // - the logo in the header of every kind of page, served under its content-addressed name with
-//   the bytes given and the publisher's name as alt text;
+//   the bytes given, with empty alt text beside the publisher's name in the same link (W3C WCAG 2.1 technique H2);
 // - one Atom feed per area, checked against RFC 4287 (Nottingham & Sayre 2005) section by section
 //   (helpers/atom-feed.ts, the checks of the per-segment feeds), an entry per published season
 //   dated from the scenario's publication dates, ids unique across every feed of the site, and
@@ -41,14 +41,14 @@ afterAll(async () => {
 });
 
 describe('publisher logo in the header', () => {
-  test('served under the first 32 hex digits of its SHA-256, byte for byte, and shown on every kind of page with the publisher as alt text', async () => {
+  test('served under the first 32 hex digits of its SHA-256, byte for byte, and shown on every kind of page beside the publisher name, with empty alt text', async () => {
     const name = `${createHash('sha256').update(logo).digest('hex').slice(0, 32)}.png`;
     expect(readFileSync(path.join(out, 'publisher-logo', name)).equals(logo)).toBe(true);
     expect(readdirSync(path.join(out, 'publisher-logo'))).toEqual([name]);
     const area = readdirSync(path.join(out, 'areas'))[0];
     const segment = readdirSync(path.join(out, 'segments'))[0];
     const pages = ['index.html', `areas/${area}/index.html`, `segments/${segment}/index.html`, `seasons/2026-summer/${segment}/index.html`, 'methods/index.html'];
-    const img = `<img class="publisher-logo" src="/publisher-logo/${name}" alt="${settings.publisher.name}" width="120" height="48">`;
+    const img = `<img class="publisher-logo" src="/publisher-logo/${name}" alt="" width="120" height="48">`;
     for (const page of pages) {
       const html = await readFile(path.join(out, page), 'utf8');
       expect(html, page).toContain(`<a class="wordmark with-logo" href="/">${img}${settings.publisher.name} <span>`);
