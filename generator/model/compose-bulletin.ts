@@ -108,7 +108,7 @@ function chartDescription(evaluation: IndicatorEvaluation, scenario: LoadedScena
     evaluation.observations.length > mostSamplesDrawn && !seasonTotalsOf(evaluation, scenario)
       ? " Each dot is the median of one season's samples, with a line from the lowest to the highest."
       : '';
-  return `${definition.label} at ${segmentName}, ${definition.unitShort}: ${evaluation.sampleCount} values${span}. Direction: ${directionPhrases[evaluation.direction]}. ${drawn}${summarised}`;
+  return `${definition.label} at ${segmentName}, ${definition.unitShort}: ${evaluation.sampleCount.toLocaleString('en-GB')} values${span}. Direction: ${directionPhrases[evaluation.direction]}. ${drawn}${summarised}`;
 }
 
 /** A count of animals where every season so far counted 0. */
