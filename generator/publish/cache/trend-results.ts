@@ -17,7 +17,7 @@
 import { createHash } from 'node:crypto';
 import type { RegionalResult, TrendEngine, TrendOutcome } from '../../model/evaluate-season.ts';
 import type { TrendResult } from '../../stats/types.ts';
-import { canonicalJson } from '../archive-ledger.ts';
+import { canonicalJson } from '../check/archive-ledger.ts';
 import { codeFingerprint, openShelf } from './result-cache.ts';
 
 /** The shelves (result-cache.ts) of this cache. */

@@ -19,10 +19,10 @@
 import { linkSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { packageRoot, resolvePackageBin, runNodeScript } from './astro-render.ts';
-import { linkOrCopy } from './move-files.ts';
-import { compareCodeUnits } from './tree-hash.ts';
-import type { FileHash } from './tree-hash.ts';
-import { giveTurn } from '../event-loop.ts';
+import { linkOrCopy } from '../move-files.ts';
+import { compareCodeUnits } from '../tree-hash.ts';
+import type { FileHash } from '../tree-hash.ts';
+import { giveTurn } from '../../event-loop.ts';
 
 export const searchIndexFolder = 'search-index';
 export const searchPartsFileName = `${searchIndexFolder}/parts.json`;

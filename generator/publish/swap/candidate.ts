@@ -15,8 +15,8 @@ import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { placeFor } from './release-swap.ts';
 import type { PublishSession } from './release-swap.ts';
-import { hashFile, hashTree, treeDigest } from './tree-hash.ts';
-import type { FileHash } from './tree-hash.ts';
+import { hashFile, hashTree, treeDigest } from '../tree-hash.ts';
+import type { FileHash } from '../tree-hash.ts';
 
 export interface CandidatePlace {
   folder: string;

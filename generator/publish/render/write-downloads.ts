@@ -9,11 +9,11 @@
  */
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
-import { observationsCsv, resultsCsv } from '../model/download-tables.ts';
-import type { Bulletin } from '../model/types.ts';
-import { linkOrCopy } from './move-files.ts';
-import { assertSlug } from './safe-path.ts';
-import { giveTurn } from '../event-loop.ts';
+import { observationsCsv, resultsCsv } from '../../model/download-tables.ts';
+import type { Bulletin } from '../../model/types.ts';
+import { linkOrCopy } from '../move-files.ts';
+import { assertSlug } from '../check/safe-path.ts';
+import { giveTurn } from '../../event-loop.ts';
 
 export const downloadFiles = ['bulletin.json', 'observations.csv', 'results.csv'] as const;
 

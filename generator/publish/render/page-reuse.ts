@@ -30,11 +30,11 @@ import { createHash } from 'node:crypto';
 import { existsSync, mkdirSync, readFileSync, readdirSync, renameSync } from 'node:fs';
 import { readFile, readdir, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import { importedFiles } from './import-graph.ts';
-import { linkOrCopy } from './move-files.ts';
-import { compareCodeUnits } from './tree-hash.ts';
-import type { FileHash } from './tree-hash.ts';
-import { giveTurn } from '../event-loop.ts';
+import { importedFiles } from '../import-graph.ts';
+import { linkOrCopy } from '../move-files.ts';
+import { compareCodeUnits } from '../tree-hash.ts';
+import type { FileHash } from '../tree-hash.ts';
+import { giveTurn } from '../../event-loop.ts';
 
 export const renderKeysFileName = 'render-keys.json';
 /** Changes whenever the way keys are computed changes (old keys then never match). */

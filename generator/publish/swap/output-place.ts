@@ -16,7 +16,7 @@
 import { constants } from 'node:fs';
 import { access, lstat, readFile, readdir, readlink, stat, statfs } from 'node:fs/promises';
 import path from 'node:path';
-import { manifestFileName } from './tree-hash.ts';
+import { manifestFileName } from '../tree-hash.ts';
 import { inspectOutput, placeFor } from './release-swap.ts';
 
 export const minimumFreeBytes = 16 * 1024 * 1024;

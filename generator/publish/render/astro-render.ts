@@ -17,11 +17,11 @@ import { availableParallelism } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { ownerOf } from './page-reuse.ts';
-import { moveFiles } from './move-files.ts';
-import { compareCodeUnits, listFiles } from './tree-hash.ts';
+import { moveFiles } from '../move-files.ts';
+import { compareCodeUnits, listFiles } from '../tree-hash.ts';
 
-/** The folder holding this package's package.json (two levels above generator/publish/). */
-export const packageRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
+/** The folder holding this package's package.json (three levels above generator/publish/render/). */
+export const packageRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..', '..');
 
 /**
  * Absolute path of a package's command-line script, read from its package.json "bin". The

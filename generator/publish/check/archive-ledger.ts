@@ -16,11 +16,11 @@ import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { readdir } from 'node:fs/promises';
 import path from 'node:path';
-import type { Bulletin, RegionSummary, SiteModel } from '../model/types.ts';
-import { PublishError } from './publish-error.ts';
+import type { Bulletin, RegionSummary, SiteModel } from '../../model/types.ts';
+import { PublishError } from '../publish-error.ts';
 import { assertSlug, resolveInside } from './safe-path.ts';
-import { compareCodeUnits } from './tree-hash.ts';
-import { giveTurn } from '../event-loop.ts';
+import { compareCodeUnits } from '../tree-hash.ts';
+import { giveTurn } from '../../event-loop.ts';
 
 export const ledgerFileName = 'archive-ledger.json';
 

@@ -35,9 +35,9 @@
 import { existsSync } from 'node:fs';
 import { lstat, mkdir, open, readFile, readdir, readlink, rename, rm, rmdir, stat, symlink, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import { PublishError } from './publish-error.ts';
+import { PublishError } from '../publish-error.ts';
 import { removeInWorker } from './remove-in-worker.ts';
-import { hashFilesIn, listFiles, manifestFileName, readManifest } from './tree-hash.ts';
+import { hashFilesIn, listFiles, manifestFileName, readManifest } from '../tree-hash.ts';
 
 export interface PublishPlace {
   /** Absolute output path (the link). */

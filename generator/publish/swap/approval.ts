@@ -14,14 +14,14 @@
 import { readFile, rm, writeFile } from 'node:fs/promises';
 import { mkdirSync } from 'node:fs';
 import path from 'node:path';
-import { approvalSentence } from '../bulletin/approval-words.ts';
-import type { Approval } from '../bulletin/approval-words.ts';
+import { approvalSentence } from '../../bulletin/approval-words.ts';
+import type { Approval } from '../../bulletin/approval-words.ts';
 import { candidatePlace, changedInputs, folderDigest, readCandidate } from './candidate.ts';
-import { siteProblems } from './html-safety.ts';
-import { linkOrCopy } from './move-files.ts';
-import { PublishError } from './publish-error.ts';
+import { siteProblems } from '../check/html-safety.ts';
+import { linkOrCopy } from '../move-files.ts';
+import { PublishError } from '../publish-error.ts';
 import { openPublishSession } from './release-swap.ts';
-import { hashFile, hashFilesIn, listFiles, manifestFileName, readManifest, treeDigest, writeManifest } from './tree-hash.ts';
+import { hashFile, hashFilesIn, listFiles, manifestFileName, readManifest, treeDigest, writeManifest } from '../tree-hash.ts';
 
 export const methodsPage = 'methods/index.html';
 const slot = /<p class="approval-record" data-approval="none">[^<]*<\/p>/g;
