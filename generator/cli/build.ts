@@ -19,7 +19,7 @@ import { openDriftCache, readingFingerprint } from '../publish/cache/drift-figur
 import { modelFingerprint, openModelMemo } from '../publish/cache/model-memo.ts';
 import { buildRelease } from '../publish/build-release.ts';
 import type { BuildSteps } from '../publish/build-steps.ts';
-import { PublishError } from '../publish/publish-error.ts';
+import { errorCode, PublishError } from '../publish/publish-error.ts';
 import { placeFor } from '../publish/swap/release-swap.ts';
 import { outputPlaceProblem, plainWriteFailure } from '../publish/swap/output-place.ts';
 import { siteFingerprint } from '../publish/render/page-reuse.ts';
@@ -135,10 +135,6 @@ export async function realSteps(siteRoot: string | undefined, strict = false): P
     // Only the built-in site is known to honour the list of bulletins to render.
     ...(siteRoot === undefined ? { siteFingerprint: () => siteFingerprint(packageRoot, generatorVersion) } : {}),
   };
-}
-
-function errorCode(error: unknown): string | undefined {
-  return typeof error === 'object' && error !== null && 'code' in error ? String((error as { code: unknown }).code) : undefined;
 }
 
 export interface RunBuildOptions {

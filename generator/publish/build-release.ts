@@ -36,7 +36,7 @@ import type { ValidationReport } from '../model/types.ts';
 import { linkParts, pagesToIndex, partsToTakeOver, planSearchParts, readSearchParts, searchIndexFolder, writeSearchParts } from './render/search-index.ts';
 import type { SearchPart } from './render/search-index.ts';
 
-export interface BuildReleaseOptions {
+interface BuildReleaseOptions {
   scenario: string;
   out: string;
   /** Cache folder for reusable per-series results; null disables reuse. */
@@ -53,7 +53,7 @@ export interface BuildReleaseOptions {
   afterRender?: (siteDir: string) => Promise<void>;
 }
 
-export type BuildOutcome =
+type BuildOutcome =
   | { kind: 'invalid'; report: ValidationReport }
   | {
       kind: 'published';
@@ -255,7 +255,7 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     if ('error' in ledgerOutcome) throw ledgerOutcome.error;
     const ledger = ledgerOutcome.ledger;
     assertArchiveIntact(previousLedger, ledger, prepared.corrections);
-    await writeLedgerFile(siteDir, ledger);
+    await writeFile(path.join(siteDir, ledgerFileName), `${JSON.stringify(ledger, null, 2)}\n`);
     const ledgerHash = await hashFile(path.join(siteDir, ledgerFileName));
     const manifest = await writeManifest(siteDir, [...hashed, { file: ledgerFileName, ...ledgerHash }], { safetyRules: safetyRulesVersion });
     progress.end();
@@ -300,10 +300,6 @@ async function ledgerOnLine(
   const actual = await hashFile(path.join(published, ledgerFileName)).catch(() => null);
   if (listed === undefined || actual?.sha256 !== listed.sha256) return { previous, reuse: undefined };
   return { previous, reuse: { previous, modelHashes, publishedHashes: new Map(files.map((entry) => [entry.file, entry.sha256])) } };
-}
-
-async function writeLedgerFile(siteDir: string, ledger: ArchiveLedger): Promise<void> {
-  await writeFile(path.join(siteDir, ledgerFileName), `${JSON.stringify(ledger, null, 2)}\n`);
 }
 
 /**

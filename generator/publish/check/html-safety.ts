@@ -23,7 +23,7 @@ import { giveTurn } from '../../event-loop.ts';
  */
 export const safetyRulesVersion = 1;
 
-export interface SafetyProblem {
+interface SafetyProblem {
   page: string;
   problem: string;
 }
