@@ -3,7 +3,7 @@
  * default 2,000 segments, 10 years, 4 indicators, 5 million drift positions), builds it end to
  * end with `wrackline build` as a separate process, then changes one segment's beach-litter data
  * and builds again with the warm trend-result cache and the first build's pages on line (pages
- * of bulletins whose inputs did not change are taken over: generator/publish/page-reuse.ts).
+ * of bulletins whose inputs did not change are taken over: generator/publish/render/page-reuse.ts).
  * Prints wall time per phase (from the build's own progress lines), total wall time and the
  * peak memory of the build's process tree (the sum of VmRSS of the build and its children,
  * sampled every 100 ms from /proc).

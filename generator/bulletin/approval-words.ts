@@ -1,7 +1,7 @@
 /**
  * The sentences of the methods page about who approved a release. A release published straight
  * by `wrackline build` has none; one published by `wrackline approve` names the person and the
- * time given at approval (generator/publish/approval.ts fills the sentence in).
+ * time given at approval (generator/publish/swap/approval.ts fills the sentence in).
  */
 export interface Approval {
   /** Who approved it, as given on the command line. */

@@ -1,6 +1,6 @@
 /**
  * `wrackline approve`: publishes the staged, reviewed candidate in one atomic step and records
- * who approved it and when (generator/publish/approval.ts).
+ * who approved it and when (generator/publish/swap/approval.ts).
  *
  *   wrackline approve --by NAME [--out DIR] [--at ISO-8601]
  *
@@ -9,7 +9,7 @@
  */
 import path from 'node:path';
 import { commandWriters, parseCommandOptions, usageError } from './command-io.ts';
-import { approveCandidate } from '../publish/approval.ts';
+import { approveCandidate } from '../publish/swap/approval.ts';
 import { PublishError } from '../publish/publish-error.ts';
 
 export const approveHelp = `Usage: wrackline approve --by NAME [options]

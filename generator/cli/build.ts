@@ -11,18 +11,18 @@ import { commandWriters, parseCommandOptions, usageError } from './command-io.ts
 import type { ValidationReport } from '../model/types.ts';
 import { createProgress, formatCount, formatDuration } from '../progress/progress.ts';
 import type { Progress } from '../progress/progress.ts';
-import { packageRoot } from '../publish/astro-render.ts';
-import { indexSearchParts } from '../publish/search-index.ts';
-import { renderSite } from '../publish/render-site.ts';
+import { packageRoot } from '../publish/render/astro-render.ts';
+import { indexSearchParts } from '../publish/render/search-index.ts';
+import { renderSite } from '../publish/render/render-site.ts';
 import { openTrendCache, statisticsFingerprint } from '../publish/cache/trend-results.ts';
 import { openDriftCache, readingFingerprint } from '../publish/cache/drift-figures.ts';
 import { modelFingerprint, openModelMemo } from '../publish/cache/model-memo.ts';
 import { buildRelease } from '../publish/build-release.ts';
 import type { BuildSteps } from '../publish/build-steps.ts';
-import { PublishError } from '../publish/publish-error.ts';
-import { placeFor } from '../publish/release-swap.ts';
-import { outputPlaceProblem, plainWriteFailure } from '../publish/output-place.ts';
-import { siteFingerprint } from '../publish/page-reuse.ts';
+import { errorCode, PublishError } from '../publish/publish-error.ts';
+import { placeFor } from '../publish/swap/release-swap.ts';
+import { outputPlaceProblem, plainWriteFailure } from '../publish/swap/output-place.ts';
+import { siteFingerprint } from '../publish/render/page-reuse.ts';
 
 export const buildHelp = `Usage: wrackline build [options]
 
@@ -135,10 +135,6 @@ export async function realSteps(siteRoot: string | undefined, strict = false): P
     // Only the built-in site is known to honour the list of bulletins to render.
     ...(siteRoot === undefined ? { siteFingerprint: () => siteFingerprint(packageRoot, generatorVersion) } : {}),
   };
-}
-
-function errorCode(error: unknown): string | undefined {
-  return typeof error === 'object' && error !== null && 'code' in error ? String((error as { code: unknown }).code) : undefined;
 }
 
 export interface RunBuildOptions {

@@ -10,8 +10,8 @@
 import { writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import { commandWriters, parseCommandOptions } from './command-io.ts';
-import { candidatePlace, readCandidate } from '../publish/candidate.ts';
-import { inspectOutput, placeFor } from '../publish/release-swap.ts';
+import { candidatePlace, readCandidate } from '../publish/swap/candidate.ts';
+import { inspectOutput, placeFor } from '../publish/swap/release-swap.ts';
 import { compareReleases } from '../review/compare-releases.ts';
 import type { ReleaseContent } from '../review/compare-releases.ts';
 import { readRelease } from '../review/read-release.ts';

@@ -17,26 +17,26 @@ import { writeFile } from 'node:fs/promises';
 import path from 'node:path';
 import type { BuildSteps, ModelSet } from './build-steps.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
-import type { ArchiveLedger } from './archive-ledger.ts';
-import { assertArchiveIntact, ledgerFileName, ledgerFromModel, readLedger } from './archive-ledger.ts';
-import type { Correction, LedgerReuse } from './archive-ledger.ts';
-import { safetyRulesVersion, siteProblems, siteProblemsInParallel } from './html-safety.ts';
-import { collectGarbageNow } from './free-memory.ts';
+import type { ArchiveLedger } from './check/archive-ledger.ts';
+import { assertArchiveIntact, ledgerFileName, ledgerFromModel, readLedger } from './check/archive-ledger.ts';
+import type { Correction, LedgerReuse } from './check/archive-ledger.ts';
+import { safetyRulesVersion, siteProblems, siteProblemsInParallel } from './check/html-safety.ts';
+import { collectGarbageNow } from './render/free-memory.ts';
 import { PublishError } from './publish-error.ts';
-import { stageCandidate } from './candidate.ts';
-import { openPublishSession } from './release-swap.ts';
-import type { PublishSession } from './release-swap.ts';
-import { assertSlug } from './safe-path.ts';
+import { stageCandidate } from './swap/candidate.ts';
+import { openPublishSession } from './swap/release-swap.ts';
+import type { PublishSession } from './swap/release-swap.ts';
+import { assertSlug } from './check/safe-path.ts';
 import { compareCodeUnits, hashFile, hashFilesIn, listFiles, readManifest, treeDigest, writeManifest } from './tree-hash.ts';
 import type { FileHash } from './tree-hash.ts';
 import type { Progress } from '../progress/progress.ts';
-import { computeRenderKeys, missingAfterReuse, modelFileHashes, placeStaged, planRender, readRenderKeys, stageReused, writeRenderKeys } from './page-reuse.ts';
-import type { RenderKeys, RenderPlan } from './page-reuse.ts';
+import { computeRenderKeys, missingAfterReuse, modelFileHashes, placeStaged, planRender, readRenderKeys, stageReused, writeRenderKeys } from './render/page-reuse.ts';
+import type { RenderKeys, RenderPlan } from './render/page-reuse.ts';
 import type { ValidationReport } from '../model/types.ts';
-import { linkParts, pagesToIndex, partsToTakeOver, planSearchParts, readSearchParts, searchIndexFolder, writeSearchParts } from './search-index.ts';
-import type { SearchPart } from './search-index.ts';
+import { linkParts, pagesToIndex, partsToTakeOver, planSearchParts, readSearchParts, searchIndexFolder, writeSearchParts } from './render/search-index.ts';
+import type { SearchPart } from './render/search-index.ts';
 
-export interface BuildReleaseOptions {
+interface BuildReleaseOptions {
   scenario: string;
   out: string;
   /** Cache folder for reusable per-series results; null disables reuse. */
@@ -53,7 +53,7 @@ export interface BuildReleaseOptions {
   afterRender?: (siteDir: string) => Promise<void>;
 }
 
-export type BuildOutcome =
+type BuildOutcome =
   | { kind: 'invalid'; report: ValidationReport }
   | {
       kind: 'published';
@@ -255,7 +255,7 @@ export async function buildRelease(options: BuildReleaseOptions): Promise<BuildO
     if ('error' in ledgerOutcome) throw ledgerOutcome.error;
     const ledger = ledgerOutcome.ledger;
     assertArchiveIntact(previousLedger, ledger, prepared.corrections);
-    await writeLedgerFile(siteDir, ledger);
+    await writeFile(path.join(siteDir, ledgerFileName), `${JSON.stringify(ledger, null, 2)}\n`);
     const ledgerHash = await hashFile(path.join(siteDir, ledgerFileName));
     const manifest = await writeManifest(siteDir, [...hashed, { file: ledgerFileName, ...ledgerHash }], { safetyRules: safetyRulesVersion });
     progress.end();
@@ -300,10 +300,6 @@ async function ledgerOnLine(
   const actual = await hashFile(path.join(published, ledgerFileName)).catch(() => null);
   if (listed === undefined || actual?.sha256 !== listed.sha256) return { previous, reuse: undefined };
   return { previous, reuse: { previous, modelHashes, publishedHashes: new Map(files.map((entry) => [entry.file, entry.sha256])) } };
-}
-
-async function writeLedgerFile(siteDir: string, ledger: ArchiveLedger): Promise<void> {
-  await writeFile(path.join(siteDir, ledgerFileName), `${JSON.stringify(ledger, null, 2)}\n`);
 }
 
 /**

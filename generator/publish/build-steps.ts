@@ -6,7 +6,7 @@
 import type { Bulletin, RegionSummary, SiteModel } from '../model/types.ts';
 import type { LoadedScenario } from '../scenario/types.ts';
 import type { WrittenBulletin } from '../model/written-bulletin.ts';
-import type { SearchPart } from './search-index.ts';
+import type { SearchPart } from './render/search-index.ts';
 
 export interface ModelSet {
   site: SiteModel;

@@ -1,5 +1,5 @@
 /**
- * Step: render and the cache (what the code fingerprints of page reuse and cache/ cover).
+ * Step: all of them (shared by render and cache/: what the code fingerprints of page reuse and the cache cover).
  * The project files a set of files imports, followed through relative import specifiers: what a
  * fingerprint of "the code behind a result" must cover (page-reuse.ts for the site,
  * cache/result-cache.ts for the bulletin model). Packages are covered by package-lock.json instead.

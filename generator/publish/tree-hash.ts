@@ -1,5 +1,5 @@
 /**
- * Step: swap (the manifest of a release; used by the other steps to compare trees).
+ * Step: all of them (shared: every step compares trees by these hashes; the swap step's manifest is this list).
  * Content hashes of a folder tree: every regular file's SHA-256 and size, keyed by its path
  * relative to the root with forward slashes, sorted by that path (code-unit order, the same on
  * every machine). The publishing step writes this list as `manifest.json`; the reproducibility
@@ -18,6 +18,11 @@ export interface FileHash {
 }
 
 export const manifestFileName = 'manifest.json';
+
+/** SHA-256 of text or bytes, in lower-case hex. */
+export function sha256Hex(data: string | Buffer): string {
+  return createHash('sha256').update(data).digest('hex');
+}
 
 export async function hashFile(file: string): Promise<{ sha256: string; bytes: number }> {
   const hash = createHash('sha256');
@@ -68,7 +73,7 @@ export async function hashFilesIn(root: string, files: readonly string[]): Promi
   for (const [i, file] of files.entries()) {
     if (i % 64 === 63) await giveTurn();
     const content = readFileSync(path.join(root, file));
-    result.push({ file, sha256: createHash('sha256').update(content).digest('hex'), bytes: content.length });
+    result.push({ file, sha256: sha256Hex(content), bytes: content.length });
   }
   return result;
 }
@@ -88,6 +93,23 @@ export async function writeManifest(root: string, listing?: readonly FileHash[],
   const body = { generator: 'wrackline', ...extra, files };
   await writeFile(path.join(root, manifestFileName), `${JSON.stringify(body, null, 2)}\n`);
   return files;
+}
+
+/**
+ * The first file in which the tree at `root` differs from a manifest's `listing`: a file not
+ * listed (besides the manifest itself), a listed file missing, or one whose SHA-256 or size
+ * differs; null when the tree holds exactly the listed files.
+ */
+export async function differenceFromListing(root: string, listing: readonly FileHash[]): Promise<string | null> {
+  const listed = new Set([...listing.map((entry) => entry.file), manifestFileName]);
+  const present = new Set(await listFiles(root));
+  const differs = [...present].find((file) => !listed.has(file)) ?? [...listed].find((file) => !present.has(file));
+  if (differs !== undefined) return differs;
+  const hashes = await hashFilesIn(
+    root,
+    listing.map((entry) => entry.file),
+  );
+  return listing.find((entry, i) => hashes[i]?.sha256 !== entry.sha256 || hashes[i]?.bytes !== entry.bytes)?.file ?? null;
 }
 
 /** A published folder's manifest (its listing and extra fields), or null when it has none. */

@@ -99,7 +99,7 @@ let renderOnly: Set<string> | null | undefined;
  * The bulletins whose own pages this build renders (for getStaticPaths of bulletin pages only;
  * pages listing bulletins use bulletinsOf). All of them, unless WRACKLINE_RENDER_ONLY names a
  * JSON list of "season/segment" ids: a rebuild takes the other pages over from the published
- * release (generator/publish/page-reuse.ts).
+ * release (generator/publish/render/page-reuse.ts).
  */
 export function pageBulletins(list: readonly BulletinListing[]): Bulletin[] {
   if (renderOnly === undefined) {

@@ -7,7 +7,7 @@ import { existsSync, mkdirSync, mkdtempSync, readFileSync, symlinkSync, writeFil
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, describe, expect, test } from 'vitest';
-import { plainWriteFailure } from '../../generator/publish/output-place.ts';
+import { plainWriteFailure } from '../../generator/publish/swap/output-place.ts';
 import { baseScenario } from '../read/fixture-scenario.ts';
 import { runCli } from '../publish/helpers/cli-build.ts';
 

@@ -10,7 +10,7 @@ import { afterAll, beforeAll, describe, expect, test } from 'vitest';
 import { assembleModel } from '../../generator/model/assemble-model.ts';
 import { notesFor } from '../../generator/model/publisher-notes.ts';
 import { writeModel } from '../../generator/model/write-model.ts';
-import { assertArchiveIntact, compareLedgers, ledgerFromModel } from '../../generator/publish/archive-ledger.ts';
+import { assertArchiveIntact, compareLedgers, ledgerFromModel } from '../../generator/publish/check/archive-ledger.ts';
 import type { LoadedScenario } from '../../generator/scenario/types.ts';
 import { fixtureScenario, testEngine } from './fixture.ts';
 

@@ -1,6 +1,6 @@
 // Atomic publishing: a failed build — invalid data, an exception, a safety refusal, or the
 // process killed mid-build — leaves the published site byte-identical; a good build replaces
-// it in one step. The output is a link to a release folder (see generator/publish/release-swap.ts).
+// it in one step. The output is a link to a release folder (see generator/publish/swap/release-swap.ts).
 import { spawn } from 'node:child_process';
 import { existsSync } from 'node:fs';
 import { lstat, mkdir, mkdtemp, readFile, readdir, readlink, rm, symlink, writeFile } from 'node:fs/promises';
@@ -9,7 +9,7 @@ import path from 'node:path';
 import { afterEach, beforeEach, describe, expect, test } from 'vitest';
 import { runBuild } from '../../generator/cli/build.ts';
 import { createProgress } from '../../generator/progress/progress.ts';
-import { openPublishSession, placeFor } from '../../generator/publish/release-swap.ts';
+import { openPublishSession, placeFor } from '../../generator/publish/swap/release-swap.ts';
 import { fakeSteps } from './helpers/fake-site.ts';
 import type { FakeStepOptions } from './helpers/fake-site.ts';
 import { snapshot } from './helpers/tree.ts';

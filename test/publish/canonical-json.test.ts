@@ -4,7 +4,7 @@
 // values with unsorted, integer-like and undefined keys.
 import fc from 'fast-check';
 import { expect, test } from 'vitest';
-import { canonicalJson } from '../../generator/publish/archive-ledger.ts';
+import { canonicalJson } from '../../generator/publish/check/archive-ledger.ts';
 
 function oracle(value: unknown): string {
   if (Array.isArray(value)) return `[${value.map((item) => (item === undefined ? 'null' : oracle(item))).join(',')}]`;

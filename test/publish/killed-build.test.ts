@@ -8,7 +8,7 @@ import { mkdtemp, readdir, readlink, rm } from 'node:fs/promises';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, expect, test } from 'vitest';
-import { placeFor } from '../../generator/publish/release-swap.ts';
+import { placeFor } from '../../generator/publish/swap/release-swap.ts';
 import { packageRoot } from './helpers/cli-build.ts';
 import { snapshot } from './helpers/tree.ts';
 

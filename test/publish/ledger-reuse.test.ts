@@ -12,8 +12,8 @@ import path from 'node:path';
 import { afterEach, beforeEach, expect, test } from 'vitest';
 import { assembleModel } from '../../generator/model/assemble-model.ts';
 import { writeModel } from '../../generator/model/write-model.ts';
-import { ledgerFromModel, type ArchiveLedger } from '../../generator/publish/archive-ledger.ts';
-import { modelFileHashes } from '../../generator/publish/page-reuse.ts';
+import { ledgerFromModel, type ArchiveLedger } from '../../generator/publish/check/archive-ledger.ts';
+import { modelFileHashes } from '../../generator/publish/render/page-reuse.ts';
 import { fixtureScenario, testEngine } from '../model/fixture.ts';
 
 let dir: string;

@@ -6,9 +6,9 @@ import { cp, mkdir, mkdtemp, readFile, realpath, rm, stat, writeFile } from 'nod
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterAll, beforeAll, describe, expect, test } from 'vitest';
-import { computeRenderKeys, importedProjectFiles, missingAfterReuse, ownerOf, planRender, readRenderKeys, siteFingerprint } from '../../generator/publish/page-reuse.ts';
-import type { RenderKeys } from '../../generator/publish/page-reuse.ts';
-import { readSearchParts } from '../../generator/publish/search-index.ts';
+import { computeRenderKeys, importedProjectFiles, missingAfterReuse, ownerOf, planRender, readRenderKeys, siteFingerprint } from '../../generator/publish/render/page-reuse.ts';
+import type { RenderKeys } from '../../generator/publish/render/page-reuse.ts';
+import { readSearchParts } from '../../generator/publish/render/search-index.ts';
 import { packageRoot, runCli } from './helpers/cli-build.ts';
 import { snapshot } from './helpers/tree.ts';
 

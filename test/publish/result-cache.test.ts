@@ -7,7 +7,7 @@ import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterEach, beforeEach, expect, test } from 'vitest';
 import { cacheFormat, codeFingerprint, isCacheKey, openShelf, shelfFile } from '../../generator/publish/cache/result-cache.ts';
-import { packageRoot } from '../../generator/publish/astro-render.ts';
+import { packageRoot } from '../../generator/publish/render/astro-render.ts';
 
 let dir: string;
 beforeEach(async () => {

@@ -2,8 +2,8 @@
 // that allows no inline and no third-party script (Content Security Policy Level 3, W3C: the
 // 'unsafe-inline' keyword and host-source expressions).
 import { describe, expect, test } from 'vitest';
-import { pageProblems, policyProblems } from '../../generator/publish/html-safety.ts';
-import { assertSlug, isSlug, resolveInside } from '../../generator/publish/safe-path.ts';
+import { pageProblems, policyProblems } from '../../generator/publish/check/html-safety.ts';
+import { assertSlug, isSlug, resolveInside } from '../../generator/publish/check/safe-path.ts';
 import { page, policy } from './helpers/fake-site.ts';
 
 describe('segment ids and output paths', () => {

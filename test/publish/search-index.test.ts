@@ -1,5 +1,5 @@
 /**
- * The search index in parts (generator/publish/search-index.ts): which pages are indexed, how
+ * The search index in parts (generator/publish/render/search-index.ts): which pages are indexed, how
  * they are shared among parts, when a part may be taken over from the release on line, and —
  * with the real pagefind — that a part's index depends on its own pages only, which is what
  * makes taking it over give the files a full build would write.
@@ -19,7 +19,7 @@ import {
   planSearchParts,
   readSearchParts,
   writeSearchParts,
-} from '../../generator/publish/search-index.ts';
+} from '../../generator/publish/render/search-index.ts';
 import { listFiles } from '../../generator/publish/tree-hash.ts';
 
 let dir: string;

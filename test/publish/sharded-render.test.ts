@@ -7,7 +7,7 @@ import path from 'node:path';
 import { afterAll, beforeAll, expect, test } from 'vitest';
 import { buildModel } from '../../generator/model/build-model.ts';
 import { writeModel } from '../../generator/model/write-model.ts';
-import { packageRoot, renderWithAstro } from '../../generator/publish/astro-render.ts';
+import { packageRoot, renderWithAstro } from '../../generator/publish/render/astro-render.ts';
 import { loadScenario } from '../../generator/read/load-scenario.ts';
 import { snapshot } from './helpers/tree.ts';
 

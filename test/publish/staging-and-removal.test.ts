@@ -8,8 +8,8 @@ import { existsSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
 import { afterEach, beforeEach, expect, test } from 'vitest';
-import { placeStaged } from '../../generator/publish/page-reuse.ts';
-import { removeInWorker } from '../../generator/publish/remove-in-worker.ts';
+import { placeStaged } from '../../generator/publish/render/page-reuse.ts';
+import { removeInWorker } from '../../generator/publish/swap/remove-in-worker.ts';
 import { modelFingerprint } from '../../generator/publish/cache/model-memo.ts';
 import { listFiles } from '../../generator/publish/tree-hash.ts';
 import { packageRoot } from './helpers/cli-build.ts';
@@ -69,7 +69,7 @@ test('the model fingerprint changes with the code the model imports, not with ot
   expect(await modelFingerprint(root, '1.0.0')).toBe(base);
   expect(await modelFingerprint(root, '1.0.1')).not.toBe(base);
   // the page renderer and the command line do not make the model
-  await writeFile(path.join(root, 'generator', 'publish', 'astro-render.ts'), '// changed\n', { flag: 'a' });
+  await writeFile(path.join(root, 'generator', 'publish', 'render', 'astro-render.ts'), '// changed\n', { flag: 'a' });
   await writeFile(path.join(root, 'generator', 'cli', 'main.ts'), '// changed\n', { flag: 'a' });
   expect(await modelFingerprint(root, '1.0.0')).toBe(base);
   // a sentence of the bulletins does

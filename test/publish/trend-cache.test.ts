@@ -9,7 +9,7 @@ import { statsTrendEngine } from '../../generator/model/trend-engine.ts';
 import type { SeriesPoint, TrendOptions } from '../../generator/stats/types.ts';
 import { openTrendCache, statisticsFingerprint, trendShelf } from '../../generator/publish/cache/trend-results.ts';
 import { shelfFile } from '../../generator/publish/cache/result-cache.ts';
-import { packageRoot } from '../../generator/publish/astro-render.ts';
+import { packageRoot } from '../../generator/publish/render/astro-render.ts';
 
 let dir: string;
 beforeEach(async () => {

@@ -10,7 +10,7 @@ import { afterEach, beforeEach, expect, test } from 'vitest';
 import { loadScenario } from '../../generator/read/load-scenario.ts';
 import { driftShelf, openDriftCache, readingFingerprint } from '../../generator/publish/cache/drift-figures.ts';
 import { shelfFile } from '../../generator/publish/cache/result-cache.ts';
-import { packageRoot } from '../../generator/publish/astro-render.ts';
+import { packageRoot } from '../../generator/publish/render/astro-render.ts';
 
 const demo = path.join(packageRoot, 'content', 'demo');
 let dir: string;

@@ -19,7 +19,7 @@ import { tmpdir } from 'node:os';
 import { extname, join, normalize, resolve, sep } from 'node:path';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { chromium, type BrowserContext, type Page } from 'playwright-core';
-import { indexSearchParts, planSearchParts, readSearchParts, writeSearchParts } from '../../generator/publish/search-index.ts';
+import { indexSearchParts, planSearchParts, readSearchParts, writeSearchParts } from '../../generator/publish/render/search-index.ts';
 
 const root = resolve(import.meta.dirname, '..', '..');
 const require = createRequire(import.meta.url);
@@ -99,7 +99,7 @@ async function buildSite(): Promise<string> {
   const env = { ...process.env, WRACKLINE_MODEL: model, ASTRO_TELEMETRY_DISABLED: '1', TZ: 'UTC' };
   const command = existsSync('/usr/bin/flock') ? ['/usr/bin/flock', '/tmp/astro.lock', process.execPath] : [process.execPath];
   execFileSync(command[0]!, [...command.slice(1), astro, 'build', '--outDir', ownBuild], { cwd: root, env, stdio: 'pipe' });
-  // The search index, as the publish step makes it (generator/publish/search-index.ts).
+  // The search index, as the publish step makes it (generator/publish/render/search-index.ts).
   const parts = planSearchParts(htmlPages(ownBuild).filter((file) => readFileSync(join(ownBuild, file), 'utf8').includes('data-pagefind-body')));
   await indexSearchParts(ownBuild, parts, mkdtempSync(join(tmpdir(), 'wrackline-search-parts-')));
   writeSearchParts(ownBuild, parts);

@@ -1,5 +1,5 @@
 /**
- * Step: build (read). The drift figures of the last build (generator/read/drift-memo.ts), on a
+ * Step: read. The drift figures of the last build (generator/read/drift-memo.ts), on a
  * shelf of the result cache (result-cache.ts) keyed by the drift memo key, under a fingerprint of
  * the reading code (the package version and the text of generator/drift/, generator/read/ and
  * what they import from elsewhere). Only the latest reading is kept.

@@ -1,5 +1,5 @@
 /**
- * Step: build (model). The model memo: results of earlier builds by input key
+ * Step: model. The model memo: results of earlier builds by input key
  * (generator/model/input-keys.ts), so a rebuild after a small data change evaluates, judges and
  * composes only what changed (generator/model/assemble-with-memo.ts).
  *
@@ -35,7 +35,7 @@ export function modelFingerprint(packageRoot: string, version: string): Promise<
   });
 }
 
-export interface OpenedModelMemo {
+interface OpenedModelMemo {
   memo: ModelMemo;
   /** Writes the entries used in this build; removes the bulletin files no longer used. */
   save(): Promise<void>;

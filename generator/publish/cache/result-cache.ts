@@ -1,5 +1,5 @@
 /**
- * Step: build (before render). The one cache of the build: results of earlier builds, found again
+ * Step: read and model (the cache both draw on). The one cache of the build: results of earlier builds, found again
  * by the digest of their inputs. Every cache the build keeps — trend results (trend-results.ts),
  * drift figures (drift-figures.ts), the model memo (model-memo.ts) — is a shelf of this module,
  * with one format and one set of rules:
@@ -23,11 +23,11 @@
  */
 import { createHash } from 'node:crypto';
 import { mkdirSync, readFileSync, readdirSync, renameSync, unlinkSync, writeFileSync } from 'node:fs';
-import { readFile, readdir } from 'node:fs/promises';
+import { readFile } from 'node:fs/promises';
 import path from 'node:path';
 import { giveTurn } from '../../event-loop.ts';
 import { importedFiles } from '../import-graph.ts';
-import { compareCodeUnits } from '../tree-hash.ts';
+import { compareCodeUnits, listFiles, sha256Hex } from '../tree-hash.ts';
 
 export const cacheFormat = 'wrackline-cache-1';
 
@@ -47,7 +47,7 @@ interface ShelfFile<T> {
   files: { [key: string]: string };
 }
 
-export interface Shelf<T> {
+interface Shelf<T> {
   readonly name: string;
   /** The value of `key` kept in this build, or saved by an earlier build with the same fingerprint. */
   get(key: string): T | undefined;
@@ -59,10 +59,6 @@ export interface Shelf<T> {
   keepFile(key: string, bytes: Buffer, value: T): void;
   /** Writes what this build kept (only that), when it differs from what is on disk. */
   save(): Promise<void>;
-}
-
-function sha256(data: Buffer): string {
-  return createHash('sha256').update(data).digest('hex');
 }
 
 function isRecord(value: unknown): value is { [key: string]: unknown } {
@@ -123,7 +119,7 @@ export async function openShelf<T>(cacheDir: string, name: string, fingerprint: 
       } catch {
         return undefined;
       }
-      if (sha256(bytes) !== expected) return undefined;
+      if (sha256Hex(bytes) !== expected) return undefined;
       verified.add(key);
       return { bytes, sha256: expected };
     },
@@ -149,7 +145,7 @@ export async function openShelf<T>(cacheDir: string, name: string, fingerprint: 
         const temporary = `${target}.${process.pid}.tmp`;
         writeFileSync(temporary, bytes);
         renameSync(temporary, target);
-        keptFiles[key] = sha256(bytes);
+        keptFiles[key] = sha256Hex(bytes);
       }
       const temporary = `${file}.${process.pid}.tmp`;
       writeFileSync(temporary, JSON.stringify({ format: cacheFormat, shelf: name, fingerprint, entries: kept, files: keptFiles } satisfies ShelfFile<T>));
@@ -175,15 +171,7 @@ export async function openShelf<T>(cacheDir: string, name: string, fingerprint: 
   };
 }
 
-async function codeFilesUnder(root: string, folder: string, out: string[]): Promise<void> {
-  for (const entry of await readdir(path.join(root, folder), { withFileTypes: true })) {
-    const child = `${folder}/${entry.name}`;
-    if (entry.isDirectory()) await codeFilesUnder(root, child, out);
-    else if (entry.isFile() && /\.(?:ts|mts|js|mjs)$/.test(entry.name)) out.push(child);
-  }
-}
-
-export interface CodeParts {
+interface CodeParts {
   /** Files or folders (every code file under them) taken whole, relative to the package root. */
   whole: readonly string[];
   /** Files taken with every project file they import, directly or not (import-graph.ts). */
@@ -198,11 +186,7 @@ export async function codeFingerprint(packageRoot: string, version: string, part
   const files = new Set<string>();
   for (const item of parts.whole) {
     if (/\.[a-z]+$/.test(item)) files.add(item);
-    else {
-      const found: string[] = [];
-      await codeFilesUnder(packageRoot, item, found);
-      for (const file of found) files.add(file);
-    }
+    else for (const file of await listFiles(path.join(packageRoot, item))) if (/\.(?:ts|mts|js|mjs)$/.test(file)) files.add(`${item}/${file}`);
   }
   const entries = parts.withImports ?? [];
   for (const file of [...entries, ...(await importedFiles(packageRoot, entries))]) files.add(file);

@@ -1,5 +1,5 @@
 /**
- * Step: build (model). Trend results of earlier builds, so a rebuild after a small data change
+ * Step: model. Trend results of earlier builds, so a rebuild after a small data change
  * recomputes only the series that changed. It wraps the model's trend engine: `analyze(points,
  * options)` is looked up by the SHA-256 of the series and the options, on a shelf of the result
  * cache (result-cache.ts) whose code fingerprint covers the statistics (the package version and
@@ -14,15 +14,15 @@
  * on every build, so results stay exactly those of a build without cache (a test compares the
  * two). Results handed out from the cache are frozen.
  */
-import { createHash } from 'node:crypto';
 import type { RegionalResult, TrendEngine, TrendOutcome } from '../../model/evaluate-season.ts';
 import type { TrendResult } from '../../stats/types.ts';
-import { canonicalJson } from '../archive-ledger.ts';
+import { canonicalJson } from '../check/archive-ledger.ts';
+import { sha256Hex } from '../tree-hash.ts';
 import { codeFingerprint, openShelf } from './result-cache.ts';
 
 /** The shelves (result-cache.ts) of this cache. */
 export const trendShelf = 'trend-results';
-export const regionalShelf = 'regional-trends';
+const regionalShelf = 'regional-trends';
 
 /** Changes whenever the statistics code or the package version changes. */
 export function statisticsFingerprint(packageRoot: string, version: string): Promise<string> {
@@ -42,7 +42,7 @@ function deepFreeze<T>(value: T): T {
   return value;
 }
 
-export interface CachedEngine {
+interface CachedEngine {
   engine: TrendEngine;
   stats(): { hits: number; misses: number };
   /** Writes the entries used in this build. */
@@ -50,7 +50,7 @@ export interface CachedEngine {
 }
 
 function keyOf(value: unknown): string {
-  return createHash('sha256').update(canonicalJson(value)).digest('hex');
+  return sha256Hex(canonicalJson(value));
 }
 
 /** Stored as it will be read back (JSON), so a hit now and a hit next build are the same. */
@@ -65,16 +65,19 @@ export async function openTrendCache(cacheDir: string, fingerprint: string, inne
   ]);
   let hits = 0;
   let misses = 0;
+  /** The cached result of `key`, kept for this build and frozen (see deepFreeze: no caller can change it). */
+  const hit = (key: string): TrendResult | undefined => {
+    const found = results.get(key);
+    if (found === undefined) return undefined;
+    hits += 1;
+    results.keep(key, found);
+    return deepFreeze(found);
+  };
   const engine: TrendEngine = {
     analyze(points, options) {
       const key = keyOf({ points, options });
-      const found = results.get(key);
-      if (found !== undefined) {
-        hits += 1;
-        results.keep(key, found);
-        // Frozen (see deepFreeze): no caller can change the cached value.
-        return deepFreeze(found);
-      }
+      const found = hit(key);
+      if (found !== undefined) return found;
       misses += 1;
       const result = inner.analyze(points, options);
       results.keep(key, asRead(result));
@@ -102,12 +105,8 @@ export async function openTrendCache(cacheDir: string, fingerprint: string, inne
             }
           });
       return keys.map((key, i): TrendOutcome => {
-        const found = results.get(key);
-        if (found !== undefined) {
-          hits += 1;
-          results.keep(key, found);
-          return { result: deepFreeze(found) };
-        }
+        const found = hit(key);
+        if (found !== undefined) return { result: found };
         misses += 1;
         const outcome = computed[missIndex.get(key) ?? -1] ?? { error: `no result for request ${i}` };
         if ('result' in outcome) results.keep(key, asRead(outcome.result));

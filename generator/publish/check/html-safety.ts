@@ -15,7 +15,7 @@ import { availableParallelism } from 'node:os';
 import path from 'node:path';
 import { Worker } from 'node:worker_threads';
 import { Parser } from 'htmlparser2';
-import { giveTurn } from '../event-loop.ts';
+import { giveTurn } from '../../event-loop.ts';
 
 /**
  * Version of the rules below. A published manifest records it; a page byte-identical to one
@@ -23,7 +23,7 @@ import { giveTurn } from '../event-loop.ts';
  */
 export const safetyRulesVersion = 1;
 
-export interface SafetyProblem {
+interface SafetyProblem {
   page: string;
   problem: string;
 }

@@ -27,16 +27,17 @@
  * renders everything once (new fingerprint); later rebuilds rely on the key alone.
  */
 import { createHash } from 'node:crypto';
-import { existsSync, mkdirSync, readFileSync, readdirSync, renameSync } from 'node:fs';
-import { readFile, readdir, writeFile } from 'node:fs/promises';
+import { existsSync, readFileSync, readdirSync, renameSync } from 'node:fs';
+import { readFile, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import { importedFiles } from './import-graph.ts';
-import { linkOrCopy } from './move-files.ts';
-import { compareCodeUnits } from './tree-hash.ts';
-import type { FileHash } from './tree-hash.ts';
-import { giveTurn } from '../event-loop.ts';
+import { importedFiles } from '../import-graph.ts';
+import { folderMaker, linkFiles } from '../move-files.ts';
+import { errorCode } from '../publish-error.ts';
+import { compareCodeUnits, listFiles, sha256Hex } from '../tree-hash.ts';
+import type { FileHash } from '../tree-hash.ts';
+import { giveTurn } from '../../event-loop.ts';
 
-export const renderKeysFileName = 'render-keys.json';
+const renderKeysFileName = 'render-keys.json';
 /** Changes whenever the way keys are computed changes (old keys then never match). */
 const keyScheme = 'wrackline-render-keys-2';
 
@@ -56,24 +57,8 @@ function sha256(...parts: (string | Buffer)[]): string {
   return hash.digest('hex');
 }
 
-async function walk(root: string, relative: string, out: string[]): Promise<void> {
-  let entries;
-  try {
-    entries = await readdir(path.join(root, relative), { withFileTypes: true });
-  } catch (error) {
-    const code = (error as { code?: string }).code;
-    if (code === 'ENOENT' || code === 'ENOTDIR') return;
-    throw error;
-  }
-  for (const entry of entries) {
-    const child = relative === '' ? entry.name : `${relative}/${entry.name}`;
-    if (entry.isDirectory()) await walk(root, child, out);
-    else if (entry.isFile()) out.push(child);
-  }
-}
-
 /** Everything the rendering of a page can depend on besides the model and installed packages. */
-export const siteInputs = ['site', 'public', 'astro.config.mjs', 'package.json', 'package-lock.json', 'tsconfig.json'];
+const siteInputs = ['site', 'public', 'astro.config.mjs', 'package.json', 'package-lock.json', 'tsconfig.json'];
 
 /**
  * Project files outside `siteInputs` that the site imports, directly or through each other
@@ -88,9 +73,12 @@ export async function siteFingerprint(root: string, version: string): Promise<st
   const files: string[] = [];
   for (const item of siteInputs) {
     const full = path.join(root, item);
-    const before = files.length;
-    await walk(root, item, files);
-    if (files.length === before) {
+    const listed = await listFiles(full).catch((error: unknown) => {
+      if (errorCode(error) === 'ENOENT' || errorCode(error) === 'ENOTDIR') return [];
+      throw error;
+    });
+    files.push(...listed.map((file) => `${item}/${file}`));
+    if (listed.length === 0) {
       // a single file (or missing: recorded as missing so adding it later changes the key)
       const text = await readFile(full).catch(() => null);
       files.push(text === null ? `${item}\0missing` : item);
@@ -126,7 +114,7 @@ interface RegionJson {
 }
 
 /** The part of a region summary that bulletin pages read (see the header). */
-export function regionPageInputs(region: RegionJson): string {
+function regionPageInputs(region: RegionJson): string {
   return JSON.stringify({
     season: region.season,
     published: region.published,
@@ -152,7 +140,8 @@ function bulletinFiles(modelDir: string, seasons: readonly string[]): { id: stri
   return files;
 }
 
-function modelSeasons(modelDir: string): { id: string; current?: boolean }[] {
+/** The seasons a model folder's site.json lists. */
+export function modelSeasons(modelDir: string): { id: string; current?: boolean }[] {
   const site = JSON.parse(readFileSync(path.join(modelDir, 'site.json'), 'utf8')) as { seasons?: { id: string; current?: boolean }[] };
   return site.seasons ?? [];
 }
@@ -173,7 +162,7 @@ export async function modelFileHashes(modelDir: string, known: ReadonlyMap<strin
       continue;
     }
     if (i % 64 === 63) await giveTurn();
-    hashes.set(entry.id, createHash('sha256').update(readFileSync(entry.file)).digest('hex'));
+    hashes.set(entry.id, sha256Hex(readFileSync(entry.file)));
   }
   return hashes;
 }
@@ -204,17 +193,14 @@ export async function computeRenderKeys(modelDir: string, fingerprint: string, h
   return { scheme: keyScheme, shared, current, bulletins };
 }
 
-export function renderKeysText(keys: RenderKeys): string {
+export async function writeRenderKeys(siteDir: string, keys: RenderKeys): Promise<void> {
   const bulletins = Object.fromEntries(
     Object.keys(keys.bulletins)
       .sort(compareCodeUnits)
       .map((id) => [id, keys.bulletins[id]]),
   );
-  return `${JSON.stringify({ scheme: keys.scheme, shared: keys.shared, current: keys.current, bulletins }, null, 2)}\n`;
-}
-
-export async function writeRenderKeys(siteDir: string, keys: RenderKeys): Promise<void> {
-  await writeFile(path.join(siteDir, renderKeysFileName), renderKeysText(keys));
+  const text = `${JSON.stringify({ scheme: keys.scheme, shared: keys.shared, current: keys.current, bulletins }, null, 2)}\n`;
+  await writeFile(path.join(siteDir, renderKeysFileName), text);
 }
 
 export async function readRenderKeys(release: string): Promise<RenderKeys | null> {
@@ -274,23 +260,15 @@ export async function stageReused(
 ): Promise<{ staged: FileHash[]; altered: FileHash[] }> {
   const staged: FileHash[] = [];
   const altered: FileHash[] = [];
-  const made = new Set<string>();
+  const makeFolder = folderMaker();
   for (const [i, entry] of listing.entries()) {
     const owner = ownerOf(entry.file, current);
     if (owner === null || !reuse.has(owner)) continue;
     // Let the rendering process's output flow now and then.
     if (i % 64 === 63) await giveTurn();
-    const from = path.join(published, entry.file);
-    const to = path.join(stageDir, entry.file);
-    const dir = path.dirname(to);
-    if (!made.has(dir)) {
-      mkdirSync(dir, { recursive: true });
-      made.add(dir);
-    }
-    linkOrCopy(from, to);
-    const content = readFileSync(to);
-    const sha256 = createHash('sha256').update(content).digest('hex');
-    if (sha256 !== entry.sha256 || content.length !== entry.bytes) altered.push(entry);
+    linkFiles(published, stageDir, [entry.file], makeFolder);
+    const content = readFileSync(path.join(stageDir, entry.file));
+    if (sha256Hex(content) !== entry.sha256 || content.length !== entry.bytes) altered.push(entry);
     staged.push(entry);
   }
   return { staged, altered };

@@ -8,7 +8,7 @@
 import { mkdir, readFile, rm } from 'node:fs/promises';
 import path from 'node:path';
 import { modelBulletinIds, renderWithAstro, type RenderOptions } from './astro-render.ts';
-import { moveFiles } from './move-files.ts';
+import { moveFiles } from '../move-files.ts';
 import { writeDownloads } from './write-downloads.ts';
 
 /** `pages` counts Astro's pages and the download files. */

@@ -12,19 +12,18 @@
  * restyled layout does not count as a change of a published bulletin while any changed number,
  * sentence or level does. Objects are hashed with their keys sorted, so key order is irrelevant.
  */
-import { createHash } from 'node:crypto';
 import { readFileSync } from 'node:fs';
 import { readdir } from 'node:fs/promises';
 import path from 'node:path';
-import type { Bulletin, RegionSummary, SiteModel } from '../model/types.ts';
-import { PublishError } from './publish-error.ts';
+import type { Bulletin, RegionSummary, SiteModel } from '../../model/types.ts';
+import { PublishError } from '../publish-error.ts';
 import { assertSlug, resolveInside } from './safe-path.ts';
-import { compareCodeUnits } from './tree-hash.ts';
-import { giveTurn } from '../event-loop.ts';
+import { compareCodeUnits, sha256Hex } from '../tree-hash.ts';
+import { giveTurn } from '../../event-loop.ts';
 
 export const ledgerFileName = 'archive-ledger.json';
 
-export interface LedgerEntry {
+interface LedgerEntry {
   /** Segment id; null for the season's region summary. */
   segment: string | null;
   /** Site path of the page, e.g. "seasons/2026-summer/north-bay/". */
@@ -35,7 +34,7 @@ export interface LedgerEntry {
   correction: { date: string; reason: string } | null;
 }
 
-export interface LedgerSeason {
+interface LedgerSeason {
   season: string;
   current: boolean;
   entries: LedgerEntry[];
@@ -101,20 +100,16 @@ function canonicalJsonByHand(value: unknown): string {
   return JSON.stringify(value) ?? 'null';
 }
 
-function sha256(text: string): string {
-  return createHash('sha256').update(text).digest('hex');
-}
-
 function entryFor(segment: string | null, page: string, content: { [field: string]: unknown }, correction: LedgerEntry['correction']): LedgerEntry {
   const parts: { [field: string]: string } = {};
   // The whole content's canonical text is made of its fields' texts (same as canonicalJson(content)).
   const pieces: string[] = [];
   for (const field of Object.keys(content).sort(compareCodeUnits)) {
     const text = canonicalJson(content[field]);
-    parts[field] = sha256(text).slice(0, 16);
+    parts[field] = sha256Hex(text).slice(0, 16);
     if (content[field] !== undefined) pieces.push(`${JSON.stringify(field)}:${text}`);
   }
-  return { segment, page, sha256: sha256(`{${pieces.join(',')}}`), parts, correction };
+  return { segment, page, sha256: sha256Hex(`{${pieces.join(',')}}`), parts, correction };
 }
 
 async function readJson<T>(file: string): Promise<T> {
@@ -123,14 +118,7 @@ async function readJson<T>(file: string): Promise<T> {
 }
 
 async function readRegion(modelDir: string, season: string): Promise<RegionSummary | null> {
-  for (const candidate of [path.join(modelDir, 'regions', `${season}.json`), path.join(modelDir, `region-${season}.json`)]) {
-    try {
-      return await readJson<RegionSummary>(candidate);
-    } catch {
-      // try the next layout
-    }
-  }
-  return null;
+  return readJson<RegionSummary>(path.join(modelDir, 'regions', `${season}.json`)).catch(() => null);
 }
 
 /**
@@ -193,7 +181,7 @@ export async function readLedger(publishedFolder: string): Promise<ArchiveLedger
   }
 }
 
-export interface ArchiveViolation {
+interface ArchiveViolation {
   season: string;
   segment: string | null;
   page: string;
@@ -240,7 +228,7 @@ export function compareLedgers(previous: ArchiveLedger | null, next: ArchiveLedg
 }
 
 /** A readable refusal naming each page (at most `limit` listed). */
-export function describeViolations(violations: readonly ArchiveViolation[], limit = 12): string {
+function describeViolations(violations: readonly ArchiveViolation[], limit = 12): string {
   const lines = violations.slice(0, limit).map((violation) => {
     const what = violation.segment === null ? `region summary of ${violation.season}` : `bulletin ${violation.season} / ${violation.segment}`;
     const fields = violation.fields.length > 0 ? ` (changed: ${violation.fields.join(', ')})` : '';

@@ -16,12 +16,13 @@ import { createRequire } from 'node:module';
 import { availableParallelism } from 'node:os';
 import path from 'node:path';
 import { fileURLToPath } from 'node:url';
-import { ownerOf } from './page-reuse.ts';
-import { moveFiles } from './move-files.ts';
-import { compareCodeUnits, listFiles } from './tree-hash.ts';
+import { modelSeasons, ownerOf } from './page-reuse.ts';
+import { moveFiles } from '../move-files.ts';
+import { errorCode } from '../publish-error.ts';
+import { compareCodeUnits, listFiles } from '../tree-hash.ts';
 
-/** The folder holding this package's package.json (two levels above generator/publish/). */
-export const packageRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..');
+/** The folder holding this package's package.json (three levels above generator/publish/render/). */
+export const packageRoot = path.resolve(path.dirname(fileURLToPath(import.meta.url)), '..', '..', '..');
 
 /**
  * Absolute path of a package's command-line script, read from its package.json "bin". The
@@ -39,7 +40,7 @@ export function resolvePackageBin(packageName: string, binName: string, fromDir:
   return path.join(path.dirname(manifestPath), relative);
 }
 
-export interface ChildResult {
+interface ChildResult {
   code: number | null;
   signal: NodeJS.Signals | null;
   /** The last lines the child printed (stdout and stderr), for error messages. */
@@ -78,7 +79,7 @@ export function runNodeScript(
 }
 
 /** Strips terminal colour codes from a line of child output. */
-export function plainText(line: string): string {
+function plainText(line: string): string {
   // biome-ignore lint/suspicious/noControlCharactersInRegex: strips the terminal colour codes (ESC [ … m) of Astro's output
   return line.replace(/\x1b\[[0-9;]*[A-Za-z]/g, '');
 }
@@ -97,14 +98,14 @@ export interface RenderOptions {
 }
 
 /** Below this many bulletins one Astro process is quicker than two (each pays a start-up of a few seconds). */
-export const bulletinsPerExtraProcess = 400;
+const bulletinsPerExtraProcess = 400;
 
 /**
  * Heap limit of each Astro process (MiB). Astro's own garbage collection is lazy: left alone,
  * one process rendering 2,000 bulletins grew to 1.9 GB although far less was live. The limit
  * makes it collect sooner, so two processes together stay well under the memory budget.
  */
-export const astroHeapMiB = 900;
+const astroHeapMiB = 900;
 
 /** One Astro process per core, at most two, and only when there are enough bulletins to share. */
 export function renderProcesses(bulletins: number, cores: number = availableParallelism()): number {
@@ -204,7 +205,7 @@ async function removeStaleScratch(siteRoot: string): Promise<void> {
     try {
       process.kill(pid, 0);
     } catch (error) {
-      alive = (error as { code?: string }).code === 'EPERM';
+      alive = errorCode(error) === 'EPERM';
     }
     if (!alive) await rm(path.join(folder, entry), { recursive: true, force: true, maxRetries: 3 });
   }
@@ -233,8 +234,7 @@ export async function renderWithAstro(options: RenderOptions): Promise<{ pages: 
     await runAstro({ siteRoot, modelDir: options.modelDir, outDir: options.outDir, only: options.only, onPage: count }, scratchOf(0));
     return { pages: await pageFiles(options.outDir) };
   }
-  const site = JSON.parse(await readFile(path.join(options.modelDir, 'site.json'), 'utf8')) as { seasons?: { id: string; current?: boolean }[] };
-  const current = site.seasons?.find((s) => s.current)?.id ?? '';
+  const current = modelSeasons(options.modelDir).find((s) => s.current)?.id ?? '';
   const shardRoot = `${path.resolve(options.outDir)}.shards`;
   await rm(shardRoot, { recursive: true, force: true });
   await mkdir(shardRoot, { recursive: true });

@@ -9,13 +9,13 @@
  */
 import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
-import { observationsCsv, resultsCsv } from '../model/download-tables.ts';
-import type { Bulletin } from '../model/types.ts';
-import { linkOrCopy } from './move-files.ts';
-import { assertSlug } from './safe-path.ts';
-import { giveTurn } from '../event-loop.ts';
+import { observationsCsv, resultsCsv } from '../../model/download-tables.ts';
+import type { Bulletin } from '../../model/types.ts';
+import { linkOrCopy } from '../move-files.ts';
+import { assertSlug } from '../check/safe-path.ts';
+import { giveTurn } from '../../event-loop.ts';
 
-export const downloadFiles = ['bulletin.json', 'observations.csv', 'results.csv'] as const;
+const downloadFiles = ['bulletin.json', 'observations.csv', 'results.csv'] as const;
 
 /** Writes the downloads of the "season/segment" bulletins `ids` under `siteDir`; returns the number of files. */
 export async function writeDownloads(modelDir: string, siteDir: string, ids: readonly string[]): Promise<number> {

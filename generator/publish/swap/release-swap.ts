@@ -35,11 +35,11 @@
 import { existsSync } from 'node:fs';
 import { lstat, mkdir, open, readFile, readdir, readlink, rename, rm, rmdir, stat, symlink, writeFile } from 'node:fs/promises';
 import path from 'node:path';
-import { PublishError } from './publish-error.ts';
+import { errorCode, PublishError } from '../publish-error.ts';
 import { removeInWorker } from './remove-in-worker.ts';
-import { hashFilesIn, listFiles, manifestFileName, readManifest } from './tree-hash.ts';
+import { differenceFromListing, manifestFileName, readManifest } from '../tree-hash.ts';
 
-export interface PublishPlace {
+interface PublishPlace {
   /** Absolute output path (the link). */
   out: string;
   /** `<out>.wrackline`, absolute. */
@@ -56,10 +56,6 @@ export function placeFor(out: string): PublishPlace {
   const absolute = path.resolve(out);
   const state = `${absolute}.wrackline`;
   return { out: absolute, state, releases: path.join(state, 'releases') };
-}
-
-function errorCode(error: unknown): string | undefined {
-  return typeof error === 'object' && error !== null && 'code' in error ? String((error as { code: unknown }).code) : undefined;
 }
 
 function processIsAlive(pid: number): boolean {
@@ -119,7 +115,8 @@ export async function inspectOutput(place: PublishPlace): Promise<{ kind: 'missi
   return { kind: 'other' };
 }
 
-async function isOurPublishedFolder(folder: string): Promise<boolean> {
+/** Whether `folder` holds a manifest written by this tool. */
+export async function isOurPublishedFolder(folder: string): Promise<boolean> {
   try {
     const manifest = JSON.parse(await readFile(path.join(folder, manifestFileName), 'utf8')) as { generator?: unknown };
     return manifest.generator === 'wrackline';
@@ -141,28 +138,20 @@ export interface PublishSession {
 }
 
 /**
- * Takes the output's lock (failing when a live build holds it), restores a link lost by a run
- * killed during the first conversion, and deletes work folders left by killed runs.
- */
-/**
  * Whether `folder` holds exactly the files of the finished `tree` (its manifest's listing, byte for
  * byte, and the same manifest): a release folder named by a digest may have been changed by hand.
  */
 async function holdsTree(folder: string, tree: string): Promise<boolean> {
   const wanted = await readManifest(tree);
-  if (wanted === null) return false;
-  const expected = new Set([...wanted.files.map((entry) => entry.file), manifestFileName]);
-  const present = await listFiles(folder);
-  if (present.length !== expected.size || present.some((file) => !expected.has(file))) return false;
+  if (wanted === null || (await differenceFromListing(folder, wanted.files)) !== null) return false;
   const manifests = await Promise.all([readFile(path.join(folder, manifestFileName)), readFile(path.join(tree, manifestFileName))]);
-  if (!manifests[0].equals(manifests[1])) return false;
-  const hashes = await hashFilesIn(
-    folder,
-    wanted.files.map((entry) => entry.file),
-  );
-  return hashes.every((entry, i) => entry.sha256 === wanted.files[i]?.sha256 && entry.bytes === wanted.files[i]?.bytes);
+  return manifests[0].equals(manifests[1]);
 }
 
+/**
+ * Takes the output's lock (failing when a live build holds it), restores a link lost by a run
+ * killed during the first conversion, and deletes work folders left by killed runs.
+ */
 export async function openPublishSession(out: string, log: (line: string) => void = () => {}): Promise<PublishSession> {
   const place = placeFor(out);
   const found = await inspectOutput(place);

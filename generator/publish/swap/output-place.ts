@@ -1,4 +1,5 @@
 /**
+ * Step: swap (where the release will go, checked before anything is created).
  * Checks the place `--out` names before a build creates anything there (not even the cache in
  * `<out>.wrackline/`), so a request that cannot or must not be carried out ends at once with one
  * plain sentence, and a user's own folder is never taken over:
@@ -14,26 +15,13 @@
  * `plainWriteFailure`.
  */
 import { constants } from 'node:fs';
-import { access, lstat, readFile, readdir, readlink, stat, statfs } from 'node:fs/promises';
+import { access, lstat, readdir, readlink, stat, statfs } from 'node:fs/promises';
 import path from 'node:path';
-import { manifestFileName } from './tree-hash.ts';
-import { inspectOutput, placeFor } from './release-swap.ts';
+import { errorCode } from '../publish-error.ts';
+import { inspectOutput, isOurPublishedFolder, placeFor } from './release-swap.ts';
 
-export const minimumFreeBytes = 16 * 1024 * 1024;
+const minimumFreeBytes = 16 * 1024 * 1024;
 const systemFolders = ['/proc', '/sys', '/dev'];
-
-function errorCode(error: unknown): string | undefined {
-  return typeof error === 'object' && error !== null && 'code' in error ? String((error as { code: unknown }).code) : undefined;
-}
-
-async function publishedByUs(folder: string): Promise<boolean> {
-  try {
-    const manifest = JSON.parse(await readFile(path.join(folder, manifestFileName), 'utf8')) as { generator?: unknown };
-    return manifest.generator === 'wrackline';
-  } catch {
-    return false;
-  }
-}
 
 /** Why a build must not use `out`, in one or two plain sentences; null when it may. */
 export async function outputPlaceProblem(out: string): Promise<string | null> {
@@ -98,7 +86,7 @@ export async function outputPlaceProblem(out: string): Promise<string | null> {
   }
   if (found.kind === 'folder') {
     const entries = await readdir(absolute);
-    if (entries.length > 0 && !(await publishedByUs(absolute))) {
+    if (entries.length > 0 && !(await isOurPublishedFolder(absolute))) {
       return `refusing to replace ${absolute}: it is a folder of ${entries.length.toLocaleString('en-GB')} item(s) not published by this tool (no wrackline manifest.json), and publishing would replace it. Remove it or choose another --out`;
     }
   }

@@ -5,7 +5,7 @@
  * so a hostile id that slipped past the slug rule still cannot write elsewhere.
  */
 import path from 'node:path';
-import { PublishError } from './publish-error.ts';
+import { PublishError } from '../publish-error.ts';
 
 /** Same rule as the scenario settings' slugs: lower-case letters, digits and hyphens. */
 const slugPattern = /^[a-z0-9][a-z0-9-]{0,62}$/;

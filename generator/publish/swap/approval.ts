@@ -1,4 +1,5 @@
 /**
+ * Step: swap (a reviewed candidate swapped in, with its approval).
  * Publishing a reviewed candidate (candidate.ts) with its approval: one atomic swap, like a
  * build's (release-swap.ts), refused when
  * - the release on line is not the one the candidate was staged over (the digest of every file
@@ -14,20 +15,20 @@
 import { readFile, rm, writeFile } from 'node:fs/promises';
 import { mkdirSync } from 'node:fs';
 import path from 'node:path';
-import { approvalSentence } from '../bulletin/approval-words.ts';
-import type { Approval } from '../bulletin/approval-words.ts';
+import { approvalSentence } from '../../bulletin/approval-words.ts';
+import type { Approval } from '../../bulletin/approval-words.ts';
 import { candidatePlace, changedInputs, folderDigest, readCandidate } from './candidate.ts';
-import { siteProblems } from './html-safety.ts';
-import { linkOrCopy } from './move-files.ts';
-import { PublishError } from './publish-error.ts';
+import { siteProblems } from '../check/html-safety.ts';
+import { linkFiles } from '../move-files.ts';
+import { PublishError } from '../publish-error.ts';
 import { openPublishSession } from './release-swap.ts';
-import { hashFile, hashFilesIn, listFiles, manifestFileName, readManifest, treeDigest, writeManifest } from './tree-hash.ts';
+import { differenceFromListing, hashFile, readManifest, treeDigest, writeManifest } from '../tree-hash.ts';
 
-export const methodsPage = 'methods/index.html';
+const methodsPage = 'methods/index.html';
 const slot = /<p class="approval-record" data-approval="none">[^<]*<\/p>/g;
 
 /** The methods page with its approval sentence filled in (escaped); throws when the page has no single slot. */
-export function fillApproval(html: string, approval: Approval): string {
+function fillApproval(html: string, approval: Approval): string {
   const found = html.match(slot) ?? [];
   if (found.length !== 1) throw new PublishError(`${methodsPage} has ${found.length} approval slots, expected 1; was the candidate built by this version?`);
   const text = approvalSentence(approval).replace(/[&<>"']/g, (c) => ({ '&': '&amp;', '<': '&lt;', '>': '&gt;', '"': '&quot;', "'": '&#39;' })[c] ?? c);
@@ -35,7 +36,7 @@ export function fillApproval(html: string, approval: Approval): string {
 }
 
 /** A name fit for the record: one line, printable, 1–120 characters. */
-export function checkApprover(by: string): string {
+function checkApprover(by: string): string {
   const name = by.trim();
   // biome-ignore lint/suspicious/noControlCharactersInRegex: an approver's name may hold no control character
   if (name.length === 0 || name.length > 120 || /[\u0000-\u001f\u007f]/.test(name)) {
@@ -44,7 +45,7 @@ export function checkApprover(by: string): string {
   return name;
 }
 
-export interface ApproveOutcome {
+interface ApproveOutcome {
   release: string;
   digest: string;
   approval: Approval;
@@ -81,28 +82,18 @@ export async function approveCandidate(options: { out: string; by: string; at: D
     if (manifest === null || treeDigest(manifest.files) !== record.digest) {
       throw new PublishError(`refused: the candidate in ${place.site} is not the one staged (its manifest differs); stage it again`);
     }
-    const present = await listFiles(place.site);
-    const listed = new Set([...manifest.files.map((entry) => entry.file), manifestFileName]);
-    const hashes = await hashFilesIn(
-      place.site,
-      manifest.files.map((entry) => entry.file),
-    );
-    const altered = manifest.files.find((entry, i) => hashes[i]?.sha256 !== entry.sha256) ?? present.find((file) => !listed.has(file));
-    if (altered !== undefined) {
-      const file = typeof altered === 'string' ? altered : altered.file;
-      throw new PublishError(`refused: ${file} of the candidate changed after it was staged; stage it again`);
-    }
+    const altered = await differenceFromListing(place.site, manifest.files);
+    if (altered !== null) throw new PublishError(`refused: ${altered} of the candidate changed after it was staged; stage it again`);
 
     const approval: Approval = { by, at: options.at.toISOString().replace(/\.\d{3}Z$/, 'Z'), candidate: record.digest, replaced: record.onLine?.release ?? null };
     // The approved release: the candidate's files linked (never written to), its methods page and
     // manifest written afresh.
     const tree = await session.workFolder('approved');
-    for (const entry of manifest.files) {
-      if (entry.file === methodsPage) continue;
-      const target = path.join(tree, entry.file);
-      mkdirSync(path.dirname(target), { recursive: true });
-      linkOrCopy(path.join(place.site, entry.file), target);
-    }
+    linkFiles(
+      place.site,
+      tree,
+      manifest.files.map((entry) => entry.file).filter((file) => file !== methodsPage),
+    );
     const methods = manifest.files.some((entry) => entry.file === methodsPage) ? await readFile(path.join(place.site, methodsPage), 'utf8') : null;
     if (methods === null) throw new PublishError(`the candidate has no ${methodsPage} to show the approval on`);
     mkdirSync(path.join(tree, path.dirname(methodsPage)), { recursive: true });

@@ -1,5 +1,5 @@
 /**
- * Step: render (the search index).
+ * Step: render (the search index, made from the rendered pages while they are checked).
  * The site's search index, in parts. Pagefind indexes the pages that ask for it (marked
  * `data-pagefind-body`: the current season's bulletins); the pages are shared among parts by a
  * hash of their path, each part is a pagefind index of its own under `search-index/<part>/`, and
@@ -16,16 +16,16 @@
  * Two parts at least as soon as there are two pages, so the merging is used (and tested) on small
  * sites too; one more per 250 pages.
  */
-import { linkSync, mkdirSync, readFileSync, writeFileSync } from 'node:fs';
+import { mkdirSync, readFileSync, writeFileSync } from 'node:fs';
 import path from 'node:path';
 import { packageRoot, resolvePackageBin, runNodeScript } from './astro-render.ts';
-import { linkOrCopy } from './move-files.ts';
-import { compareCodeUnits } from './tree-hash.ts';
-import type { FileHash } from './tree-hash.ts';
-import { giveTurn } from '../event-loop.ts';
+import { linkFiles } from '../move-files.ts';
+import { compareCodeUnits } from '../tree-hash.ts';
+import type { FileHash } from '../tree-hash.ts';
+import { giveTurn } from '../../event-loop.ts';
 
 export const searchIndexFolder = 'search-index';
-export const searchPartsFileName = `${searchIndexFolder}/parts.json`;
+const searchPartsFileName = `${searchIndexFolder}/parts.json`;
 export const pagesPerPart = 250;
 const partsScheme = 'wrackline-search-parts-1';
 
@@ -36,7 +36,7 @@ export interface SearchPart {
   pages: string[];
 }
 
-export interface SearchParts {
+interface SearchParts {
   scheme: string;
   parts: (SearchPart & { path: string })[];
 }
@@ -62,11 +62,6 @@ export function planSearchParts(pages: readonly string[]): SearchPart[] {
   const lists: string[][] = Array.from({ length: count }, () => []);
   for (const page of [...pages].sort(compareCodeUnits)) lists[pathHash(page) % count]?.push(page);
   return lists.flatMap((list, i) => (list.length > 0 ? [{ name: `part-${i}`, pages: list }] : []));
-}
-
-export function searchPartsText(parts: readonly SearchPart[]): string {
-  const listed: SearchParts = { scheme: partsScheme, parts: parts.map((part) => ({ name: part.name, path: `/${searchIndexFolder}/${part.name}/`, pages: part.pages })) };
-  return `${JSON.stringify(listed, null, 2)}\n`;
 }
 
 /** The parts recorded in a release; null when there are none or they do not parse. */
@@ -128,17 +123,8 @@ export function partsToTakeOver(
 /** Links the files of taken-over parts from the published release (checked afterwards against its manifest). */
 export function linkParts(published: string, listing: readonly FileHash[], siteDir: string, parts: readonly SearchPart[]): void {
   const prefixes = parts.map((part) => `${searchIndexFolder}/${part.name}/`);
-  const made = new Set<string>();
-  for (const entry of listing) {
-    if (!prefixes.some((prefix) => entry.file.startsWith(prefix))) continue;
-    const to = path.join(siteDir, entry.file);
-    const dir = path.dirname(to);
-    if (!made.has(dir)) {
-      mkdirSync(dir, { recursive: true });
-      made.add(dir);
-    }
-    linkOrCopy(path.join(published, entry.file), to);
-  }
+  const files = listing.map((entry) => entry.file).filter((file) => prefixes.some((prefix) => file.startsWith(prefix)));
+  linkFiles(published, siteDir, files);
 }
 
 /**
@@ -146,17 +132,9 @@ export function linkParts(published: string, listing: readonly FileHash[], siteD
  * same site paths, so result links are right), which pagefind reads whole; the index goes to
  * `<siteDir>/search-index/<part>/`.
  */
-export async function indexSearchPart(siteDir: string, part: SearchPart, scratchDir: string): Promise<void> {
+async function indexSearchPart(siteDir: string, part: SearchPart, scratchDir: string): Promise<void> {
   const pagesRoot = path.join(scratchDir, part.name);
-  for (const page of part.pages) {
-    const to = path.join(pagesRoot, page);
-    mkdirSync(path.dirname(to), { recursive: true });
-    try {
-      linkSync(path.join(siteDir, page), to);
-    } catch {
-      writeFileSync(to, readFileSync(path.join(siteDir, page)));
-    }
-  }
+  linkFiles(siteDir, pagesRoot, part.pages);
   const pagefind = resolvePackageBin('pagefind', 'pagefind');
   const output = path.join(path.resolve(siteDir), searchIndexFolder, part.name);
   const result = await runNodeScript(pagefind, ['--site', path.resolve(pagesRoot), '--output-path', output, '--quiet'], { cwd: packageRoot, env: { ...process.env } });
@@ -175,6 +153,7 @@ export async function indexSearchParts(siteDir: string, parts: readonly SearchPa
 }
 
 export function writeSearchParts(siteDir: string, parts: readonly SearchPart[]): void {
+  const listed: SearchParts = { scheme: partsScheme, parts: parts.map((part) => ({ name: part.name, path: `/${searchIndexFolder}/${part.name}/`, pages: part.pages })) };
   mkdirSync(path.join(siteDir, searchIndexFolder), { recursive: true });
-  writeFileSync(path.join(siteDir, searchPartsFileName), searchPartsText(parts));
+  writeFileSync(path.join(siteDir, searchPartsFileName), `${JSON.stringify(listed, null, 2)}\n`);
 }

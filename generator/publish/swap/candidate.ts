@@ -1,4 +1,5 @@
 /**
+ * Step: swap (a checked release staged for review instead of swapped in).
  * A candidate release: a finished, checked release that is staged beside the output instead of
  * published (`wrackline build --candidate`). Nothing on line changes. It waits in
  *
@@ -15,10 +16,10 @@ import { existsSync } from 'node:fs';
 import path from 'node:path';
 import { placeFor } from './release-swap.ts';
 import type { PublishSession } from './release-swap.ts';
-import { hashFile, hashTree, treeDigest } from './tree-hash.ts';
-import type { FileHash } from './tree-hash.ts';
+import { hashFile, hashTree, treeDigest } from '../tree-hash.ts';
+import type { FileHash } from '../tree-hash.ts';
 
-export interface CandidatePlace {
+interface CandidatePlace {
   folder: string;
   site: string;
   record: string;
@@ -30,7 +31,7 @@ export function candidatePlace(out: string): CandidatePlace {
   return { folder, site: path.join(folder, 'site'), record: path.join(folder, 'candidate.json'), reviewPage: path.join(folder, 'review.html') };
 }
 
-export interface CandidateRecord {
+interface CandidateRecord {
   kind: 'wrackline-candidate';
   /** Absolute path of the scenario folder it was built from. */
   scenario: string;
@@ -48,7 +49,7 @@ export async function folderDigest(folder: string): Promise<string> {
 }
 
 /** The scenario's input files as read now: the listed resources and datapackage.json. */
-export async function hashInputs(scenario: string, files: readonly string[]): Promise<FileHash[]> {
+async function hashInputs(scenario: string, files: readonly string[]): Promise<FileHash[]> {
   const out: FileHash[] = [];
   for (const file of files) {
     const hashed = await hashFile(path.join(scenario, file)).catch(() => null);
