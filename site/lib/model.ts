@@ -5,7 +5,7 @@
  * a whole bulletin is read when a page about it is rendered (`bulletinOf`). Pages only render
  * what is here.
  */
-import { readFileSync } from 'node:fs';
+import { readFileSync, statSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import type { BulletinListing } from '../../generator/model/listing.ts';
 import type { Bulletin, RegionSummary, SiteModel } from '../../generator/model/types.ts';
@@ -54,14 +54,21 @@ async function load(dir: string): Promise<LoadedModel> {
 }
 
 const whole = new Map<string, Bulletin>();
-/** The whole bulletin a listing stands for, read from its model file once per build. */
+/**
+ * A bulletin model file larger than this is read again each time a page needs it instead of being
+ * kept: one of a series with a million samples is hundreds of megabytes, and keeping several would
+ * exceed the heap of the Astro process (generator/publish/render/astro-render.ts).
+ */
+export const largestKeptBulletinBytes = 16 * 1024 * 1024;
+
+/** The whole bulletin a listing stands for, read from its model file once per build (large ones each time). */
 export function bulletinOf(listing: { season: { id: string }; segment: { id: string } }): Bulletin {
   const key = `${listing.season.id}/${listing.segment.id}`;
   let bulletin = whole.get(key);
   if (!bulletin) {
     const file = join(modelDir(), 'bulletins', safeName(listing.season.id, 'season id'), `${safeName(listing.segment.id, 'segment id')}.json`);
     bulletin = readJson<Bulletin>(file);
-    whole.set(key, bulletin);
+    if (statSync(file).size <= largestKeptBulletinBytes) whole.set(key, bulletin);
   }
   return bulletin;
 }

@@ -11,7 +11,7 @@
  */
 import { spawn } from 'node:child_process';
 import { existsSync, readFileSync } from 'node:fs';
-import { mkdir, readFile, readdir, rm, writeFile } from 'node:fs/promises';
+import { mkdir, readFile, readdir, rm, stat, writeFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
 import { availableParallelism } from 'node:os';
 import path from 'node:path';
@@ -107,6 +107,26 @@ const bulletinsPerExtraProcess = 400;
  */
 const astroHeapMiB = 900;
 
+/**
+ * The heap limit for a model whose largest bulletin file has the given size: room beside the
+ * usual limit to parse that bulletin (its text and its objects; five times its size is an
+ * allowance, not a measurement). A bulletin of a series with hundreds of thousands of samples is
+ * hundreds of megabytes; the site keeps no such bulletin once read (site/lib/model.ts).
+ */
+export function astroHeapFor(largestBulletinBytes: number): number {
+  return astroHeapMiB + Math.ceil((5 * largestBulletinBytes) / (1024 * 1024));
+}
+
+/** Size in bytes of the largest bulletin file of a model folder (0 when none). */
+async function largestBulletinBytes(modelDir: string): Promise<number> {
+  let largest = 0;
+  for (const id of await modelBulletinIds(modelDir)) {
+    const { size } = await stat(path.join(modelDir, 'bulletins', `${id}.json`));
+    if (size > largest) largest = size;
+  }
+  return largest;
+}
+
 /** One Astro process per core, at most two, and only when there are enough bulletins to share. */
 export function renderProcesses(bulletins: number, cores: number = availableParallelism()): number {
   return Math.max(1, Math.min(2, cores, Math.floor(bulletins / bulletinsPerExtraProcess)));
@@ -162,7 +182,7 @@ async function runAstro(run: AstroRun, scratch: string): Promise<number> {
     const result = await runNodeScript(astro, ['build', '--root', run.siteRoot, '--outDir', path.resolve(run.outDir)], {
       cwd: scratch,
       env,
-      execArgv: [`--max-old-space-size=${astroHeapMiB}`],
+      execArgv: [`--max-old-space-size=${astroHeapFor(await largestBulletinBytes(run.modelDir))}`],
       onLine: (line) => {
         // Astro lists each page it writes as "12:00:01   ├─ /path/index.html (+3ms)" (or └─).
         const page = /[├└]─\s+(\/\S*)/.exec(plainText(line));
