@@ -193,7 +193,7 @@ def main():
     parser = argparse.ArgumentParser(description="Built-in drift reader against the Dask drift job, side by side.")
     parser.add_argument("--sizes", default="10000000,100000000", help="position counts, comma-separated (default 10^7 and 10^8)")
     parser.add_argument("--segments", type=int, default=2000)
-    parser.add_argument("--files-per-10m", type=int, default=2, help="files per 10 million positions (one file per batch of particles)")
+    parser.add_argument("--files-per-10m", type=int, default=2, help="files per 10 million positions (one file per batch of particles); smaller files when the smallest size needs them")
     parser.add_argument("--work", default="/tmp/wrackline-drift-bench")
     parser.add_argument("--keep", action="store_true", help="keep the generated files")
     args = parser.parse_args()
@@ -202,9 +202,10 @@ def main():
     data = os.path.join(args.work, "data")
     os.makedirs(data, exist_ok=True)
     largest = max(sizes)
-    files = max(1, round(largest / 1e7 * args.files_per_10m))
-    per_file = largest // files
-    particles = per_file // DAYS
+    # Files of equal size, small enough that every size is a whole number of them.
+    per_file = min(sizes[0], largest // max(1, round(largest / 1e7 * args.files_per_10m)))
+    particles = max(1, per_file // DAYS)
+    files = math.ceil(largest / (particles * DAYS))
     log(f"{time.strftime('%Y-%m-%d %H:%M', time.gmtime())} UTC; machine: {os.cpu_count()} cores, load average {'/'.join(f'{x:.2f}' for x in os.getloadavg())} (1/5/15 min); python {sys.version.split()[0]}")
     t0 = time.monotonic()
     write_segments(os.path.join(data, "segments.geojson"), args.segments)
