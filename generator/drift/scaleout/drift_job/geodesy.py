@@ -59,13 +59,6 @@ class Arcs:
         safe_norm = np.where(self.degenerate, 1.0, norm)
         self.nx, self.ny, self.nz = nx / safe_norm, ny / safe_norm, nz / safe_norm
 
-    def take(self, index):
-        out = Arcs.__new__(Arcs)
-        out.a, out.b = self.a.take(index), self.b.take(index)
-        for name in ("degenerate", "nx", "ny", "nz"):
-            setattr(out, name, getattr(self, name)[index])
-        return out
-
 
 def _haversine(p, q):
     """haversineKm of geodesy.ts for Points p and q (arrays of equal length)."""
@@ -100,31 +93,36 @@ def hypot3(x, y, z):
     return np.where(biggest == 0, 0.0, np.sqrt(total) * safe)
 
 
-def arc_distance_km(p, arcs):
-    """pointToArcKm of geodesy.ts for Points p and Arcs (arrays of equal length): the cross-track
-    distance where the foot of the perpendicular falls inside the arc, else the distance to the
-    nearer end; the arcsine or the two haversines only where they are used."""
-    a, b, nx, ny, nz = arcs.a, arcs.b, arcs.nx, arcs.ny, arcs.nz
-    sin_cross = p.x * nx + p.y * ny + p.z * nz
-    fx = p.x - sin_cross * nx
-    fy = p.y - sin_cross * ny
-    fz = p.z - sin_cross * nz
-    afx = a.y * fz - a.z * fy
-    afy = a.z * fx - a.x * fz
-    afz = a.x * fy - a.y * fx
-    fbx = fy * b.z - fz * b.y
-    fby = fz * b.x - fx * b.z
-    fbz = fx * b.y - fy * b.x
-    inside = ~arcs.degenerate & (afx * nx + afy * ny + afz * nz >= 0) & (fbx * nx + fby * ny + fbz * nz >= 0)
+def arc_distance_km(p, pair_point, arcs, pair_arc):
+    """pointToArcKm of geodesy.ts for pairs of a point (Points p, row pair_point) and an arc (Arcs,
+    row pair_arc): the cross-track distance where the foot of the perpendicular falls inside the
+    arc, else the distance to the nearer end; the arcsine or the two haversines only where they
+    are used, and only the values a pair needs gathered for it."""
+    a, b = arcs.a, arcs.b
+    px, py, pz = p.x[pair_point], p.y[pair_point], p.z[pair_point]
+    ax, ay, az, bx, by, bz = a.x[pair_arc], a.y[pair_arc], a.z[pair_arc], b.x[pair_arc], b.y[pair_arc], b.z[pair_arc]
+    nx, ny, nz = arcs.nx[pair_arc], arcs.ny[pair_arc], arcs.nz[pair_arc]
+    sin_cross = px * nx + py * ny + pz * nz
+    fx = px - sin_cross * nx
+    fy = py - sin_cross * ny
+    fz = pz - sin_cross * nz
+    afx = ay * fz - az * fy
+    afy = az * fx - ax * fz
+    afz = ax * fy - ay * fx
+    fbx = fy * bz - fz * by
+    fby = fz * bx - fx * bz
+    fbz = fx * by - fy * bx
+    inside = ~arcs.degenerate[pair_arc] & (afx * nx + afy * ny + afz * nz >= 0) & (fbx * nx + fby * ny + fbz * nz >= 0)
     km = np.empty(sin_cross.shape)
     km[inside] = np.abs(asin(np.maximum(-1, np.minimum(1, sin_cross[inside])))) * EARTH_RADIUS_KM
     ends = np.nonzero(~inside)[0]
     if ends.size:
-        q = p.take(ends)
-        km[ends] = np.minimum(_haversine(q, a.take(ends)), _haversine(q, b.take(ends)))
+        q, e = p.take(pair_point[ends]), pair_arc[ends]
+        km[ends] = np.minimum(_haversine(q, a.take(e)), _haversine(q, b.take(e)))
     return km
 
 
 def point_to_arc_km(p_lon, p_lat, a_lon, a_lat, b_lon, b_lat):
     """Shortest great-circle distance in km from points P to arcs A-B (arrays of equal length)."""
-    return arc_distance_km(Points(p_lon, p_lat), Arcs(a_lon, a_lat, b_lon, b_lat))
+    every = np.arange(np.size(p_lon))
+    return arc_distance_km(Points(p_lon, p_lat), every, Arcs(a_lon, a_lat, b_lon, b_lat), every)

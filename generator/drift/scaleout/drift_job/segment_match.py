@@ -125,7 +125,7 @@ class SegmentMatcher:
         # Great-circle distances: each remaining position's unit vector once, then per pair.
         first = np.concatenate(([True], pair[1:] != pair[:-1]))
         measured = Points(plon[pair[first]], plat[pair[first]])
-        km = arc_distance_km(measured.take(np.cumsum(first) - 1), self.arcs.take(edge))
+        km = arc_distance_km(measured, np.cumsum(first) - 1, self.arcs, edge)
         keep = km <= self.max_km
         point, edge, km = points[pair[keep]], edge[keep], km[keep]
         if point.size == 0:
