@@ -4,7 +4,7 @@ decision rules of generator/drift/segment-index.ts:
   position (dLat = distance / km per degree of latitude, dLon widened by the cosine of the
   latitude nearer the pole);
 - an edge whose local flat-Earth distance exceeds 1.05 x the distance + 0.05 km is not measured;
-- the others are measured by great-circle distance to the arc (geodesy.point_to_arc_km); the
+- the others are measured by great-circle distance to the arc (geodesy.arc_distance_km); the
   nearest edge within the distance wins, the segment listed first when two are exactly as near.
 Candidates are found with a grid of cells (the grid-cell method of docs/scaling.md): every edge is
 listed in the cells its widened box covers, and a position looks up its own cell only. Whole
