@@ -1,7 +1,8 @@
 #!/usr/bin/python3
 """Drift-job benchmark: the built-in drift reader against the Dask drift job on 1 and 2 local
 workers, on synthetic drift output written to disk (streamed, never held in memory), for each size
-given (default 10^7 and 10^8 positions over 2,000 segments), side by side in one run.
+given (default 10^7 and 10^8 positions over 2,000 segments), side by side in one run, and how
+each run's time grows from the smallest size to the largest.
 
   /usr/bin/python3 bench/drift-job/run.py [--sizes 10000000,100000000] [--segments 2000]
                    [--files-per-10m 2] [--work /tmp/wrackline-drift-bench] [--keep]
@@ -165,23 +166,47 @@ def same(a, b):
         return x.read() == y.read()
 
 
+RUNS = ("built-in reader", "Dask job, 1 worker", "Dask job, 2 workers")
+
+
+def table(results, sizes):
+    """Side by side: one row per size, wall time and peak memory of each run."""
+    lines = ["| positions | " + " | ".join(f"{r}: wall, peak memory" for r in RUNS) + " | job tables equal to built-in |",
+             "|---:|" + "---:|" * len(RUNS) + "---|"]
+    for size in sizes:
+        row = results[size]
+        cells = [f"{row[r][0]:.1f} s, {row[r][1]:,.0f} MiB" if r in row else "—" for r in RUNS]
+        lines.append(f"| {row['positions']:,} | " + " | ".join(cells) + f" | {row.get('equal', '—')} |")
+    return "\n".join(lines)
+
+
+def growth(results, sizes):
+    """How each run's time grows from the smallest to the largest size."""
+    if len(sizes) < 2:
+        return []
+    a, b = results[sizes[0]], results[sizes[-1]]
+    factor = b["positions"] / a["positions"]
+    return [f"{r}: x{factor:.0f} positions took x{b[r][0] / a[r][0]:.1f} the time ({a[r][0]:.1f} s -> {b[r][0]:.1f} s)" for r in RUNS if r in a and r in b]
+
+
 def main():
-    parser = argparse.ArgumentParser()
-    parser.add_argument("--sizes", default="10000000,100000000")
+    parser = argparse.ArgumentParser(description="Built-in drift reader against the Dask drift job, side by side.")
+    parser.add_argument("--sizes", default="10000000,100000000", help="position counts, comma-separated (default 10^7 and 10^8)")
     parser.add_argument("--segments", type=int, default=2000)
-    parser.add_argument("--files-per-10m", type=int, default=2)
+    parser.add_argument("--files-per-10m", type=int, default=2, help="files per 10 million positions (one file per batch of particles); smaller files when the smallest size needs them")
     parser.add_argument("--work", default="/tmp/wrackline-drift-bench")
-    parser.add_argument("--keep", action="store_true")
+    parser.add_argument("--keep", action="store_true", help="keep the generated files")
     args = parser.parse_args()
-    sizes = [int(float(s)) for s in args.sizes.split(",")]
+    sizes = sorted(int(float(s)) for s in args.sizes.split(","))
     log = lambda text: print(text, flush=True)  # noqa: E731
     data = os.path.join(args.work, "data")
     os.makedirs(data, exist_ok=True)
     largest = max(sizes)
-    files = max(1, round(largest / 1e7 * args.files_per_10m))
-    per_file = largest // files
-    particles = per_file // DAYS
-    log(f"machine: {os.cpu_count()} cores, load average {os.getloadavg()[0]:.2f}; python {sys.version.split()[0]}")
+    # Files of equal size, small enough that every size is a whole number of them.
+    per_file = min(sizes[0], largest // max(1, round(largest / 1e7 * args.files_per_10m)))
+    particles = max(1, per_file // DAYS)
+    files = math.ceil(largest / (particles * DAYS))
+    log(f"{time.strftime('%Y-%m-%d %H:%M', time.gmtime())} UTC; machine: {os.cpu_count()} cores, load average {'/'.join(f'{x:.2f}' for x in os.getloadavg())} (1/5/15 min); python {sys.version.split()[0]}")
     t0 = time.monotonic()
     write_segments(os.path.join(data, "segments.geojson"), args.segments)
     names = [f"positions-{k:03d}.csv" for k in range(files)]
@@ -191,36 +216,35 @@ def main():
             write_batch(path, k * particles, particles, args.segments, 11 + k)
     gb = sum(os.path.getsize(os.path.join(data, n)) for n in names) / 2**30
     log(f"wrote {files} files x {particles * DAYS:,} positions ({particles:,} particles x {DAYS} days), {gb:.2f} GiB, {args.segments} segments, in {time.monotonic() - t0:.0f} s")
-    rows = []
+    results = {}
     job = ["/usr/bin/python3", os.path.join(ROOT, "generator/drift/scaleout/run-drift-job.py")]
     try:
-        for size in sorted(sizes):
+        for size in sizes:
             count = max(1, size // (particles * DAYS))
             folder = os.path.join(args.work, f"scenario-{size}")
             scenario(folder, names[:count], data)
-            positions = count * particles * DAYS
+            row = results[size] = {"positions": count * particles * DAYS}
             out_builtin = os.path.join(args.work, f"builtin-{size}")
             wall, peak, out, _ = measured(["npx", "tsx", "bench/drift-job/builtin-tally.ts", folder, out_builtin], log)
-            rows.append((positions, "built-in reader (Node, 1 process)", wall, peak))
-            log(f"{positions:>12,} positions  built-in reader        {wall:8.1f} s  {peak:8.0f} MiB  {out.strip()}")
-            for workers in (1, 2):
+            row[RUNS[0]] = (wall, peak)
+            log(f"{row['positions']:>13,} positions ({count} files)  {RUNS[0]:<20} {wall:8.1f} s {peak:8,.0f} MiB   {out.strip()}")
+            equal = []
+            for workers, name in ((1, RUNS[1]), (2, RUNS[2])):
                 out_job = os.path.join(args.work, f"job-{size}-{workers}")
                 wall, peak, _, err = measured(job + ["--scenario", folder, "--out", out_job, "--workers", str(workers)], log)
-                equal = all(same(os.path.join(out_builtin, f), os.path.join(out_job, "drift", f)) for f in ("drift-arrivals.csv", "drift-end-positions.csv"))
-                rows.append((positions, f"Dask job, {workers} worker(s)", wall, peak))
-                log(f"{positions:>12,} positions  Dask job, {workers} worker(s)    {wall:8.1f} s  {peak:8.0f} MiB  tables equal to built-in: {'yes' if equal else 'NO'}; {err.strip().splitlines()[-1]}")
+                equal.append(all(same(os.path.join(out_builtin, f), os.path.join(out_job, "drift", f)) for f in ("drift-arrivals.csv", "drift-end-positions.csv")))
+                row[name] = (wall, peak)
+                log(f"{row['positions']:>13,} positions ({count} files)  {name:<20} {wall:8.1f} s {peak:8,.0f} MiB   tables equal: {'yes' if equal[-1] else 'NO'}; {err.strip().splitlines()[-1]}")
                 shutil.rmtree(out_job, ignore_errors=True)
+            row["equal"] = "yes" if all(equal) else "NO"
             shutil.rmtree(out_builtin, ignore_errors=True)
     finally:
         if not args.keep:
             shutil.rmtree(args.work, ignore_errors=True)
-    log("\n| positions | run | wall | peak memory |\n|---|---|---|---|")
-    for positions, name, wall, peak in rows:
-        log(f"| {positions:,} | {name} | {wall:.1f} s | {peak:,.0f} MiB |")
-    jobs = [r for r in rows if r[1].startswith("Dask job, 2")]
-    if len(jobs) >= 2:
-        a, b = jobs[0], jobs[-1]
-        log(f"Dask job on 2 workers: x{b[0] / a[0]:.0f} positions took x{b[2] / a[2]:.1f} the time ({a[2]:.1f} s -> {b[2]:.1f} s)")
+    log(f"\nwall time and peak memory (resident set of the process tree); load average at the end {'/'.join(f'{x:.2f}' for x in os.getloadavg())}\n")
+    log(table(results, sizes))
+    for line in growth(results, sizes):
+        log(line)
 
 
 if __name__ == "__main__":

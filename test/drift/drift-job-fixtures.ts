@@ -9,7 +9,8 @@
  * - particles drifting across season boundaries (November→December, the year of winter changes;
  *   February→March), over several files (plain CSV and gzip CSV, the same particles continuing
  *   from file to file, equal times in two files, a time going backwards), with stranded positions;
- * - a few bad rows the readers must leave out and report.
+ * - a few bad rows the readers must leave out and report, a gzip file cut short and a text file
+ *   named as gzip.
  * All places and values are invented.
  */
 import { mkdirSync, writeFileSync } from 'node:fs';
@@ -175,9 +176,21 @@ export function writeCsvScenario(dir: string): void {
   rows1.push(`63,${iso(Date.UTC(2026, 1, 28, 23))},10.1,40.05,drifting,extra`);
   writeFileSync(join(dir, 'drift', 'positions-1.csv'), `${rows1.join('\n')}\n`);
   writeFileSync(join(dir, 'drift', 'positions-2.csv.gz'), gzipSync(`${rows2.join('\n')}\n`));
+  // A gzip file cut short (its positions up to the cut count, then the error names the row where
+  // reading stopped) and a plain text file that claims to be gzip.
+  const rows3: string[] = ['particle,time,lon,lat,status'];
+  for (let particle = 70; particle < 80; particle++) {
+    for (let h = 0; h < 30; h++)
+      rows3.push(`${particle},${iso((starts[1] ?? 0) + h * 3_600_000)},${(10 + random.uniform() * 2).toFixed(6)},${(40 + random.uniform() * 0.15).toFixed(6)},drifting`);
+  }
+  const whole = gzipSync(`${rows3.join('\n')}\n`);
+  writeFileSync(join(dir, 'drift', 'positions-3.csv.gz'), whole.subarray(0, Math.floor(whole.length * 0.6)));
+  writeFileSync(join(dir, 'drift', 'positions-4.csv.gz'), `${rows3.slice(0, 5).join('\n')}\n`);
   writeScenario(dir, [
     { name: 'positions-1', role: 'drift-positions', path: 'drift/positions-1.csv' },
     { name: 'positions-2', role: 'drift-positions', path: 'drift/positions-2.csv.gz', compression: 'gz' },
+    { name: 'positions-3', role: 'drift-positions', path: 'drift/positions-3.csv.gz', compression: 'gz' },
+    { name: 'positions-4', role: 'drift-positions', path: 'drift/positions-4.csv.gz', compression: 'gz' },
   ]);
 }
 

@@ -56,6 +56,7 @@ def _package_folder():
 
 
 def start_client(scheduler, workers, threads):
+    import dask
     from distributed import Client, LocalCluster
 
     if scheduler:
@@ -70,9 +71,24 @@ def start_client(scheduler, workers, threads):
         return client, None
     # Every server of the local cluster (scheduler, its dashboard, workers, their status pages,
     # nannies) listens on 127.0.0.1 only, on ports the system picks.
-    cluster = LocalCluster(n_workers=workers, threads_per_worker=threads, processes=True, host="127.0.0.1",
-                           dashboard_address="127.0.0.1:0", worker_dashboard_address="127.0.0.1:0", scheduler_port=0, silence_logs=40)
+    with dask.config.set({"distributed.nanny.pre-spawn-environ": worker_environment()}):
+        cluster = LocalCluster(n_workers=workers, threads_per_worker=threads, processes=True, host="127.0.0.1",
+                               dashboard_address="127.0.0.1:0", worker_dashboard_address="127.0.0.1:0", scheduler_port=0, silence_logs=40)
     return Client(cluster), cluster
+
+
+def worker_environment():
+    """The environment distributed gives its worker processes, with glibc's memory settings put
+    back near their defaults. distributed sets MALLOC_TRIM_THRESHOLD_=65536, which also freezes
+    glibc's mmap threshold at 128 KiB: every numpy array above that is then mapped afresh and
+    faulted in page by page, and a block of positions took 4 to 6 times as long (measured, see
+    ../README.md). Variables set in the shell that starts the job still win."""
+    import dask
+
+    environment = dict(dask.config.get("distributed.nanny.pre-spawn-environ", {}))
+    environment["MALLOC_TRIM_THRESHOLD_"] = 64 << 20
+    environment["MALLOC_MMAP_THRESHOLD_"] = 32 << 20
+    return environment
 
 
 def run(scenario_dir, out_dir, client):

@@ -62,16 +62,21 @@ def _reduce(x):
     return r, np.mod(k, 4)
 
 
-def sin(x):
+def sin_cos(x):
+    """Sine and cosine of the same angles: one reduction and one pair of series for both."""
     r, q = _reduce(np.asarray(x, dtype=np.float64))
     s, c = _sin_series(r), _cos_series(r)
-    return np.where(q == 0, s, np.where(q == 1, c, np.where(q == 2, -s, -c)))
+    sine = np.where(q == 0, s, np.where(q == 1, c, np.where(q == 2, -s, -c)))
+    cosine = np.where(q == 0, c, np.where(q == 1, -s, np.where(q == 2, -c, s)))
+    return sine, cosine
+
+
+def sin(x):
+    return sin_cos(x)[0]
 
 
 def cos(x):
-    r, q = _reduce(np.asarray(x, dtype=np.float64))
-    s, c = _sin_series(r), _cos_series(r)
-    return np.where(q == 0, c, np.where(q == 1, -s, np.where(q == 2, -c, s)))
+    return sin_cos(x)[1]
 
 
 def _asin_series(t):
@@ -83,10 +88,12 @@ def _asin_series(t):
 
 
 def asin(x):
+    """Each series only on the values that take it (element by element the same steps)."""
     x = np.asarray(x, dtype=np.float64)
     t = np.abs(x)
+    value = np.full(t.shape, np.nan)
     small = t <= 0.5
-    with np.errstate(invalid="ignore"):
-        value = np.where(small, _asin_series(np.where(small, t, 0.0)), HALF_PI - 2 * _asin_series(np.sqrt(np.where(small, 1.0, (1 - t) / 2))))
-    value = np.where(t <= 1, value, np.nan)
+    large = (t > 0.5) & (t <= 1)
+    value[small] = _asin_series(t[small])
+    value[large] = HALF_PI - 2 * _asin_series(np.sqrt((1 - t[large]) / 2))
     return np.where(x < 0, -value, value)

@@ -7,12 +7,15 @@ file, the header being row 1.
 
 A block is first read by pandas' C parser with numbers read exactly (round_trip); a block with
 anything unusual (a quote, an empty line, a bad or missing value, a duplicate, a cut-off last
-line) is read again line by line by `_checked_block`, which reports every left-out row."""
+line) is read again line by line by `_checked_block`, which reports every left-out row. A gzip
+file cut short gives its positions up to the cut and then the built-in reader's message, naming the
+row where reading stopped."""
 import csv
 import gzip
 import io
 import math
 import re
+import zlib
 
 import numpy as np
 import pandas as pd
@@ -231,6 +234,47 @@ class PositionsReader:
         return self._checked_block(data.decode("utf-8", errors="replace"), first_line, ends_with_newline)
 
 
+class Gunzip:
+    """Gzip (RFC 1952, members one after another) read piece by piece: a file cut short gives every
+    byte before the cut, then EOFError("unexpected end of file"), the words of Node's zlib."""
+
+    def __init__(self, path):
+        self.raw = open(path, "rb")
+        self.inflate = zlib.decompressobj(16 + zlib.MAX_WBITS)
+        self.error = None
+
+    def read(self, size):
+        if self.error is not None:
+            raise self.error
+        pieces, n = [], 0
+        while n < size:
+            if self.inflate.eof:
+                data = self.inflate.unused_data or self.raw.read(1 << 18)
+                if not data:
+                    break  # the end of the last member
+                self.inflate = zlib.decompressobj(16 + zlib.MAX_WBITS)
+            else:
+                data = self.raw.read(1 << 18)
+                if not data:
+                    self.error = EOFError("unexpected end of file")
+                    break
+            try:
+                piece = self.inflate.decompress(data)
+            except zlib.error as error:  # "Error -3 while decompressing data: incorrect header check"
+                raise OSError(str(error).split(": ", 1)[-1]) from None
+            pieces.append(piece)
+            n += len(piece)
+        if not pieces and self.error is not None:
+            raise self.error
+        return b"".join(pieces)
+
+    def __enter__(self):
+        return self
+
+    def __exit__(self, *exc):
+        self.raw.close()
+
+
 def read_positions(resource, block_bytes=BLOCK_BYTES):
     """Yields (reader, Block) for each block of good positions; the reader holds the issues."""
     reader = PositionsReader(resource.path, resource.delimiter)
@@ -239,7 +283,7 @@ def read_positions(resource, block_bytes=BLOCK_BYTES):
     rest = b""
     saw_bom = False
     try:
-        handle = gzip.open(resource.absolute_path, "rb") if gz else open(resource.absolute_path, "rb")
+        handle = Gunzip(resource.absolute_path) if gz else open(resource.absolute_path, "rb")
     except OSError as error:
         reader.issues.append(msg.csv_unreadable(resource.path, 1, error.strerror or str(error)))
         return reader, iter(())

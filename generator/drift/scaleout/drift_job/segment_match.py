@@ -4,15 +4,18 @@ decision rules of generator/drift/segment-index.ts:
   position (dLat = distance / km per degree of latitude, dLon widened by the cosine of the
   latitude nearer the pole);
 - an edge whose local flat-Earth distance exceeds 1.05 x the distance + 0.05 km is not measured;
-- the others are measured by great-circle distance to the arc (geodesy.point_to_arc_km); the
+- the others are measured by great-circle distance to the arc (geodesy.arc_distance_km); the
   nearest edge within the distance wins, the segment listed first when two are exactly as near.
 Candidates are found with a grid of cells (the grid-cell method of docs/scaling.md): every edge is
-listed in the cells its widened box covers, and a position looks up its own cell only."""
+listed in the cells its widened box covers, and a position looks up its own cell only. Whole
+arrays at a time: the edges' unit vectors and great-circle normals are computed once (geodesy.Arcs,
+sent to the workers with the matcher), a position's once per block (geodesy.Points), and only
+the pairs that pass the two cheap filters are measured."""
 import math
 
 import numpy as np
 
-from .geodesy import KM_PER_DEGREE_LAT, point_to_arc_km
+from .geodesy import KM_PER_DEGREE_LAT, Arcs, Points, arc_distance_km
 
 
 def _search_box(lat, max_km):
@@ -33,8 +36,11 @@ class SegmentMatcher:
         self.max_x = np.maximum(self.x1, self.x2)
         self.min_y = np.minimum(self.y1, self.y2)
         self.max_y = np.maximum(self.y1, self.y2)
+        self.arcs = Arcs(self.x1, self.y1, self.x2, self.y2)
         d_lat = self.max_km / KM_PER_DEGREE_LAT
-        self.cell = max(2 * d_lat, 1e-4)
+        # Cells of half the search distance: an edge is listed in more cells, a position meets
+        # fewer edges that are out of reach.
+        self.cell = max(d_lat / 2, 1e-4)
         if len(e) == 0:
             self.cell_keys = np.zeros(0, dtype=np.int64)
             return
@@ -85,24 +91,27 @@ class SegmentMatcher:
         points = np.nonzero(found)[0]
         if points.size == 0:
             return best
+        # Per position in a listed cell: its search box and flat-Earth scale, computed once.
+        plon, plat = lon[points], lat[points]
+        d_lat, d_lon = _search_box(plat, self.max_km)
+        k_lon = KM_PER_DEGREE_LAT * np.cos((plat * math.pi) / 180)
         counts = self.cell_count[slot[points]]
         starts = self.cell_start[slot[points]]
         total = int(counts.sum())
-        point = np.repeat(points, counts)
+        pair = np.repeat(np.arange(points.size), counts)  # position (index into points) of each pair
         offsets = np.arange(total, dtype=np.int64) - np.repeat(np.cumsum(counts) - counts, counts)
         edge = self.cell_edges[np.repeat(starts, counts) + offsets]
-        plon, plat = lon[point], lat[point]
         # The box search of segment-index.ts.
-        d_lat, d_lon = _search_box(plat, self.max_km)
-        keep = ~((self.max_x[edge] < plon - d_lon) | (self.max_y[edge] < plat - d_lat) | (self.min_x[edge] > plon + d_lon) | (self.min_y[edge] > plat + d_lat))
-        point, edge, plon, plat = point[keep], edge[keep], plon[keep], plat[keep]
+        qlon, qlat, qd_lon = plon[pair], plat[pair], d_lon[pair]
+        keep = ~((self.max_x[edge] < qlon - qd_lon) | (self.max_y[edge] < qlat - d_lat) | (self.min_x[edge] > qlon + qd_lon) | (self.min_y[edge] > qlat + d_lat))
+        pair, edge, qlon, qlat = pair[keep], edge[keep], qlon[keep], qlat[keep]
         # The local flat-Earth estimate of segment-index.ts, written in the same order.
         x1, y1, x2, y2 = self.x1[edge], self.y1[edge], self.x2[edge], self.y2[edge]
-        k_lon = KM_PER_DEGREE_LAT * np.cos((plat * math.pi) / 180)
-        ax = (x1 - plon) * k_lon
-        ay = (y1 - plat) * KM_PER_DEGREE_LAT
-        dx = (x2 - plon) * k_lon - ax
-        dy = (y2 - plat) * KM_PER_DEGREE_LAT - ay
+        q_k_lon = k_lon[pair]
+        ax = (x1 - qlon) * q_k_lon
+        ay = (y1 - qlat) * KM_PER_DEGREE_LAT
+        dx = (x2 - qlon) * q_k_lon - ax
+        dy = (y2 - qlat) * KM_PER_DEGREE_LAT - ay
         length2 = dx * dx + dy * dy
         with np.errstate(divide="ignore", invalid="ignore"):
             t = np.where(length2 > 0, np.maximum(0, np.minimum(1, -(ax * dx + ay * dy) / np.where(length2 > 0, length2, 1))), 0)
@@ -110,10 +119,15 @@ class SegmentMatcher:
         py = ay + t * dy
         planar = np.sqrt(px * px + py * py)
         keep = ~(planar > self.max_km * 1.05 + 0.05)
-        point, edge, plon, plat = point[keep], edge[keep], plon[keep], plat[keep]
-        km = point_to_arc_km(plon, plat, self.x1[edge], self.y1[edge], self.x2[edge], self.y2[edge])
+        pair, edge = pair[keep], edge[keep]
+        if pair.size == 0:
+            return best
+        # Great-circle distances: each remaining position's unit vector once, then per pair.
+        first = np.concatenate(([True], pair[1:] != pair[:-1]))
+        measured = Points(plon[pair[first]], plat[pair[first]])
+        km = arc_distance_km(measured, np.cumsum(first) - 1, self.arcs, edge)
         keep = km <= self.max_km
-        point, edge, km = point[keep], edge[keep], km[keep]
+        point, edge, km = points[pair[keep]], edge[keep], km[keep]
         if point.size == 0:
             return best
         # Candidates come grouped by position (in increasing order): the nearest per group, and
