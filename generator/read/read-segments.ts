@@ -14,7 +14,7 @@
  * ring wound the other way encloses the rest of the globe. Polygons are kept in the winding under
  * which d3-geo sees the small area (geoArea ≤ 2π), so maps drawn from them fill correctly.
  */
-import { readUtf8File } from './utf8-text.ts';
+import { readUtf8Logged } from './utf8-text.ts';
 import { geoArea, geoLength } from 'd3-geo';
 import { feature as topologyFeature } from 'topojson-client';
 import type { Topology } from 'topojson-specification';
@@ -28,7 +28,6 @@ import {
   SegmentIdDuplicate,
   SegmentPropertyInvalid,
   SegmentsUnreadable,
-  FileNotUtf8,
 } from '../errors.ts';
 import type { ErrorData } from '../errors.ts';
 import type { SegmentKind, ShellfishUse } from '../model/types.ts';
@@ -367,20 +366,9 @@ export async function readFeatureFile(
 ): Promise<unknown[] | null> {
   let outcome;
   try {
-    const text = await readUtf8File(absolutePath);
-    if (!text.ok) {
-      log.add(FileNotUtf8, FileNotUtf8.message(file, text.line, text.sample), {
-        file,
-        row: text.line,
-        column: null,
-        value: text.sample,
-        expected: `${what} saved as UTF-8`,
-        severity: 'error',
-        excluded: true,
-      });
-      return null;
-    }
-    outcome = parseBoundedJson(text.text);
+    const text = await readUtf8Logged(absolutePath, file, log, `${what} saved as UTF-8`);
+    if (text === null) return null;
+    outcome = parseBoundedJson(text);
   } catch (error) {
     outcome = { ok: false as const, kind: 'syntax' as const, reason: error instanceof Error ? error.message : String(error) };
   }

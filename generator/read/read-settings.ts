@@ -3,10 +3,10 @@
  * generator/scenario/settings.ts. Each problem is reported with the file and the JSON path of the
  * offending setting. Returns null when the settings cannot be used.
  */
-import { readUtf8File } from './utf8-text.ts';
+import { readUtf8Logged } from './utf8-text.ts';
 import { parse as parseYaml } from 'yaml';
 import { z } from 'zod';
-import { BidiControlInText, FileNotUtf8, JsonTooDeep, SettingUnknown, SettingsInvalid, SettingsUnreadable } from '../errors.ts';
+import { BidiControlInText, JsonTooDeep, SettingUnknown, SettingsInvalid, SettingsUnreadable } from '../errors.ts';
 import type { ScenarioSettings } from '../scenario/settings.ts';
 import { settingsSchema } from '../scenario/settings.ts';
 import type { IssueLog } from './issue-log.ts';
@@ -112,20 +112,8 @@ export async function readSettings(absolutePath: string, file: string, log: Issu
   };
   let outcome;
   try {
-    const read = await readUtf8File(absolutePath);
-    if (!read.ok) {
-      log.add(FileNotUtf8, FileNotUtf8.message(file, read.line, read.sample), {
-        file,
-        row: read.line,
-        column: null,
-        value: read.sample,
-        expected: 'settings saved as UTF-8',
-        severity: 'error',
-        excluded: true,
-      });
-      return null;
-    }
-    const text = read.text;
+    const text = await readUtf8Logged(absolutePath, file, log, 'settings saved as UTF-8');
+    if (text === null) return null;
     outcome = isYamlSettings(file, format) ? checkParsedValue(parseYaml(text, { maxAliasCount: 100 })) : parseBoundedJson(text);
   } catch (error) {
     return unreadable(error instanceof Error ? error.message : String(error));

@@ -7,6 +7,8 @@
  */
 import { isUtf8 } from 'node:buffer';
 import { readFile } from 'node:fs/promises';
+import { FileNotUtf8 } from '../errors.ts';
+import type { IssueLog } from './issue-log.ts';
 
 export type Utf8Outcome = { ok: true; text: string } | { ok: false; line: number; sample: string };
 
@@ -30,4 +32,12 @@ export function decodeUtf8(bytes: Uint8Array): Utf8Outcome {
 export async function readUtf8File(absolutePath: string): Promise<Utf8Outcome> {
   const outcome = decodeUtf8(await readFile(absolutePath));
   return outcome.ok ? { ok: true, text: outcome.text.replace(/^\ufeff/, '') } : outcome;
+}
+
+/** The file's text, or null after logging FileNotUtf8 (an error that leaves the file out) naming its first bad row. */
+export async function readUtf8Logged(absolutePath: string, file: string, log: IssueLog, expected: string): Promise<string | null> {
+  const read = await readUtf8File(absolutePath);
+  if (read.ok) return read.text;
+  log.add(FileNotUtf8, FileNotUtf8.message(file, read.line, read.sample), { file, row: read.line, column: null, value: read.sample, expected, severity: 'error', excluded: true });
+  return null;
 }
