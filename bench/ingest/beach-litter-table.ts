@@ -86,7 +86,16 @@ function run(args: string[]): Promise<{ code: number | null; seconds: number; pe
   return new Promise((resolve) =>
     child.on('close', (code) => {
       clearInterval(sampler);
-      resolve({ code, seconds: (performance.now() - started) / 1000, peakMiB: peak / 1024, tail: output.split('\n').slice(-6).join('\n') });
+      resolve({
+        code,
+        seconds: (performance.now() - started) / 1000,
+        peakMiB: peak / 1024,
+        tail: output
+          .split('\n')
+          .filter((line) => !/^\s+at /.test(line))
+          .slice(-20)
+          .join('\n'),
+      });
     }),
   );
 }
