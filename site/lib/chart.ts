@@ -61,7 +61,8 @@ export function chartPlanOf(indicator: IndicatorBulletin): ChartPlanInput {
     direction: indicator.direction,
     seasonsDisagree: indicator.seasonsDisagree,
     trend: indicator.trend,
-    values: (indicator.seasonTotals ?? indicator.observations).map((o) => o.value),
+    // summarised samples: every sample lies between a season's lowest and highest
+    values: indicator.sampleSummaries ? indicator.sampleSummaries.flatMap((s) => [s.lowest, s.highest]) : (indicator.seasonTotals ?? indicator.observations).map((o) => o.value),
   };
 }
 

@@ -5,7 +5,7 @@
  * a whole bulletin is read when a page about it is rendered (`bulletinOf`). Pages only render
  * what is here.
  */
-import { readFileSync, statSync } from 'node:fs';
+import { readFileSync } from 'node:fs';
 import { join, resolve } from 'node:path';
 import type { BulletinListing } from '../../generator/model/listing.ts';
 import type { Bulletin, RegionSummary, SiteModel } from '../../generator/model/types.ts';
@@ -54,21 +54,35 @@ async function load(dir: string): Promise<LoadedModel> {
 }
 
 const whole = new Map<string, Bulletin>();
-/**
- * A bulletin model file larger than this is read again each time a page needs it instead of being
- * kept: one of a series with a million samples is hundreds of megabytes, and keeping several would
- * exceed the heap of the Astro process (generator/publish/render/astro-render.ts).
- */
-export const largestKeptBulletinBytes = 16 * 1024 * 1024;
 
-/** The whole bulletin a listing stands for, read from its model file once per build (large ones each time). */
+/**
+ * The bulletin as the pages use it: an indicator whose samples are shown as season summaries
+ * (`sampleSummaries`, more than 400 samples) keeps only its first and last sample, which is all
+ * its pages read of them (where the trend line starts and ends, the earliest date). A series of
+ * a million samples would otherwise keep hundreds of megabytes in the Astro process for every
+ * bulletin it renders; every sample stays in the downloads, which the generator writes.
+ */
+export function pageBulletin(bulletin: Bulletin): Bulletin {
+  if (!bulletin.indicators.some((i) => i.sampleSummaries && i.observations.length > 2)) return bulletin;
+  return {
+    ...bulletin,
+    indicators: bulletin.indicators.map((i) => {
+      if (!i.sampleSummaries || i.observations.length <= 2) return i;
+      const first = i.observations[0];
+      const last = i.observations[i.observations.length - 1];
+      return { ...i, observations: first && last ? [first, last] : [] };
+    }),
+  };
+}
+
+/** The bulletin a listing stands for (as the pages use it: pageBulletin), read from its model file once per build. */
 export function bulletinOf(listing: { season: { id: string }; segment: { id: string } }): Bulletin {
   const key = `${listing.season.id}/${listing.segment.id}`;
   let bulletin = whole.get(key);
   if (!bulletin) {
     const file = join(modelDir(), 'bulletins', safeName(listing.season.id, 'season id'), `${safeName(listing.segment.id, 'segment id')}.json`);
-    bulletin = readJson<Bulletin>(file);
-    if (statSync(file).size <= largestKeptBulletinBytes) whole.set(key, bulletin);
+    bulletin = pageBulletin(readJson<Bulletin>(file));
+    whole.set(key, bulletin);
   }
   return bulletin;
 }

@@ -1,10 +1,11 @@
 // Snapshot of every kind of chart the site draws (site/lib/chart.ts), one named scenario each:
 // test/output/<scenario>.svg. See test/snapshot.ts for the normalisation and the review workflow.
 import { describe, expect, it } from 'vitest';
-import { renderIndicatorChart, yScale } from '../../site/lib/chart.ts';
+import { chartPlanOf, renderIndicatorChart, yScale } from '../../site/lib/chart.ts';
+import { pageBulletin } from '../../site/lib/model.ts';
 import { svgSnapshot } from '../snapshot.ts';
 import { seasonSampleSummaries } from '../../generator/model/sample-summary.ts';
-import { countSeries, indicatorOf, manySamples } from './fixture-pictures.ts';
+import { bulletin as fixtureBulletin, countSeries, indicatorOf, manySamples } from './fixture-pictures.ts';
 
 describe('chart pictures', () => {
   svgSnapshot(function trendBandAndThreshold() {
@@ -67,5 +68,21 @@ describe('chart scales on large series', () => {
     const domain = yScale(countSeries([0]), values, [], [])['domain'] as [number, number];
     expect(domain[0]).toBe(0);
     expect(domain[1]).toBeGreaterThanOrEqual(999);
+  });
+});
+
+describe('bulletins of many samples in the site', () => {
+  it('keeps the first and last sample of a summarised series, and its chart is the same as from every sample', () => {
+    const many = manySamples(50);
+    const summaries = seasonSampleSummaries(many.observations);
+    if (!summaries) throw new Error('the many-samples series was not summarised');
+    const full = { ...many, sampleSummaries: summaries };
+    const bulletin = { ...fixtureBulletin, indicators: [full, indicatorOf('water-microplastics')] };
+    const slim = pageBulletin(bulletin);
+    const [slimLitter, slimWater] = slim.indicators;
+    expect(slimLitter?.observations).toEqual([full.observations[0], full.observations[full.observations.length - 1]]);
+    expect(slimWater).toBe(bulletin.indicators[1]);
+    expect(renderIndicatorChart(slimLitter!, {})).toBe(renderIndicatorChart(full, {}));
+    expect(chartPlanOf(slimLitter!)).toEqual(chartPlanOf(full));
   });
 });
