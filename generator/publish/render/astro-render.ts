@@ -10,8 +10,8 @@
  * date on a page may depend on the machine's zone), and writes to `--outDir`.
  */
 import { spawn } from 'node:child_process';
-import { existsSync, readFileSync } from 'node:fs';
-import { mkdir, readFile, readdir, rm, stat, writeFile } from 'node:fs/promises';
+import { existsSync, readFileSync, statSync } from 'node:fs';
+import { mkdir, readFile, readdir, rm, writeFile } from 'node:fs/promises';
 import { createRequire } from 'node:module';
 import { availableParallelism } from 'node:os';
 import path from 'node:path';
@@ -117,14 +117,19 @@ export function astroHeapFor(largestBulletinBytes: number): number {
   return astroHeapMiB + Math.ceil((5 * largestBulletinBytes) / (1024 * 1024));
 }
 
-/** Size in bytes of the largest bulletin file of a model folder (0 when none). */
-async function largestBulletinBytes(modelDir: string): Promise<number> {
-  let largest = 0;
-  for (const id of await modelBulletinIds(modelDir)) {
-    const { size } = await stat(path.join(modelDir, 'bulletins', `${id}.json`));
-    if (size > largest) largest = size;
+/** Size in bytes of the largest bulletin file of a model folder (0 when none); one look per folder. */
+const largestSizes = new Map<string, Promise<number>>();
+function largestBulletinBytes(modelDir: string): Promise<number> {
+  let found = largestSizes.get(modelDir);
+  if (!found) {
+    found = modelBulletinIds(modelDir).then((ids) => {
+      let largest = 0;
+      for (const id of ids) largest = Math.max(largest, statSync(path.join(modelDir, 'bulletins', `${id}.json`)).size);
+      return largest;
+    });
+    largestSizes.set(modelDir, found);
   }
-  return largest;
+  return found;
 }
 
 /** One Astro process per core, at most two, and only when there are enough bulletins to share. */
