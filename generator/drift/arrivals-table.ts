@@ -65,22 +65,26 @@ export async function readArrivalsTable(
         });
         keep = false;
       }
-      if (seasonRange(season, seasons) === null) {
-        log.add(DriftSeasonUnknown, DriftSeasonUnknown.message(file, row.line, 'season', season), {
-          file,
-          row: row.line,
-          column: 'season',
-          value: season,
-          expected: 'YYYY-<season id>',
-          severity: 'warning',
-          excluded: true,
-        });
-        keep = false;
-      }
+      if (!knownDriftSeason(season, seasons, log, file, row.line)) keep = false;
       if (!keep) return 'excluded';
       rows.push({ segmentId, season, arrivals: Number(row.values['arrivals']) });
       return 'kept';
     },
   });
   return rows;
+}
+
+/** Whether a drift table's season id names a season of the settings; logs DriftSeasonUnknown (the row left out) when not. */
+export function knownDriftSeason(season: string, seasons: readonly SeasonDefinition[], log: IssueLog, file: string, line: number): boolean {
+  if (seasonRange(season, seasons) !== null) return true;
+  log.add(DriftSeasonUnknown, DriftSeasonUnknown.message(file, line, 'season', season), {
+    file,
+    row: line,
+    column: 'season',
+    value: season,
+    expected: 'YYYY-<season id>',
+    severity: 'warning',
+    excluded: true,
+  });
+  return false;
 }

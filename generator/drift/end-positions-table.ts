@@ -5,12 +5,11 @@
  * particles first appeared in it. The accumulation zones are found from these positions exactly
  * as from positions read here.
  */
-import { DriftSeasonUnknown } from '../errors.ts';
+import { knownDriftSeason } from './arrivals-table.ts';
 import { readCsvTable } from '../read/csv-table.ts';
 import { buildRules } from '../read/indicator-table.ts';
 import type { IssueLog } from '../read/issue-log.ts';
 import type { ResourceEntry, TableSchema } from '../read/package-descriptor.ts';
-import { seasonRange } from '../read/season-calendar.ts';
 import type { SeasonDefinition } from '../scenario/settings.ts';
 
 const defaultSchema: TableSchema = {
@@ -45,18 +44,7 @@ export async function readEndPositionsTable(
     log,
     onRow: (row) => {
       const season = String(row.values['season'] ?? '');
-      if (seasonRange(season, seasons) === null) {
-        log.add(DriftSeasonUnknown, DriftSeasonUnknown.message(file, row.line, 'season', season), {
-          file,
-          row: row.line,
-          column: 'season',
-          value: season,
-          expected: 'YYYY-<season id>',
-          severity: 'warning',
-          excluded: true,
-        });
-        return 'excluded';
-      }
+      if (!knownDriftSeason(season, seasons, log, file, row.line)) return 'excluded';
       let positions = bySeason.get(season);
       if (!positions) {
         positions = { lon: [], lat: [] };

@@ -36,7 +36,11 @@ export function shortReason(reason: string): string {
 }
 
 function unreadable(file: string, reason: string): InputValidationError {
-  reason = shortReason(reason);
+  return netcdfUnreadable(file, shortReason(reason));
+}
+
+/** The error for a NetCDF file that cannot be read (to its end), naming the file and the reason. */
+export function netcdfUnreadable(file: string, reason: string): InputValidationError {
   return new InputValidationError(NetcdfUnreadable, {
     file,
     row: null,

@@ -3,12 +3,12 @@
  * Any failure while reading a damaged file — in our decoder or inside the format libraries — is
  * turned into an InputValidationError naming the file, so a bad file never escapes as a crash.
  */
-import { InputValidationError, NetcdfUnreadable } from '../errors.ts';
+import { InputValidationError } from '../errors.ts';
 import type { IssueLog } from '../read/issue-log.ts';
 import type { TrajectorySummary } from './cf-trajectories.ts';
 import { decodeTrajectories } from './cf-trajectories.ts';
 import type { NetcdfDataset } from './netcdf-dataset.ts';
-import { openNetcdf } from './netcdf-dataset.ts';
+import { netcdfUnreadable, openNetcdf } from './netcdf-dataset.ts';
 import type { Position } from './positions-csv.ts';
 
 export async function readTrajectoryFile(absolutePath: string, file: string, log: IssueLog, emit: (position: Position) => boolean): Promise<TrajectorySummary> {
@@ -18,19 +18,7 @@ export async function readTrajectoryFile(absolutePath: string, file: string, log
     return decodeTrajectories(dataset, file, log, emit);
   } catch (error) {
     if (error instanceof InputValidationError) throw error;
-    const reason = error instanceof Error ? error.message : String(error);
-    throw new InputValidationError(NetcdfUnreadable, {
-      file,
-      row: null,
-      column: null,
-      value: null,
-      expected: 'a complete NetCDF-3 or NetCDF-4 file',
-      message: NetcdfUnreadable.message(file, reason),
-      severity: 'error',
-      excluded: true,
-      code: NetcdfUnreadable.name,
-      hint: NetcdfUnreadable.hint,
-    });
+    throw netcdfUnreadable(file, error instanceof Error ? error.message : String(error));
   } finally {
     try {
       dataset?.close();
